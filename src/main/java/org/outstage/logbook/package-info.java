@@ -1,0 +1,2 @@
+/** SQLite logbook: units under test, sessions, stored captures, measurements, bias steps; numbered migrations. */
+package org.outstage.logbook;

@@ -1,0 +1,2 @@
+/** JavaFX workbench; the only package that imports javafx. */
+package org.outstage.ui;
