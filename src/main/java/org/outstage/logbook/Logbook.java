@@ -407,22 +407,26 @@ public final class Logbook implements AutoCloseable {
                     seq = rs.getInt(1);
                 }
             }
-            try (PreparedStatement ins = c.prepareStatement("INSERT INTO bias_steps(session_id, seq, taken_at, reading_value, reading_unit,"
-                    + " heatsink_c, ambient_c, channel, measurement_id) VALUES (?,?,?,?,?,?,?,?,?)")) {
-                ins.setLong(1, sessionId);
-                ins.setInt(2, seq);
-                ins.setString(3, draft.takenAt().toString());
-                ins.setDouble(4, draft.reading().value());
-                ins.setString(5, draft.reading().unit().symbol());
-                setReal(ins, 6, draft.heatsinkCelsius());
-                setReal(ins, 7, draft.ambientCelsius());
-                ins.setInt(8, draft.channel());
-                if (mid == null) ins.setNull(9, Types.INTEGER);
-                else ins.setLong(9, mid);
-                ins.executeUpdate();
-            }
+            insertStep(c, sessionId, seq, draft, mid);
             return draft.withSeq(seq);
         });
+    }
+
+    private static void insertStep(Connection c, long sessionId, int seq, BiasStep draft, Long mid) throws SQLException {
+        try (PreparedStatement ins = c.prepareStatement("INSERT INTO bias_steps(session_id, seq, taken_at, reading_value, reading_unit,"
+                + " heatsink_c, ambient_c, channel, measurement_id) VALUES (?,?,?,?,?,?,?,?,?)")) {
+            ins.setLong(1, sessionId);
+            ins.setInt(2, seq);
+            ins.setString(3, draft.takenAt().toString());
+            ins.setDouble(4, draft.reading().value());
+            ins.setString(5, draft.reading().unit().symbol());
+            setReal(ins, 6, draft.heatsinkCelsius());
+            setReal(ins, 7, draft.ambientCelsius());
+            ins.setInt(8, draft.channel());
+            if (mid == null) ins.setNull(9, Types.INTEGER);
+            else ins.setLong(9, mid);
+            ins.executeUpdate();
+        }
     }
 
     private void requireOpen(Connection c, long sessionId) throws SQLException {
@@ -535,6 +539,42 @@ public final class Logbook implements AutoCloseable {
                 }
             }
             return out;
+        });
+    }
+
+    /** The whole session: unit, session, steps and the measurements outside steps. */
+    public synchronized SessionData sessionData(long sessionId) {
+        Session s = session(sessionId).orElseThrow(() -> new IllegalArgumentException("no session " + sessionId + " in logbook " + path));
+        UnitUnderTest u = unit(s.unitName()).orElseThrow();
+        return new SessionData(u, s, biasSteps(sessionId), measurements(sessionId));
+    }
+
+    /**
+     * Adds a session read from an export, in one transaction: the unit (if no unit of that name exists),
+     * the session with its times and notes, the steps with their sequence numbers, the measurements.
+     * Returns the new session's id.
+     */
+    public synchronized long importSession(SessionData data) {
+        return write(c -> {
+            long unitId = unitId(c, data.unit());
+            long sid;
+            Session s = data.session();
+            try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, ended_at, notes) VALUES (?,?,?,?,?)",
+                    Statement.RETURN_GENERATED_KEYS)) {
+                ins.setLong(1, unitId);
+                ins.setString(2, s.kind().label());
+                ins.setString(3, s.startedAt().toString());
+                setText(ins, 4, s.endedAt().map(Instant::toString));
+                ins.setString(5, s.notes());
+                ins.executeUpdate();
+                sid = generatedKey(ins);
+            }
+            for (BiasStep step : data.steps()) {
+                Long mid = step.measurement().isPresent() ? insertMeasurement(c, sid, step.measurement().get()) : null;
+                insertStep(c, sid, step.seq(), step, mid);
+            }
+            for (MeasurementRecord m : data.measurements()) insertMeasurement(c, sid, m);
+            return sid;
         });
     }
 
