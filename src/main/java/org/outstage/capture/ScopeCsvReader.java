@@ -538,12 +538,15 @@ public final class ScopeCsvReader {
             return true;
         }
 
+        private static final Pattern UNITISH = Pattern.compile("[(\\[]?[A-Za-zµμ°%/]{1,4}[)\\]]?");
+
+        /** A units row: at least one recognised time or voltage unit, the other cells empty or short unit-like tokens (A, div, dB). */
         private static boolean allUnits(List<String> cells) {
             boolean any = false;
             for (String s : cells) {
                 if (s.isEmpty() || s.equalsIgnoreCase("sequence")) continue;
-                if (unit(s).isEmpty()) return false;
-                any = true;
+                if (unit(s).isPresent()) any = true;
+                else if (!UNITISH.matcher(s).matches()) return false;
             }
             return any;
         }
