@@ -183,6 +183,8 @@ public final class ScopeCsvReader {
         private boolean decimalComma;
         /** Line number of each data row. */
         private int[] rowLines = new int[1024];
+        /** 3 when the preamble sits in the first three columns beside the data, else 0. */
+        private int columnOffset;
 
         Parse(Path file, String text, CaptureOptions options) {
             this.file = file;
@@ -267,7 +269,13 @@ public final class ScopeCsvReader {
             return new ArrayList<>(out.subList(0, n));
         }
 
-        private boolean numericRow(List<String> cells) {
+        /** The variant whose key/value preamble sits in columns 1–3 beside the data (references.md §9, layout 2). */
+        private boolean besideData(List<String> cells) {
+            if (cells.size() < 5 || cells.get(0).isEmpty() || !Double.isNaN(number(cells.get(0), decimalComma))) return false;
+            return numericRow(cells.subList(3, cells.size()));
+        }
+
+                private boolean numericRow(List<String> cells) {
             if (cells.isEmpty()) return false;
             for (String c : cells) if (Double.isNaN(number(c, decimalComma))) return false;
             return true;
@@ -291,6 +299,12 @@ public final class ScopeCsvReader {
                     lastLine = line;
                     List<String> cells = cells(r);
                     if (cells.isEmpty()) continue;
+                    if (!inData && preamble.isEmpty() && besideData(cells)) columnOffset = 3;
+                    if (columnOffset > 0) { // key/value pairs in the first three columns, data beside them
+                        if (!cells.get(0).isEmpty()) preamble.add(new Row(line, new ArrayList<>(cells.subList(0, Math.min(3, cells.size())))));
+                        cells = cells.size() > 3 ? new ArrayList<>(cells.subList(3, cells.size())) : List.of();
+                        if (cells.isEmpty()) continue;
+                    }
                     if (!inData) {
                         if (!numericRow(cells)) {
                             preamble.add(new Row(line, cells));
@@ -316,7 +330,7 @@ public final class ScopeCsvReader {
                         String cell = cells.get(c);
                         double v = number(cell, decimalComma);
                         if (Double.isNaN(v))
-                            throw at(line, c + 1, cell.isEmpty() ? "empty cell in the data" : "'" + cell + "' is not a number");
+                            throw at(line, c + 1 + columnOffset, cell.isEmpty() ? "empty cell in the data" : "'" + cell + "' is not a number");
                         columns.get(c)[rows] = v;
                     }
                     rows++;

@@ -110,6 +110,27 @@ class ScopeCsvReaderTest {
     }
 
     @Test
+    void keyValuePairsBesideTheData_timeAndValueInColumnsFourAndFive() throws Exception {
+        String[] meta = {"Record Length,2000,Points", "Sample Interval,1.00E-06,s", "Trigger Point,1000,Samples", "Source,CH1,",
+                "Vertical Units,V,", "Vertical Scale,0.5,", "Horizontal Units,s,", "Probe Atten,1,"};
+        StringBuilder s = new StringBuilder();
+        for (int i = 0; i < N; i++) {
+            s.append(i < meta.length ? meta[i] : ",,").append(',').append(e(i * DT - 1e-3)).append(',').append(e(signal(i))).append(",\n");
+        }
+        Capture c = read(file("beside.csv", s.toString()));
+        assertEquals(1, c.channelCount());
+        assertEquals(1e6, c.sampleRateHz(), 1e-6);
+        assertEquals(List.of(), c.warnings());
+        assertSineContent(c, 0, 1.0);
+    }
+
+    @Test
+    void keyValuePairsBesideTheData_badCellNamesItsRealColumn() throws Exception {
+        String text = "Record Length,3,Points,0,1\nSample Interval,1e-6,s,1e-6,oops\n,,,2e-6,3\n";
+        assertEquals("beside2.csv: line 2, column 5: 'oops' is not a number", error(file("beside2.csv", text), CaptureOptions.none()));
+    }
+
+    @Test
     void recordLengthDisagreeing_warns() throws Exception {
         StringBuilder s = new StringBuilder("Record Length,2500\nSample Interval,1e-06\n");
         for (int i = 0; i < N; i++) s.append(e(signal(i))).append('\n');
