@@ -268,6 +268,15 @@ class ScopeCsvReaderTest {
     }
 
     @Test
+    void oneIntervalThirtyPercentLong_refused() throws Exception {
+        // pins the documented tolerance: 20 % of the median interval (common practice for printed time stamps)
+        StringBuilder s = new StringBuilder("time,CH1\n");
+        for (int i = 0; i < 20; i++) s.append(e(i * DT + (i >= 10 ? 0.3 * DT : 0))).append(",0.5\n");
+        assertEquals("slow.csv: line 12: sample interval 1.3E-6 s differs from 1.0E-6 s",
+                error(file("slow.csv", s.toString()), CaptureOptions.none()));
+    }
+
+    @Test
     void nonNumericCell_refusedNamingLineAndColumn() throws Exception {
         String text = "time,CH1,CH2\n0,1,2\n1e-6,1,2\n2e-6,1,abc\n3e-6,1,2\n";
         assertEquals("bad.csv: line 4, column 3: 'abc' is not a number", error(file("bad.csv", text), CaptureOptions.none()));

@@ -211,6 +211,24 @@ class WavReaderTest {
         assertArrayEquals(a, b);
     }
 
+    @Test
+    void fourThreadsReadingOneCapture_eachGetsTheWholeChannel() throws Exception {
+        long[][] c = codes(4, 50_000, 32, 8);
+        Path p = write("mt.wav", WavBytes.riff().chunk("fmt ", WavBytes.fmt(1, 4, 96000, 16, 32)).chunk("data", WavBytes.pcm(4, c)).bytes());
+        Capture cap = WavReader.read(p);
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(4);
+        try {
+            List<java.util.concurrent.Future<double[]>> results = new java.util.ArrayList<>();
+            for (int k = 0; k < 8; k++) {
+                int ch = k % 4;
+                results.add(pool.submit(() -> cap.readChannel(ch)));
+            }
+            for (int k = 0; k < 8; k++) assertArrayEquals(expected(c[k % 4], 32), results.get(k).get(), "task " + k);
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+
     // ------------------------------------------------------------------ malformed files: exact messages
 
     private String error(String name, byte[] bytes) throws IOException {
