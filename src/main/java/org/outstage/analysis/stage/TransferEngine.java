@@ -103,7 +103,7 @@ final class TransferEngine {
         // line over the unclipped range, outer gain
         double upPos = Math.min(0.9 * peak, 0.97 * pos.unaffectedIdealVolts);
         double upNeg = Math.min(0.9 * peak, 0.97 * neg.unaffectedIdealVolts);
-        boolean outerClipped = upPos < 0.6 * peak || upNeg < 0.6 * peak;
+        boolean outerClipped = upPos < 0.75 * peak || upNeg < 0.75 * peak;
         upPos = Math.max(upPos, 0.6 * peak);
         upNeg = Math.max(upNeg, 0.6 * peak);
         double[] line = lineFit(xs, ys, counts, -Math.min(peak, neg.unaffectedIdealVolts), Math.min(peak, pos.unaffectedIdealVolts));
@@ -179,24 +179,47 @@ final class TransferEngine {
 
     // ---------------------------------------------------------------- local fits
 
-    /** Weighted quadratic fit of d over points [from, to) in t = x − x0; value and slope at x0 with variances. */
+    /**
+     * Weighted cubic fit of d over points [from, to) in t = x − x0; value and slope at x0 with variances.
+     * A cubic (rather than the quadratic of the classic Savitzky–Golay smoother) keeps the slope unbiased
+     * when the gain itself curves (a gm-doubling bump): on a symmetric window the slope of a degree-3 fit
+     * is exact for gain curves up to quadratic in x.
+     */
     static Local local(double[] xs, double[] ds, double[] w, int from, int to, double x0) {
         double sc = Math.max(Math.abs(xs[to - 1] - x0), Math.abs(xs[from] - x0));
         if (!(sc > 0)) sc = 1;
-        double s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+        final int p = 4;
+        double[] mom = new double[2 * p - 1];
+        double[] rhs = new double[p];
         for (int i = from; i < to; i++) {
-            double t = (xs[i] - x0) / sc, wi = w[i], t2i = t * t;
-            s0 += wi; s1 += wi * t; s2 += wi * t2i; s3 += wi * t2i * t; s4 += wi * t2i * t2i;
-            t0 += wi * ds[i]; t1 += wi * t * ds[i]; t2 += wi * t2i * ds[i];
+            double t = (xs[i] - x0) / sc, wi = w[i], tk = wi;
+            for (int k = 0; k < 2 * p - 1; k++) {
+                if (k < p) rhs[k] += tk * ds[i];
+                mom[k] += tk;
+                tk *= t;
+            }
         }
-        // inverse of the symmetric 3x3 [[s0,s1,s2],[s1,s2,s3],[s2,s3,s4]] by cofactors
-        double c00 = s2 * s4 - s3 * s3, c01 = -(s1 * s4 - s2 * s3), c02 = s1 * s3 - s2 * s2;
-        double c11 = s0 * s4 - s2 * s2, c12 = -(s0 * s3 - s1 * s2);
-        double det = s0 * c00 + s1 * c01 + s2 * c02;
-        double i00 = c00 / det, i01 = c01 / det, i02 = c02 / det, i11 = c11 / det, i12 = c12 / det;
-        double a = i00 * t0 + i01 * t1 + i02 * t2;
-        double b = i01 * t0 + i11 * t1 + i12 * t2;
-        return new Local(a, b / sc, Math.max(i00, 0), Math.max(i11, 0) / (sc * sc));
+        double[][] m = new double[p][2 * p];
+        for (int r = 0; r < p; r++) {
+            for (int c = 0; c < p; c++) m[r][c] = mom[r + c];
+            m[r][p + r] = 1;
+        }
+        // Gauss-Jordan with partial pivoting: [M | I] -> [I | M^-1]
+        for (int c = 0; c < p; c++) {
+            int piv = c;
+            for (int r = c + 1; r < p; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
+            double[] tmp = m[c]; m[c] = m[piv]; m[piv] = tmp;
+            double d = m[c][c];
+            for (int k = 0; k < 2 * p; k++) m[c][k] /= d;
+            for (int r = 0; r < p; r++) {
+                if (r == c) continue;
+                double f = m[r][c];
+                if (f != 0) for (int k = 0; k < 2 * p; k++) m[r][k] -= f * m[c][k];
+            }
+        }
+        double a = 0, b = 0;
+        for (int k = 0; k < p; k++) { a += m[0][p + k] * rhs[k]; b += m[1][p + k] * rhs[k]; }
+        return new Local(a, b / sc, Math.max(m[0][p], 0), Math.max(m[1][p + 1], 0) / (sc * sc));
     }
 
     /** Local fit on the 2h+1 kept bins nearest to {@code x0}. */
@@ -283,15 +306,18 @@ final class TransferEngine {
             if (a == 0 || e == n - 1) continue;
             onsetSum += 0.5 * (sgn * x[a - 1] + sgn * x[a]);
             onsetN++;
-            if (e - a < 2) continue;
-            int tp = a;
-            for (int i = a; i <= e; i++) if (sgn * x[i] > sgn * x[tp]) tp = i;
-            double tpf = tp;
-            if (tp > 0 && tp < n - 1) {
-                double ym = sgn * x[tp - 1], y0 = sgn * x[tp], yp = sgn * x[tp + 1];
-                double den = ym - 2 * y0 + yp;
-                if (den < 0) tpf = tp + Math.max(-0.5, Math.min(0.5, 0.5 * (ym - yp) / den));
-            }
+            // reference instant: midway between the crossings of 20 % of the level before and after the flat top
+            // (a memoryless stage is symmetric about the drive's peak; the fitted ideal is not used because a
+            // sticking rail also shifts the fitted fundamental)
+            double halfLevel = 0.2 * level;
+            int up = a - 1;
+            while (up > 0 && sgn * y[up] >= halfLevel) up--;
+            int down = e + 1;
+            while (down < n - 1 && sgn * y[down] >= halfLevel) down++;
+            if (up <= 0 || down >= n - 1 || sgn * y[up + 1] < halfLevel || sgn * y[down - 1] < halfLevel) continue;
+            double tUp = up + (halfLevel - sgn * y[up]) / (sgn * y[up + 1] - sgn * y[up]);
+            double tDown = down - 1 + (sgn * y[down - 1] - halfLevel) / (sgn * y[down - 1] - sgn * y[down]);
+            double tpf = 0.5 * (tUp + tDown);
             double entry = a - 0.5, exit = e + 0.5;
             recSum += (exit - tpf) - (tpf - entry);
             recN++;
