@@ -135,7 +135,7 @@ class ScopeCsvReaderTest {
         StringBuilder s = new StringBuilder("Record Length,2500\nSample Interval,1e-06\n");
         for (int i = 0; i < N; i++) s.append(e(signal(i))).append('\n');
         Capture c = read(file("kv3.csv", s.toString()));
-        assertEquals(List.of("kv3.csv: line 1: record length says 2500.0 points, the file has 2000 data rows"), c.warnings());
+        assertEquals(List.of("kv3.csv: line 1: record length says 2500 points, the file has 2000 data rows"), c.warnings());
     }
 
     @Test
