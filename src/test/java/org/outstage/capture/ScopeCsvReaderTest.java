@@ -162,6 +162,22 @@ class ScopeCsvReaderTest {
     }
 
     @Test
+    void decimalCommaWithThousandsDots() throws Exception {
+        Capture c = read(file("thousands.csv", "time;CH1 (mV)\n0,000000;1.234,5\n0,000001;-2,25\n0,000002;0,5\n"));
+        assertEquals(1e6, c.sampleRateHz(), 1e-3);
+        assertArrayEquals(new double[] {1.2345, -0.00225, 0.0005}, c.readChannel(0), 1e-15);
+    }
+
+    @Test
+    void latin1MicroSignInHeader_readAsMicroseconds() throws Exception {
+        Path p = dir.resolve("latin1.csv");
+        Files.write(p, "Time (\u00B5s),CH1\n0,0.5\n1,-0.5\n2,0.25\n".getBytes(StandardCharsets.ISO_8859_1));
+        Capture c = read(p);
+        assertEquals(1e6, c.sampleRateHz(), 1e-3);
+        assertArrayEquals(new double[] {0.5, -0.5, 0.25}, c.readChannel(0));
+    }
+
+    @Test
     void tabDelimited_withIndexColumn() throws Exception {
         StringBuilder s = new StringBuilder("nr\ttime\tCH1\n");
         for (int i = 0; i < N; i++) s.append(i + 1).append('\t').append(e(i * DT)).append('\t').append(e(signal(i))).append('\n');
