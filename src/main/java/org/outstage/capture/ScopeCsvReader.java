@@ -414,7 +414,7 @@ public final class ScopeCsvReader {
             for (int c = 0; c < width; c++) {
                 String name = names != null && c < names.length ? names[c] : "";
                 String u = units != null && c < units.length ? units[c] : "";
-                Matcher m = Pattern.compile("^(.*?)\\s*[\\(\\[]\\s*([^\\)\\]]*?)\\s*[\\)\\]]\\s*$").matcher(name);
+                Matcher m = UNIT_IN_NAME.matcher(name);
                 if (m.matches()) {
                     name = m.group(1);
                     if (u.isEmpty()) u = m.group(2);
@@ -433,7 +433,7 @@ public final class ScopeCsvReader {
             List<Integer> channelCols = new ArrayList<>();
             for (int c = 0; c < width; c++) {
                 if (roles[c] == Role.TIME) {
-                    if (timeCol >= 0) throw at(unitsLine, c + 1, "two time columns (" + (timeCol + 1) + " and " + (c + 1) + ")");
+                    if (timeCol >= 0) throw at(unitsLine, c + 1 + columnOffset, "two time columns (" + (timeCol + 1 + columnOffset) + " and " + (c + 1 + columnOffset) + ")");
                     timeCol = c;
                 } else if (roles[c] == Role.CHANNEL) {
                     channelCols.add(c);
@@ -450,11 +450,11 @@ public final class ScopeCsvReader {
             String dtSource;
             if (timeCol >= 0) {
                 double f = timeFactor(colUnits[timeCol].isEmpty() ? horizontal : colUnits[timeCol], unitsLine, timeCol);
-                dtFile = checkUniform(columns.get(timeCol), rows, f, firstDataLine, columns, width);
+                dtFile = checkUniform(columns.get(timeCol), rows, f, firstDataLine);
                 dtSource = "time column";
             } else if (startIncDt != null) {
                 if (!(startIncDt > 0)) throw at(startIncLine, 0, "Increment " + startIncDt + " must be > 0");
-                checkUniform(columns.get(0), rows, startIncDt, firstDataLine, columns, width);
+                checkUniform(columns.get(0), rows, startIncDt, firstDataLine);
                 dtFile = startIncDt;
                 dtLine = startIncLine;
                 dtSource = "Increment";
@@ -497,7 +497,7 @@ public final class ScopeCsvReader {
 
             if (meta.containsKey("recordlength") && meta.get("recordlength") != rows)
                 warnings.add(file.getFileName() + ": line " + metaLine.get("recordlength") + ": record length says "
-                        + show(meta.get("recordlength")) + " points, the file has " + rows + " data rows");
+                        + CaptureReader.fmt(meta.get("recordlength")) + " points, the file has " + rows + " data rows");
             if (options.fullScaleVolts().isPresent())
                 warnings.add(file.getFileName() + ": the full-scale voltage applies to WAV files only; ignored for this scope CSV (already in volts)");
 
@@ -526,6 +526,9 @@ public final class ScopeCsvReader {
             if (options.probeFactor().isPresent()) capture = capture.calibrated(options.probeFactor().getAsDouble(), SampleUnit.VOLTS);
             return capture;
         }
+
+        /** A name with its unit in brackets: {@code CH1 (mV)}, {@code Time[s]}. */
+        private static final Pattern UNIT_IN_NAME = Pattern.compile("^(.*?)\\s*[\\(\\[]\\s*([^\\)\\]]*?)\\s*[\\)\\]]\\s*$");
 
         private static Double first(Map<String, Double> meta, String... keys) {
             for (String k : keys) if (meta.containsKey(k)) return meta.get(k);
@@ -584,7 +587,7 @@ public final class ScopeCsvReader {
             if (unitText.isBlank()) return 1;
             var u = unit(unitText);
             if (u.isEmpty() || u.get().dimension() != Dimension.TIME)
-                throw at(line, col + 1, "time unit '" + unitText + "' is not understood (s, ms, us, µs, ns expected)");
+                throw at(line, col + 1 + columnOffset, "time unit '" + unitText + "' is not understood (s, ms, us, µs, ns expected)");
             return u.get().factor();
         }
 
@@ -595,7 +598,7 @@ public final class ScopeCsvReader {
             }
             var u = unit(unitText);
             if (u.isEmpty() || u.get().dimension() != Dimension.VOLTAGE)
-                throw at(line, col + 1, "column " + (col + 1) + (name.isBlank() ? "" : " (" + name + ")") + " is in '" + unitText
+                throw at(line, col + 1 + columnOffset, "column " + (col + 1 + columnOffset) + (name.isBlank() ? "" : " (" + name + ")") + " is in '" + unitText
                         + "'; only volts (V, mV, µV, kV) can be read");
             return u.get().factor();
         }
@@ -614,24 +617,20 @@ public final class ScopeCsvReader {
          * Checks that {@code x·factor} rises uniformly (each interval within {@link #INTERVAL_TOLERANCE} of the median
          * interval) and returns the mean interval (last − first)/(n − 1) in seconds.
          */
-        private double checkUniform(double[] x, int n, double factor, long firstDataLine, List<double[]> columns, int width)
-                throws CaptureFormatException {
+        private double checkUniform(double[] x, int n, double factor, long firstDataLine) throws CaptureFormatException {
             if (n < 2) throw at(firstDataLine, 0, "only one data row; at least two are needed to know the sample interval");
             double[] d = new double[n - 1];
             for (int i = 1; i < n; i++) d[i - 1] = (x[i] - x[i - 1]) * factor;
             double[] sorted = d.clone();
             Arrays.sort(sorted);
             double median = sorted[(n - 1) / 2];
-            if (!(median > 0)) throw at(lineOfRow(1, firstDataLine), 1, "time does not increase (median interval " + show(median) + " s)");
+            if (!(median > 0)) throw at(rowLines[1], 0, "time does not increase (median interval " + show(median) + " s)");
             for (int i = 0; i < d.length; i++) {
                 if (Math.abs(d[i] - median) > INTERVAL_TOLERANCE * median)
-                    throw at(lineOfRow(i + 1, firstDataLine), 0, "sample interval " + show(d[i]) + " s differs from " + show(median) + " s");
+                    throw at(rowLines[i + 1], 0, "sample interval " + show(d[i]) + " s differs from " + show(median) + " s");
             }
             return (x[n - 1] - x[0]) * factor / (n - 1);
         }
 
-        private long lineOfRow(int row, long firstDataLine) {
-            return rowLines[row];
-        }
     }
 }

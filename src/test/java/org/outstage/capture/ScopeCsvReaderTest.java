@@ -135,7 +135,7 @@ class ScopeCsvReaderTest {
         StringBuilder s = new StringBuilder("Record Length,2500\nSample Interval,1e-06\n");
         for (int i = 0; i < N; i++) s.append(e(signal(i))).append('\n');
         Capture c = read(file("kv3.csv", s.toString()));
-        assertEquals(List.of("kv3.csv: line 1: record length says 2500.0 points, the file has 2000 data rows"), c.warnings());
+        assertEquals(List.of("kv3.csv: line 1: record length says 2500 points, the file has 2000 data rows"), c.warnings());
     }
 
     @Test
@@ -159,6 +159,22 @@ class ScopeCsvReaderTest {
         assertEquals(1e6, c.sampleRateHz(), 1e-6);
         assertSineContent(c, 0, 1.0);
         assertSineContent(c, 1, 0.1);
+    }
+
+    @Test
+    void decimalCommaWithThousandsDots() throws Exception {
+        Capture c = read(file("thousands.csv", "time;CH1 (mV)\n0,000000;1.234,5\n0,000001;-2,25\n0,000002;0,5\n"));
+        assertEquals(1e6, c.sampleRateHz(), 1e-3);
+        assertArrayEquals(new double[] {1.2345, -0.00225, 0.0005}, c.readChannel(0), 1e-15);
+    }
+
+    @Test
+    void latin1MicroSignInHeader_readAsMicroseconds() throws Exception {
+        Path p = dir.resolve("latin1.csv");
+        Files.write(p, "Time (\u00B5s),CH1\n0,0.5\n1,-0.5\n2,0.25\n".getBytes(StandardCharsets.ISO_8859_1));
+        Capture c = read(p);
+        assertEquals(1e6, c.sampleRateHz(), 1e-3);
+        assertArrayEquals(new double[] {0.5, -0.5, 0.25}, c.readChannel(0));
     }
 
     @Test
