@@ -19,13 +19,13 @@ import org.outstage.Require;
  *
  * <p>Method (ours): readings are sorted, equal readings averaged, and {@code g0} is interpolated linearly
  * between steps. The recommended range is the stretch of readings where {@code |g0 − 1| ≤ tolerance}
- * that contains the smallest deviation. Default tolerance 0.005: in the computed emitter-follower example of
- * references.md §7, twice the optimum current raises g0 by about 0.9 % and half of it lowers g0 by about
- * 1.1 %, so ±0.5 % keeps within roughly that factor of two (our choice, not a standard).
+ * that contains the smallest deviation. Default tolerance 0.003, the near-optimal band of the crossover verdict
+ * ({@code org.outstage.analysis.stage.CrossoverMetrics}): for an emitter-follower pair it spans roughly 0.75× to 1.1×
+ * the Oliver current (derivation in that class), so the advice and the per-capture verdict agree.
  */
 public final class BiasAdvisor {
     /** Default near-optimal band for |g0 − 1|. */
-    public static final double DEFAULT_TOLERANCE = 0.005;
+    public static final double DEFAULT_TOLERANCE = 0.003;
 
     private BiasAdvisor() {}
 

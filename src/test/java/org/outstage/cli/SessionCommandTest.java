@@ -66,10 +66,10 @@ class SessionCommandTest {
         assertEquals(0.990, first.get("gain_at_zero"));
         assertEquals(0.11, (Double) first.get("thd_percent"), 1e-12);
         Map<String, Object> rec = (Map<String, Object>) show.get("recommendation");
-        // linear interpolation of the steps: g0 = 0.995 between 15 mV (0.994) and 20 mV (0.998) at 15 + 5*(0.001/0.004) = 16.25 mV;
-        // g0 = 1.005 between 30 mV (1.004) and 35 mV (1.008) at 30 + 5*(0.001/0.004) = 31.25 mV
-        assertEquals(16.25, (Double) rec.get("bias_mv_low"), 1e-9);
-        assertEquals(31.25, (Double) rec.get("bias_mv_high"), 1e-9);
+        // linear interpolation of the steps, default band ±0.3 %: g0 = 0.997 between 15 mV (0.994) and 20 mV (0.998) at
+        // 15 + 5*(0.003/0.004) = 18.75 mV; g0 = 1.003 between 25 mV (1.001) and 30 mV (1.004) at 25 + 5*(0.002/0.003) = 28.333 mV
+        assertEquals(18.75, (Double) rec.get("bias_mv_low"), 1e-9);
+        assertEquals(25 + 5 * (0.002 / 0.003), (Double) rec.get("bias_mv_high"), 1e-9);
         assertTrue(((String) rec.get("advice")).contains("less bias"), rec.toString());
         // the stored capture holds provenance
         try (Logbook lb = Logbook.open(Path.of(db))) {
