@@ -273,7 +273,8 @@ public final class WavReader {
             long frames = bytes / f.blockAlign;
             WavStore store = new WavStore(file, dataOffset, frames, f.blockAlign, f.channels, f.coding);
             return new Capture(String.valueOf(file.getFileName()), f.sampleRate, f.channels, frames,
-                    SampleUnit.FULL_SCALE, 1.0, warnings, store);
+                    SampleUnit.FULL_SCALE, 1.0, warnings, store,
+                    f.coding.isFloat() ? java.util.OptionalInt.empty() : java.util.OptionalInt.of(f.coding.bits()));
         }
     }
 }
