@@ -3,6 +3,7 @@ package org.outstage.cli;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.Objects;
+import java.util.OptionalInt;
 import org.outstage.verify.KeyFigures;
 
 /**
@@ -10,7 +11,7 @@ import org.outstage.verify.KeyFigures;
  * full measurement as JSON text. The logbook commands depend only on this, not on the analysis internals.
  */
 public interface LogbookMeasurer {
-    /** One measured channel. */
+    /** One measured channel (1-based) of a capture with {@code channelCount} channels. */
     record Measured(int channel, int channelCount, KeyFigures figures, String measurementJson, List<String> warnings) {
         public Measured {
             Objects.requireNonNull(figures, "figures");
@@ -20,8 +21,9 @@ public interface LogbookMeasurer {
     }
 
     /**
-     * Measures the channel chosen in {@code options}. Bad input (unreadable file, no signal) throws
-     * {@link BadInputException} or {@link IllegalArgumentException} with a one-line message naming the file.
+     * Measures {@code channel} of the capture, or every channel when it is empty (a channel that cannot be
+     * measured is then left out with a warning). Bad input (unreadable file, no signal on the chosen channel)
+     * throws {@link BadInputException} or {@link IllegalArgumentException} with one line naming the file.
      */
-    Measured measure(Path capture, LogbookAnalyzeOptions options);
+    List<Measured> measure(Path capture, AnalyzeOptions options, OptionalInt channel);
 }

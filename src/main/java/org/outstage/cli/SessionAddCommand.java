@@ -27,7 +27,7 @@ import picocli.CommandLine.Parameters;
 public final class SessionAddCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
-    @Mixin LogbookAnalyzeOptions analyze;
+    @Mixin AnalyzeOptions analyze;
 
     @Parameters(index = "0", paramLabel = "ID", description = "Session id.")
     long sessionId;
@@ -56,14 +56,14 @@ public final class SessionAddCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        analyze.validate();
+        analyze.settings(); // validate before anything is read or written
         BiasReading r = reading.mv != null ? BiasReading.millivolts(reading.mv) : BiasReading.milliamps(reading.ma);
         BiasStep step;
         BiasAdvice advice;
         List<String> warnings = new ArrayList<>();
         try (Logbook lb = logbook.open()) {
             lb.session(sessionId).orElseThrow(() -> new BadInputException("no session " + sessionId + " in logbook " + lb.path()));
-            MeasurementRecord m = SessionSupport.measureAndStore(lb, capture, analyze, warnings);
+            MeasurementRecord m = SessionSupport.measureAndStore(lb, capture, analyze, spec.commandLine().getParseResult(), warnings);
             step = lb.addBiasStep(sessionId, BiasStep.draft(Instant.now(), r, opt(heatsinkC), opt(ambientC), m.channel(), Optional.of(m)));
             advice = BiasAdvisor.recommend(lb.biasSteps(sessionId));
         }

@@ -9,6 +9,10 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Optional;
 import java.util.OptionalDouble;
+import java.util.OptionalInt;
+import java.util.Set;
+import java.util.TreeMap;
+import java.util.TreeSet;
 import org.outstage.json.Json;
 import org.outstage.logbook.BiasAdvice;
 import org.outstage.logbook.BiasAdvisor;
@@ -36,14 +40,41 @@ final class SessionSupport {
         if (!Files.isReadable(capture)) throw new BadInputException(capture + ": not readable");
     }
 
-    /** Measures first (bad input stops here, nothing written), then stores the capture. */
-    static MeasurementRecord measureAndStore(Logbook lb, Path capture, LogbookAnalyzeOptions opts, List<String> warningsOut) {
+    /** Measures one channel first (bad input stops here, nothing written), then stores the capture. */
+    static MeasurementRecord measureAndStore(Logbook lb, Path capture, AnalyzeOptions opts, CommandLine.ParseResult parsed,
+                                             List<String> warningsOut) {
         requireReadable(capture);
-        LogbookMeasurer.Measured m = LogbookMeasurers.current().measure(capture, opts);
+        int ch = opts.channel().orElse(1);
+        LogbookMeasurer.Measured m = LogbookMeasurers.current().measure(capture, opts, OptionalInt.of(ch)).get(0);
         warningsOut.addAll(m.warnings());
         CaptureRef ref = lb.storeCapture(capture);
-        return new MeasurementRecord(m.channel(), Optional.of(ref), Instant.now(), programVersion(), opts.settings(), opts.defaulted(),
-                m.measurementJson(), m.figures());
+        return new MeasurementRecord(m.channel(), Optional.of(ref), Instant.now(), programVersion(), settings(opts, m.channel()),
+                defaulted(parsed), m.measurementJson(), m.figures());
+    }
+
+    /** Every analysis setting that produced a measurement, as text (the logbook's provenance). */
+    static Map<String, String> settings(AnalyzeOptions o, int channel) {
+        Map<String, String> m = new TreeMap<>();
+        m.put("channel", Integer.toString(channel));
+        m.put("bandwidth", o.bandwidth);
+        m.put("weighting", o.weighting);
+        m.put("harmonics", Integer.toString(o.harmonics));
+        if (o.fsVolts != null) m.put("fs-volts", o.fsVolts.toString());
+        if (o.probe != null) m.put("probe", o.probe.toString());
+        if (o.sampleRate != null) m.put("sample-rate", o.sampleRate.toString());
+        if (o.load != null) m.put("load", o.load.toString());
+        if (o.fundamental != null) m.put("fundamental", o.fundamental.toString());
+        if (o.reference != null) m.put("reference", o.reference.toString());
+        return m;
+    }
+
+    /** The settings that were not given on the command line and took their default. */
+    static Set<String> defaulted(CommandLine.ParseResult parsed) {
+        Set<String> d = new TreeSet<>();
+        for (String name : List.of("channel", "bandwidth", "weighting", "harmonics")) {
+            if (!parsed.hasMatchedOption("--" + name)) d.add(name);
+        }
+        return d;
     }
 
     static String readingKey(BiasReading.Unit u) { return u == BiasReading.Unit.MILLIVOLTS ? "bias_mv" : "bias_ma"; }

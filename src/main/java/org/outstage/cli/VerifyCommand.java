@@ -43,7 +43,7 @@ import picocli.CommandLine.Parameters;
 public final class VerifyCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
-    @Mixin LogbookAnalyzeOptions analyze;
+    @Mixin AnalyzeOptions analyze;
 
     @Option(names = "--spec", required = true, paramLabel = "FILE", description = "Spec profile (docs/spec-format.md).")
     Path specFile;
@@ -69,23 +69,19 @@ public final class VerifyCommand implements Callable<Integer> {
     @Parameters(paramLabel = "CAPTURE", arity = "1..*", description = "Captures: WAV or scope CSV.")
     List<Path> captures;
 
-    private record Taken(Path file, LogbookMeasurer.Measured measured, LogbookAnalyzeOptions options) {}
+    private record Taken(Path file, LogbookMeasurer.Measured measured) {}
 
     @Override
     public Integer call() throws IOException {
-        analyze.validate();
+        analyze.settings(); // validate before anything is read
         SpecProfile profile = SpecParser.read(specFile);
         LogbookMeasurer measurer = LogbookMeasurers.current();
         List<Taken> taken = new ArrayList<>();
         for (Path c : captures) {
             SessionSupport.requireReadable(c);
-            LogbookMeasurer.Measured first = measurer.measure(c, analyze);
-            taken.add(new Taken(c, first, analyze));
-            if (analyze.channel == null) {
-                for (int ch = 2; ch <= first.channelCount(); ch++) {
-                    LogbookAnalyzeOptions o = analyze.withChannel(ch);
-                    taken.add(new Taken(c, measurer.measure(c, o), o));
-                }
+            for (LogbookMeasurer.Measured m : measurer.measure(c, analyze, analyze.channel())) {
+                for (String w : m.warnings()) spec.commandLine().getErr().println("outstage: warning: " + c + ": " + w);
+                taken.add(new Taken(c, m));
             }
         }
         List<MeasuredChannel> channels = new ArrayList<>();
@@ -101,7 +97,8 @@ public final class VerifyCommand implements Callable<Integer> {
                 for (Taken t : taken) {
                     CaptureRef ref = lb.storeCapture(t.file);
                     lb.addMeasurement(id, new MeasurementRecord(t.measured.channel(), Optional.of(ref), Instant.now(),
-                            SessionSupport.programVersion(), t.options.settings(), analyze.defaulted(), t.measured.measurementJson(),
+                            SessionSupport.programVersion(), SessionSupport.settings(analyze, t.measured.channel()),
+                            SessionSupport.defaulted(spec.commandLine().getParseResult()), t.measured.measurementJson(),
                             t.measured.figures()));
                 }
                 lb.endSession(id, Instant.now());

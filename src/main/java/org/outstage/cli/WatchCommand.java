@@ -37,7 +37,7 @@ import picocli.CommandLine.Parameters;
 public final class WatchCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
-    @Mixin LogbookAnalyzeOptions analyze;
+    @Mixin AnalyzeOptions analyze;
 
     @Parameters(index = "0", paramLabel = "DIR", description = "Folder the recorder or scope writes into.")
     Path dir;
@@ -73,7 +73,7 @@ public final class WatchCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException, InterruptedException {
-        analyze.validate();
+        analyze.settings(); // validate once
         if (!Files.isDirectory(dir)) throw new BadInputException(dir + ": not a folder");
         if (biasMv != null && biasMa != null) throw new BadInputException("give --bias-mv or --bias-ma, not both");
         PrintWriter out = spec.commandLine().getOut();
@@ -143,7 +143,7 @@ public final class WatchCommand implements Callable<Integer> {
         OptionalDouble hs = tags.heatsinkC().isPresent() ? tags.heatsinkC() : byName.heatsinkC();
         if (hs.isEmpty() && heatsinkC != null) hs = OptionalDouble.of(heatsinkC);
         List<String> warnings = new ArrayList<>();
-        MeasurementRecord m = SessionSupport.measureAndStore(lb, p, analyze, warnings);
+        MeasurementRecord m = SessionSupport.measureAndStore(lb, p, analyze, spec.commandLine().getParseResult(), warnings);
         return lb.addBiasStep(sessionId, BiasStep.draft(Instant.now(), r.get(), hs, tags.ambientC(), m.channel(), Optional.of(m)));
     }
 }
