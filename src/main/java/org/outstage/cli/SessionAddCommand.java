@@ -65,7 +65,7 @@ public final class SessionAddCommand implements Callable<Integer> {
             lb.session(sessionId).orElseThrow(() -> new BadInputException("no session " + sessionId + " in logbook " + lb.path()));
             MeasurementRecord m = SessionSupport.measureAndStore(lb, capture, analyze, spec.commandLine().getParseResult(), warnings);
             step = lb.addBiasStep(sessionId, BiasStep.draft(Instant.now(), r, opt(heatsinkC), opt(ambientC), m.channel(), Optional.of(m)));
-            advice = BiasAdvisor.recommend(lb.biasSteps(sessionId));
+            advice = BiasAdvisor.recommendFromSeries(lb.stepSeries(sessionId));
         }
         PrintWriter out = spec.commandLine().getOut();
         for (String w : warnings) spec.commandLine().getErr().println("outstage: warning: " + capture.getFileName() + ": " + w);

@@ -105,7 +105,7 @@ public final class WatchCommand implements Callable<Integer> {
                     try {
                         BiasStep s = addOne(lb, p);
                         added++;
-                        BiasAdvice a = BiasAdvisor.recommend(lb.biasSteps(sessionId));
+                        BiasAdvice a = BiasAdvisor.recommendFromSeries(lb.stepSeries(sessionId));
                         out.println(time + "  " + p.getFileName() + "  " + SessionSupport.stepLine(s) + "  -> "
                                 + a.direction().name().toLowerCase(java.util.Locale.ROOT));
                         out.flush();

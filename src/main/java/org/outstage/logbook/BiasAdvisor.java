@@ -30,10 +30,19 @@ public final class BiasAdvisor {
     private BiasAdvisor() {}
 
     public static BiasAdvice recommend(List<BiasStep> steps) {
-        return recommend(steps, DEFAULT_TOLERANCE);
+        return recommendFromSeries(StepPoint.of(steps), DEFAULT_TOLERANCE);
     }
 
     public static BiasAdvice recommend(List<BiasStep> steps, double tolerance) {
+        return recommendFromSeries(StepPoint.of(steps), tolerance);
+    }
+
+    /** The same on the light series of {@link Logbook#stepSeries}. */
+    public static BiasAdvice recommendFromSeries(List<StepPoint> steps) {
+        return recommendFromSeries(steps, DEFAULT_TOLERANCE);
+    }
+
+    public static BiasAdvice recommendFromSeries(List<StepPoint> steps, double tolerance) {
         Require.positive("tolerance", tolerance);
         List<String> warnings = new ArrayList<>();
         BiasReading.Unit unit = steps.isEmpty() ? BiasReading.Unit.MILLIVOLTS : steps.get(steps.size() - 1).reading().unit();
@@ -41,12 +50,12 @@ public final class BiasAdvisor {
         Map<Double, double[]> sums = new TreeMap<>();
         int otherUnit = 0;
         double lastReading = Double.NaN;
-        for (BiasStep s : steps) {
+        for (StepPoint s : steps) {
             if (s.reading().unit() != unit) {
                 otherUnit++;
                 continue;
             }
-            OptionalDouble g = s.measurement().isPresent() ? s.measurement().get().figures().gainAtZero() : OptionalDouble.empty();
+            OptionalDouble g = s.figures().isPresent() ? s.figures().get().gainAtZero() : OptionalDouble.empty();
             if (g.isEmpty()) continue;
             double[] acc = sums.computeIfAbsent(s.reading().value(), k -> new double[2]);
             acc[0] += g.getAsDouble();

@@ -31,16 +31,25 @@ public final class DriftAnalysis {
     private DriftAnalysis() {}
 
     public static DriftReport analyze(List<BiasStep> steps, Quantity q) {
-        return analyze(steps, q, DEFAULT_WINDOW, DEFAULT_TOLERANCE);
+        return analyzeSeries(StepPoint.of(steps), q, DEFAULT_WINDOW, DEFAULT_TOLERANCE);
     }
 
     public static DriftReport analyze(List<BiasStep> steps, Quantity q, Duration window, double tolerance) {
+        return analyzeSeries(StepPoint.of(steps), q, window, tolerance);
+    }
+
+    /** The same on the light series of {@link Logbook#stepSeries}. */
+    public static DriftReport analyzeSeries(List<StepPoint> steps, Quantity q) {
+        return analyzeSeries(steps, q, DEFAULT_WINDOW, DEFAULT_TOLERANCE);
+    }
+
+    public static DriftReport analyzeSeries(List<StepPoint> steps, Quantity q, Duration window, double tolerance) {
         Require.that(!window.isNegative() && !window.isZero(), "window=" + window + " must be > 0");
         Require.positive("tolerance", tolerance);
         List<Instant> t = new ArrayList<>();
         List<Double> v = new ArrayList<>();
         List<Double> temp = new ArrayList<>();
-        for (BiasStep s : steps) {
+        for (StepPoint s : steps) {
             OptionalDouble x = value(s, q);
             if (x.isEmpty()) continue;
             t.add(s.takenAt());
@@ -117,8 +126,8 @@ public final class DriftAnalysis {
         return new DriftReport(settled, change, slope, runaway, text, warnings);
     }
 
-    private static OptionalDouble value(BiasStep s, Quantity q) {
+    private static OptionalDouble value(StepPoint s, Quantity q) {
         if (q == Quantity.READING) return OptionalDouble.of(s.reading().value());
-        return s.measurement().isPresent() ? s.measurement().get().figures().gainAtZero() : OptionalDouble.empty();
+        return s.figures().isPresent() ? s.figures().get().gainAtZero() : OptionalDouble.empty();
     }
 }

@@ -172,6 +172,12 @@ public final class Logbook implements AutoCloseable {
 
     /** Applies migrations up to {@code target} (tests use a lower target to build an old logbook). */
     void migrateTo(int target) {
+        boolean current = read(c -> {
+            try (Statement s = c.createStatement()) {
+                return intPragma(s, "application_id") == Migrations.APPLICATION_ID && intPragma(s, "user_version") >= target;
+            }
+        });
+        if (current) return;
         write(c -> {
             try (Statement s = c.createStatement()) {
                 int app = intPragma(s, "application_id");
@@ -518,6 +524,35 @@ public final class Logbook implements AutoCloseable {
                         out.add(new BiasStep(rs.getInt(1), Instant.parse(rs.getString(2)),
                                 new BiasReading(rs.getDouble(3), BiasReading.Unit.parse(rs.getString(4))), real(rs, 5), real(rs, 6),
                                 rs.getInt(7), m));
+                    }
+                }
+            }
+            return out;
+        });
+    }
+
+    /**
+     * The steps of a session as a light series (reading, temperatures, key figures; no measurement JSON or
+     * settings): what a chart, the advice and the drift read. One indexed query.
+     */
+    public synchronized List<StepPoint> stepSeries(long sessionId) {
+        return read(c -> {
+            requireSession(c, sessionId);
+            List<StepPoint> out = new ArrayList<>();
+            try (PreparedStatement q = c.prepareStatement("SELECT b.seq, b.taken_at, b.reading_value, b.reading_unit, b.heatsink_c,"
+                    + " b.ambient_c, b.channel, m.id, m.fundamental_hz, m.fundamental_rms, m.unit, m.thd_ratio, m.thdn_ratio, m.residual_rms,"
+                    + " m.power_watts, m.load_ohms, m.gain_at_zero, m.crossover_verdict, m.clip_asymmetry_ratio FROM bias_steps b"
+                    + " LEFT JOIN measurements m ON m.id = b.measurement_id WHERE b.session_id = ? ORDER BY b.seq")) {
+                q.setLong(1, sessionId);
+                try (ResultSet rs = q.executeQuery()) {
+                    while (rs.next()) {
+                        rs.getLong(8);
+                        Optional<KeyFigures> f = rs.wasNull() ? Optional.empty() : Optional.of(new KeyFigures(rs.getDouble(9), rs.getDouble(10),
+                                rs.getString(11), rs.getDouble(12), rs.getDouble(13), real(rs, 14), real(rs, 15), real(rs, 16), real(rs, 17),
+                                text(rs, 18), real(rs, 19)));
+                        out.add(new StepPoint(rs.getInt(1), Instant.parse(rs.getString(2)),
+                                new BiasReading(rs.getDouble(3), BiasReading.Unit.parse(rs.getString(4))), real(rs, 5), real(rs, 6),
+                                rs.getInt(7), f));
                     }
                 }
             }

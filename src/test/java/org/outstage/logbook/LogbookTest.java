@@ -42,6 +42,7 @@ class LogbookTest {
         }
         try (Logbook lb = Logbook.open(db)) {
             assertEquals(written, lb.biasSteps(id));
+            assertEquals(StepPoint.of(written), lb.stepSeries(id), "the light series carries the same figures");
             assertEquals(extra, lb.measurements(id));
             assertEquals(Fixtures.unit(), lb.unit("DA-60 #7").orElseThrow());
             Session s = lb.session(id).orElseThrow();
