@@ -40,16 +40,28 @@ public final class Charts {
             for (int i = 0; i < t.length; i++) y[i] = f.valueAt(t[i]);
             s.add(new Series("fitted fundamental", t, y, Series.Style.LINE, Series.Role.FIT));
         });
-        return ChartSpec.of(title, Axis.linear("Time", "s"), Axis.linear("Output", unit), s);
+        return ChartSpec.of(title, firstCycles(t, fit), Axis.linear("Output", unit), s);
+    }
+
+    /** Cycles shown at first on a time chart; zooming out shows the rest of the record. */
+    public static final int CYCLES_SHOWN = 4;
+
+    /** Time axis showing the first {@link #CYCLES_SHOWN} cycles of the fitted frequency, or everything without a fit. */
+    static Axis firstCycles(double[] t, Optional<SineFit> fit) {
+        Axis a = Axis.linear("Time", "s");
+        if (t.length < 2 || fit.isEmpty() || !(fit.get().frequencyHz() > 0)) return a;
+        double end = t[0] + CYCLES_SHOWN / fit.get().frequencyHz();
+        return end < t[t.length - 1] ? a.withRange(t[0], end) : a;
     }
 
     /**
      * The residual (record minus fitted fundamental), scaled to fill the chart; the title states the
      * magnification relative to the waveform chart (the fundamental's peak over the residual's peak,
-     * rounded down to 1, 2 or 5 × 10^k).
+     * rounded down to 1, 2 or 5 × 10^k). The time axis starts on the first few cycles of {@code fundamentalHz}
+     * (NaN: the whole record), like the waveform chart.
      */
     public static ChartSpec residual(String title, double[] residual, double sampleRateHz, double startSeconds, String unit,
-                                     double fundamentalPeak) {
+                                     double fundamentalPeak, double fundamentalHz) {
         double[] t = timeAxis(residual.length, sampleRateHz, startSeconds);
         double peak = 0;
         for (double r : residual) if (Double.isFinite(r)) peak = Math.max(peak, Math.abs(r));
@@ -60,7 +72,9 @@ public final class Charts {
             double nice = m / p >= 5 ? 5 : m / p >= 2 ? 2 : 1;
             mag = String.format(java.util.Locale.ROOT, " (magnified ×%s)", Ticks.format(nice * p, nice * p).replace("k", " 000").replace("M", " 000 000"));
         }
-        return ChartSpec.of(title + mag, Axis.linear("Time", "s"), Axis.linear("Residual", unit),
+        return ChartSpec.of(title + mag, fundamentalHz > 0 && Double.isFinite(fundamentalHz)
+                        ? firstCycles(t, Optional.of(new SineFit(fundamentalHz, 1, 0, 0, 0, 0, true))) : Axis.linear("Time", "s"),
+                Axis.linear("Residual", unit),
                 List.of(new Series("capture − fitted fundamental", t, residual, Series.Style.LINE, Series.Role.RESIDUAL)));
     }
 

@@ -33,6 +33,7 @@ public final class Palette {
     public static double[] dash(Series.Role role) {
         return switch (role) {
             case MODEL -> new double[] {7, 4};
+            case FIT -> new double[] {5, 3};
             case LIMIT -> new double[] {5, 3};
             default -> new double[0];
         };
@@ -41,9 +42,10 @@ public final class Palette {
     /** Line width in pixels by role. */
     public static double lineWidth(Series.Role role) {
         return switch (role) {
-            case MODEL, FIT -> 1.8;
+            case MODEL -> 1.8;
+            case FIT -> 1.3;
             case LIMIT -> 1.4;
-            default -> 1.2;
+            default -> 1.4;
         };
     }
 }

@@ -43,14 +43,14 @@ final class FitBackend implements Backend {
         }
         progress.accept(0.8);
         List<FigureRow> rows = new ArrayList<>();
-        rows.add(new FigureRow("frequencyValue", "Fundamental frequency", fmt(fit.frequencyHz()), "Hz", fit.converged() ? "" : "fit did not converge"));
-        rows.add(new FigureRow("levelValue", "Fundamental level (rms)", fmt(fit.rms()), unit, ""));
+        rows.add(new FigureRow("frequencyValue", "Frequency", fmt(fit.frequencyHz()), "Hz", fit.converged() ? "" : "fit did not converge"));
+        rows.add(new FigureRow("levelValue", "Level (rms)", fmt(fit.rms()), unit, ""));
         rows.add(new FigureRow("dcValue", "DC offset", fmt(fit.dcOffset()), unit, ""));
-        rows.add(new FigureRow("residualValue", "Residual rms (noise + distortion)", fmt(fit.residualRms()), unit, "IEEE 1241 NAD"));
+        rows.add(new FigureRow("residualValue", "Residual (rms)", fmt(fit.residualRms()), unit, "noise + distortion"));
         String part = frames < capture.frameCount() ? " (first " + fmt(frames / capture.sampleRateHz()) + " s)" : "";
         Panel wave = Panel.of(Charts.waveform(capture.name() + " — waveform" + part, x, capture.sampleRateHz(), 0, unit, Optional.of(fit)));
         Panel res = Panel.of(Charts.residual(capture.name() + " — residual", Charts.residualOf(x, capture.sampleRateHz(), 0, fit),
-                capture.sampleRateHz(), 0, unit, fit.amplitudePeak()));
+                capture.sampleRateHz(), 0, unit, fit.amplitudePeak(), fit.frequencyHz()));
         Panel none = Panel.message("Spectrum and harmonics need the analysis pipeline, which is not in this build.");
         progress.accept(1);
         return new ViewData(capture.name(), rows, Optional.empty(), wave, res, none, none, Optional.empty(), Optional.empty());

@@ -180,7 +180,7 @@ final class WorkbenchPane extends BorderPane {
         importError.setMaxWidth(250);
 
         fullScaleField.setId("fullScaleField");
-        fullScaleField.setPromptText("V at digital full scale");
+        fullScaleField.setPromptText("V at full scale");
         probeField.setId("probeField");
         probeField.setPromptText("e.g. 10");
         loadField.setId("loadField");
@@ -200,7 +200,8 @@ final class WorkbenchPane extends BorderPane {
         g.addRow(1, new Label("Probe ratio"), probeField);
         g.addRow(2, new Label("Load (Ω)"), loadField);
         g.addRow(3, new Label("Channel"), channelChoice);
-        fullScaleField.setPrefColumnCount(7);
+        for (TextField f : List.of(fullScaleField, probeField, loadField)) f.setPrefColumnCount(6);
+        g.getColumnConstraints().add(new javafx.scene.layout.ColumnConstraints(96));
         channelChoice.valueProperty().addListener((o, a, b) -> {
             CaptureEntry e = selected();
             if (!updatingControls && e != null && b != null && b - 1 != e.channel) { e.channel = b - 1; analyzeSelected(); }
@@ -281,10 +282,10 @@ final class WorkbenchPane extends BorderPane {
 
         figuresTable.setId("figuresTable");
         figuresTable.setColumnResizePolicy(TableView.CONSTRAINED_RESIZE_POLICY);
-        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 150));
-        figuresTable.getColumns().add(column("Value", FigureRow::value, 70));
+        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 130));
+        figuresTable.getColumns().add(column("Value", FigureRow::value, 80));
         figuresTable.getColumns().add(column("Unit", FigureRow::unit, 40));
-        figuresTable.getColumns().add(column("Note", FigureRow::note, 120));
+        figuresTable.getColumns().add(column("Note", FigureRow::note, 150));
         figuresTable.getSelectionModel().setSelectionMode(SelectionMode.MULTIPLE);
         figuresTable.setOnKeyPressed(e -> {
             if (new KeyCodeCombination(KeyCode.C, KeyCombination.SHORTCUT_DOWN).match(e)) copyFigures();
@@ -297,7 +298,7 @@ final class WorkbenchPane extends BorderPane {
         summary.setId("summary");
         VBox side = new VBox(6, sp, new Label("Figures of the selected capture"), summary, figuresTable, copy);
         side.setPadding(new Insets(6));
-        side.setPrefWidth(400);
+        side.setPrefWidth(440);
         return side;
     }
 

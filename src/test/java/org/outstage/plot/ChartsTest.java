@@ -25,6 +25,8 @@ class ChartsTest {
             assertEquals(t, s.xAt(i), 1e-15);
         }
         assertEquals("Time (s)", c.xAxis().title());
+        // first four cycles of 1 kHz shown at first (the record is 10 ms)
+        assertEquals(4e-3, c.xRange().max(), 1e-15);
         assertEquals("Output (V)", c.yAxis().title());
     }
 
@@ -38,7 +40,7 @@ class ChartsTest {
         assertEquals(0.004, r[500], 1e-12);
         assertEquals(0, r[100], 1e-12);
         // peak ratio 1/0.004 = 250 -> rounded down to 200
-        assertTrue(Charts.residual("Residual", r, fs, 0, "V", 1.0).title().endsWith("(magnified ×200)"));
+        assertTrue(Charts.residual("Residual", r, fs, 0, "V", 1.0, 50).title().endsWith("(magnified ×200)"));
     }
 
     @Test
