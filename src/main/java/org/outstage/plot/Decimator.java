@@ -11,8 +11,8 @@ import org.outstage.Require;
  * merges samples from both sides of it. One point just outside each end of the range is kept so lines
  * reach the edges.
  *
- * <p>Input x must be non-decreasing where finite (time or frequency axes); use {@link #isNonDecreasing}
- * to check. When the visible part has no more than two points per column it is returned unchanged.
+ * <p>Input x must be free of NaN and non-decreasing (time or frequency axes); use {@link #isNonDecreasing}
+ * to check. Column edges are found by binary search, so the cost is one pass over the visible y values. When the visible part has no more than two points per column it is returned unchanged.
  * Pure and thread-safe.
  */
 public final class Decimator {
@@ -23,12 +23,14 @@ public final class Decimator {
         public int size() { return x.length; }
     }
 
-    /** True when the finite x values never decrease (NaN x values are ignored). */
+    /**
+     * True when every x is a number (no NaN) and x never decreases: the condition for {@link #minMax}.
+     * Series with NaN x values are drawn without reduction.
+     */
     public static boolean isNonDecreasing(double[] x) {
         double last = Double.NEGATIVE_INFINITY;
         for (double v : x) {
-            if (Double.isNaN(v)) continue;
-            if (v < last) return false;
+            if (!(v >= last)) return false;   // also false for NaN
             last = v;
         }
         return true;
@@ -57,30 +59,41 @@ public final class Decimator {
         if (start < from) out.add(x[start], y[start]);
         double a = log ? Math.log10(xMin) : xMin;
         double perUnit = columns / ((log ? Math.log10(xMax) : xMax) - a);
-        int col = Integer.MIN_VALUE;
-        int minI = -1, maxI = -1;
-        for (int i = from; i < to; i++) {
-            double xi = x[i], yi = y[i];
-            if (Double.isNaN(xi) || Double.isNaN(yi) || (log && !(xi > 0))) {
-                flush(out, x, y, minI, maxI);
-                minI = maxI = -1;
-                out.gap();
-                continue;
+        int i = from;
+        for (int col = 0; col < columns && i < to; col++) {
+            // first index of the next column: binary search with the same column function as a per-sample scan
+            int lo = i, hi = to;
+            while (lo < hi) {
+                int mid = (lo + hi) >>> 1;
+                if (column(x[mid], a, perUnit, log, columns) <= col) lo = mid + 1; else hi = mid;
             }
-            int c = (int) Math.floor(((log ? Math.log10(xi) : xi) - a) * perUnit);
-            if (c >= columns) c = columns - 1;
-            if (c != col) {
-                flush(out, x, y, minI, maxI);
-                minI = maxI = -1;
-                col = c;
+            int next = lo;
+            int minI = -1, maxI = -1;
+            double minV = 0, maxV = 0;
+            for (int k = i; k < next; k++) {
+                double yk = y[k];
+                if (yk != yk || (log && !(x[k] > 0))) {     // NaN: a gap
+                    flush(out, x, y, minI, maxI);
+                    minI = maxI = -1;
+                    out.gap();
+                    continue;
+                }
+                if (minI < 0) { minI = maxI = k; minV = maxV = yk; }
+                else if (yk < minV) { minI = k; minV = yk; }
+                else if (yk > maxV) { maxI = k; maxV = yk; }
             }
-            if (minI < 0) { minI = maxI = i; continue; }
-            if (yi < y[minI]) minI = i;
-            if (yi > y[maxI]) maxI = i;
+            flush(out, x, y, minI, maxI);
+            i = next;
         }
-        flush(out, x, y, minI, maxI);
         if (end > to) out.add(x[to], y[to]);
         return out.result();
+    }
+
+    /** Column of a value: floor((f(x) − f(xMin))·columns/(f(xMax) − f(xMin))), clamped to [−1, columns − 1]. */
+    private static int column(double xv, double a, double perUnit, boolean log, int columns) {
+        if (log && !(xv > 0)) return -1;
+        int c = (int) Math.floor(((log ? Math.log10(xv) : xv) - a) * perUnit);
+        return c >= columns ? columns - 1 : c;
     }
 
     private static void flush(Buffer out, double[] x, double[] y, int minI, int maxI) {

@@ -40,6 +40,9 @@ import org.outstage.plot.Viewport;
  * axis units.
  */
 public final class ChartCanvas extends Region {
+    private static final Font FONT = Font.font("DejaVu Sans", ChartLayout.FONT_SIZE);
+    private static final Font TITLE_FONT = Font.font("DejaVu Sans", FontWeight.BOLD, ChartLayout.TITLE_FONT_SIZE);
+    private static final Font SMALL_FONT = Font.font("DejaVu Sans", 11);
     private final Canvas canvas = new Canvas(10, 10);
     private final Label readout = new Label();
     private ChartSpec spec;
@@ -134,8 +137,9 @@ public final class ChartCanvas extends Region {
         draw(canvas.getGraphicsContext2D(), canvas.getWidth(), canvas.getHeight());
     }
 
-    /** Draws into {@code gc}; package-private so the benchmark can time it on its own canvas. */
-    void draw(GraphicsContext gc, double w, double h) {
+    /** Draws the chart into {@code gc} (any canvas of size w × h); public so the benchmark can time it on its own canvas. */
+    public void draw(GraphicsContext gc, double w, double h) {
+        gc.clearRect(0, 0, w, h);   // a full clear also drops the canvas's queued commands
         gc.setFill(Color.web(Palette.BACKGROUND));
         gc.fillRect(0, 0, w, h);
         if (spec == null || w < 60 || h < 60) {
@@ -183,7 +187,7 @@ public final class ChartCanvas extends Region {
         }
         // labels
         gc.setFill(Color.web(Palette.TEXT));
-        gc.setFont(Font.font("DejaVu Sans", ChartLayout.FONT_SIZE));
+        gc.setFont(FONT);
         gc.setTextBaseline(VPos.TOP);
         gc.setTextAlign(TextAlignment.CENTER);
         for (Ticks.Tick k : xt) if (!k.label().isEmpty()) gc.fillText(k.label(), vp.px(k.value()), t + ph + 4);
@@ -201,9 +205,9 @@ public final class ChartCanvas extends Region {
         gc.restore();
         gc.setTextAlign(TextAlignment.LEFT);
         gc.setTextBaseline(VPos.BASELINE);
-        gc.setFont(Font.font("DejaVu Sans", FontWeight.BOLD, ChartLayout.TITLE_FONT_SIZE));
+        gc.setFont(TITLE_FONT);
         gc.fillText(spec.title(), l, 22);
-        gc.setFont(Font.font("DejaVu Sans", ChartLayout.FONT_SIZE));
+        gc.setFont(FONT);
 
         // data, clipped to the plot area
         gc.save();
@@ -226,7 +230,7 @@ public final class ChartCanvas extends Region {
         }
         gc.setFill(Color.web(Palette.MARKER));
         gc.setTextAlign(TextAlignment.CENTER);
-        gc.setFont(Font.font("DejaVu Sans", 11));
+        gc.setFont(SMALL_FONT);
         for (Marker m : spec.markers()) {
             double x = vp.px(m.x()), y = vp.py(m.y());
             if (!Double.isFinite(x) || !Double.isFinite(y)) continue;
@@ -308,7 +312,7 @@ public final class ChartCanvas extends Region {
 
     private void drawLegend(GraphicsContext gc, Viewport vp) {
         if (prepared.isEmpty()) return;
-        gc.setFont(Font.font("DejaVu Sans", ChartLayout.FONT_SIZE));
+        gc.setFont(FONT);
         double lw = 0;
         for (Prepared p : prepared) lw = Math.max(lw, p.series.name().length() * 6.8);
         double boxW = lw + 40, boxH = prepared.size() * 17 + 8;
