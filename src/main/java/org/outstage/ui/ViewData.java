@@ -25,8 +25,12 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
         figures = List.copyOf(figures);
     }
 
-    /** One point of a level sweep. */
-    record SweepPoint(double powerWatts, double thd, double thdN) {}
+    /** One point of a level sweep: the analysis's level point (power, THD, THD+N and its conditions). */
+    record SweepPoint(org.outstage.analysis.stage.LevelPoint point) {
+        double powerWatts() { return point.powerWatts(); }
+        double thd() { return point.thdRatio(); }
+        double thdN() { return point.thdNRatio(); }
+    }
 
     static ViewData failed(String name, String message) {
         Panel p = Panel.message(message);

@@ -20,7 +20,7 @@ import javafx.stage.Window;
 public final class Workbench extends Application {
 
     /** The backend the workbench uses in this build. */
-    static Backend defaultBackend() { return new FitBackend(); }
+    static Backend defaultBackend() { return new AnalyzerBackend(); }
 
     /** The stage model in this build, if any. */
     static Optional<StageModelAdapter> defaultModel() { return Optional.empty(); }

@@ -17,7 +17,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.analysis.SineFit;
-import org.outstage.analysis.SineFitter;
+import org.outstage.analysis.Analyzer;
+import org.outstage.analysis.Measurement;
 import org.outstage.analysis.TransferCurve;
 import org.outstage.capture.Capture;
 import org.outstage.capture.SampleUnit;
@@ -57,7 +58,7 @@ class WorkbenchTest {
 
     @Start
     void start(Stage stage) {
-        FitBackend fit = new FitBackend();
+        AnalyzerBackend fit = new AnalyzerBackend();
         Backend counting = new Backend() {
             @Override public Capture open(Path file, Calibration c) throws Exception { return fit.open(file, c); }
             @Override public ViewData analyze(Capture c, int ch, Calibration cal, UiSettings s, java.util.function.DoubleConsumer p,
@@ -72,14 +73,20 @@ class WorkbenchTest {
         stage.show();
     }
 
+    /** 0.5 s at 96 kHz of a 997 Hz sine with a small dead band at each crossing and seeded white noise. */
     static Capture sine(String name) {
-        double fs = 48_000;
-        double[] x = new double[9600];
+        double fs = 96_000;
+        double[] x = new double[48_000];
+        java.util.Random r = new java.util.Random(11);
         for (int i = 0; i < x.length; i++) {
             double s = 2.5 * Math.cos(2 * Math.PI * 997 * i / fs + 0.4);
-            x[i] = s - 0.01 * Math.signum(s) + 0.0002 * Math.sin(i * 1.7);  // a small dead band at each crossing
+            x[i] = s - 0.01 * Math.tanh(s / 0.01) + 2e-4 * r.nextGaussian();
         }
         return Capture.inMemory(name, fs, SampleUnit.VOLTS, x);
+    }
+
+    static String shown(FxRobot robot, String id) {
+        return robot.lookup("#" + id).queryAs(Label.class).getText();
     }
 
     private void idle() throws Exception {
@@ -88,39 +95,60 @@ class WorkbenchTest {
     }
 
     @Test
-    void sineCapture_figuresEqualTheFitAndEveryViewShows(FxRobot robot) throws Exception {
+    void sineCapture_figuresEqualTheAnalyzersMeasurementAndEveryViewShows(FxRobot robot) throws Exception {
         Capture c = sine("bench sine");
         robot.interact(() -> pane.addCapture(c));
         idle();
-        SineFit expected = SineFitter.fit(c.readChannel(0), c.sampleRateHz());
-        Label f = robot.lookup("#frequencyValue").queryAs(Label.class);
-        assertEquals(FitBackend.fmt(expected.frequencyHz()) + " Hz", f.getText());
-        assertEquals(FitBackend.fmt(expected.rms()) + " V", robot.lookup("#levelValue").queryAs(Label.class).getText());
-        assertEquals(4, pane.figuresTable.getItems().size());
-        // the waveform chart shows the capture and the fitted fundamental built from the same fit
+        // what the analyzer returns for the same capture and settings
+        Measurement m = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(UiSettings.DEFAULT, Calibration.NONE));
+        assertTrue(m.measured());
+        assertEquals(AnalyzerBackend.pct(m.thd().percent()) + " %", shown(robot, "thdValue"));
+        assertEquals(AnalyzerBackend.pct(m.thdN().percent()) + " %", shown(robot, "thdnValue"));
+        assertEquals(AnalyzerBackend.pct(100 * m.floor().ratio()) + " %", shown(robot, "floorValue"));
+        assertEquals(AnalyzerBackend.num(m.fundamental().frequencyHz()) + " Hz", shown(robot, "frequencyValue"));
+        FigureRow thdn = pane.figuresTable.getItems().stream().filter(r -> r.id().equals("thdnValue")).findFirst().orElseThrow();
+        assertTrue(thdn.note().startsWith("floor "), "floor beside THD+N: " + thdn.note());
+        assertEquals(m.harmonics().size(), pane.figuresTable.getItems().stream().filter(r -> r.quantity().matches("H\\d+")).count());
+        // the waveform chart shows the capture and the analyzer's fitted fundamental
+        SineFit expected = m.sineFit();
         Series fitSeries = pane.waveformChart.spec().orElseThrow().series().get(1);
         assertEquals(expected.valueAt(100 / c.sampleRateHz()), fitSeries.yAt(100), 1e-12);
         assertTrue(pane.residualChart.spec().orElseThrow().title().contains("magnified"));
+        // the spectrum is the analyzer's, shifted from dB re fundamental to dBV
+        Series spec = pane.spectrumChart.spec().orElseThrow().series().get(0);
+        assertEquals(m.spectrum().levelDb()[200] + 20 * Math.log10(m.fundamental().rms()), spec.yAt(200), 1e-9);
+        assertEquals("Level (dBV)", pane.spectrumChart.spec().get().yAxis().title());
+        assertEquals(m.harmonics().size(), pane.spectrumChart.spec().get().markers().size());
+        assertEquals(m.harmonics().get(1).dbc(), pane.harmonicsChart.spec().orElseThrow().series().get(0).yAt(0), 0.0); // H3, first odd bar
 
         TabPane views = robot.lookup("#views").queryAs(TabPane.class);
         for (String tab : List.of("spectrumTab", "harmonicsTab", "transferTab", "sweepTab", "waveformTab")) {
             robot.interact(() -> views.getSelectionModel().select(views.getTabs().stream().filter(t -> t.getId().equals(tab)).findFirst().get()));
             assertEquals(tab, views.getSelectionModel().getSelectedItem().getId());
         }
-        // the views without a result say so in place
-        assertFalse(pane.spectrumChart.message().isEmpty());
+        // the level sweep needs several captures with a load: it says so in place
         assertTrue(pane.sweepChart.message().contains("two or more captures"));
     }
 
     @Test
     void changingABandSetting_reanalysesWithTheNewSettings(FxRobot robot) throws Exception {
-        robot.interact(() -> pane.addCapture(sine("s")));
+        Capture c = sine("s");
+        robot.interact(() -> pane.addCapture(c));
         idle();
+        String narrow = shown(robot, "thdnValue");
         int before = analyses.get();
         robot.interact(() -> pane.bandChoice.setValue(UiSettings.BandChoice.WIDE_80K));
         idle();
         assertTrue(analyses.get() > before);
         assertEquals(UiSettings.BandChoice.WIDE_80K, lastSettings.band());
+        Measurement wide = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(lastSettings, Calibration.NONE));
+        assertEquals(AnalyzerBackend.pct(wide.thdN().percent()) + " %", shown(robot, "thdnValue"));
+        assertNotEquals(narrow, shown(robot, "thdnValue"), "a wider band holds more noise");
+        robot.interact(() -> pane.weightingBox.setSelected(true));
+        idle();
+        Measurement weighted = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(lastSettings, Calibration.NONE));
+        assertTrue(lastSettings.aWeighting());
+        assertEquals(AnalyzerBackend.pct(weighted.thdN().percent()) + " %", shown(robot, "thdnValue"));
         robot.interact(() -> pane.harmonicsSpinner.getValueFactory().setValue(15));
         idle();
         assertEquals(15, lastSettings.harmonics());
@@ -157,6 +185,7 @@ class WorkbenchTest {
         assertTrue(e.toString().startsWith("broken.wav  —  "), e.toString());
         assertTrue(pane.importError.getText().startsWith("broken.wav: "), pane.importError.getText());
         assertTrue(pane.waveformChart.message().startsWith("Could not open broken.wav"));
+        assertFalse(pane.importError.getText().contains("Exception"), "one plain line, no exception class");
     }
 
     @Test
