@@ -17,7 +17,17 @@ public final class Ticks {
 
     /** Ticks for the given range and scale, aiming at about {@code target} major ticks on linear axes. */
     public static List<Tick> of(Range r, Axis.Scale scale, int target) {
-        if (scale == Axis.Scale.LOG10) return log(r);
+        if (scale == Axis.Scale.LOG10) return log(r, true);
+        return linear(r, Math.max(2, target));
+    }
+
+    /**
+     * As {@link #of(Range, Axis.Scale, int)} for an axis in {@code unit}: percent, dB and plain numbers get
+     * plain decimals on log axes ("0.01", "0.1", "1") instead of SI prefixes.
+     */
+    public static List<Tick> of(Range r, Axis.Scale scale, int target, String unit) {
+        boolean plain = unit.isEmpty() || unit.equals("%") || unit.startsWith("dB");
+        if (scale == Axis.Scale.LOG10) return log(r, !plain);
         return linear(r, Math.max(2, target));
     }
 
@@ -44,23 +54,28 @@ public final class Ticks {
         return out;
     }
 
-    static List<Tick> log(Range r) {
+    static List<Tick> log(Range r, boolean siPrefix) {
         List<Tick> out = new ArrayList<>();
         int d0 = (int) Math.floor(Math.log10(r.min()) + 1e-9);
         int d1 = (int) Math.ceil(Math.log10(r.max()) - 1e-9);
         int decades = d1 - d0;
-        boolean labelMinor = decades <= 1;
+        boolean labelMinor = decades <= 2;
         for (int d = d0; d <= d1; d++) {
             double dec = Math.pow(10, d);
             for (int m = 1; m <= 9; m++) {
                 double v = m * dec;
                 if (v < r.min() * (1 - 1e-9) || v > r.max() * (1 + 1e-9)) continue;
                 boolean major = m == 1;
-                String label = major || (labelMinor && (m == 2 || m == 5)) ? format(v, v) : "";
+                String label = major || (labelMinor && (m == 2 || m == 5)) ? (siPrefix ? format(v, v) : plain(v)) : "";
                 out.add(new Tick(v, label, major));
             }
         }
         return out;
+    }
+
+    /** A positive decade value in plain decimal notation ("0.001", "20", "5000"). */
+    static String plain(double v) {
+        return new java.math.BigDecimal(v).round(new java.math.MathContext(1)).stripTrailingZeros().toPlainString();
     }
 
     /** Formats {@code v} with an SI prefix, with as many decimals as {@code step} needs. */

@@ -54,8 +54,8 @@ public final class SvgRenderer {
         sb.append("</g>\n");
 
         // grid and ticks
-        List<Ticks.Tick> xt = Ticks.of(vp.x(), spec.xAxis().scale(), ChartLayout.tickTarget(w, true));
-        List<Ticks.Tick> yt = Ticks.of(vp.y(), spec.yAxis().scale(), ChartLayout.tickTarget(h, false));
+        List<Ticks.Tick> xt = Ticks.of(vp.x(), spec.xAxis().scale(), ChartLayout.tickTarget(w, true), spec.xAxis().unit());
+        List<Ticks.Tick> yt = Ticks.of(vp.y(), spec.yAxis().scale(), ChartLayout.tickTarget(h, false), spec.yAxis().unit());
         sb.append("<g stroke-width=\"1\">\n");
         for (Ticks.Tick k : xt) {
             double x = vp.px(k.value());

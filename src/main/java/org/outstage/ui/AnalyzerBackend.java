@@ -113,8 +113,7 @@ final class AnalyzerBackend implements Backend {
             hl[i] = h.dbc() + shift;
         }
         Panel spectrum = sp.size() == 0 ? Panel.message("No spectrum for this record")
-                : Panel.of(Charts.spectrum(name + " — spectrum (" + sp.window().name().toLowerCase(Locale.ROOT).replace('_', '-') + " window, "
-                        + sp.blocks() + (sp.blocks() == 1 ? " block)" : " blocks averaged)"), sp.frequencyHz(), lv, dbUnit,
+                : Panel.of(Charts.spectrum(name + " — spectrum" + (sp.blocks() > 1 ? " (" + sp.blocks() + " blocks averaged)" : ""), sp.frequencyHz(), lv, dbUnit,
                 Charts.harmonicMarkers(orders, hf, hl), Optional.of(new Range(m.thdN().lowHz(), m.thdN().highHz())),
                 Double.isFinite(sp.noiseFloorDb()) ? OptionalDouble.of(sp.noiseFloorDb() + shift) : OptionalDouble.empty()));
         double[] dbc = new double[k];

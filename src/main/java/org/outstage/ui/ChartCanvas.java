@@ -172,8 +172,8 @@ public final class ChartCanvas extends Region {
             if (x1 > x0) gc.fillRect(x0, t, x1 - x0, ph);
         }
         // grid
-        List<Ticks.Tick> xt = Ticks.of(vp.x(), spec.xAxis().scale(), ChartLayout.tickTarget(pw, true));
-        List<Ticks.Tick> yt = Ticks.of(vp.y(), spec.yAxis().scale(), ChartLayout.tickTarget(ph, false));
+        List<Ticks.Tick> xt = Ticks.of(vp.x(), spec.xAxis().scale(), ChartLayout.tickTarget(pw, true), spec.xAxis().unit());
+        List<Ticks.Tick> yt = Ticks.of(vp.y(), spec.yAxis().scale(), ChartLayout.tickTarget(ph, false), spec.yAxis().unit());
         gc.setLineWidth(1);
         for (Ticks.Tick k : xt) {
             double x = Math.round(vp.px(k.value())) + 0.5;

@@ -512,7 +512,7 @@ final class WorkbenchPane extends BorderPane {
     }
 
     /** Analyses every opened capture that has no result yet (for the level sweep), one after another. */
-    private void analyzeAllForSweep() {
+    void analyzeAllForSweep() {
         List<CaptureEntry> todo = captureList.getItems().stream().filter(x -> x.capture != null && x.data == null && x != selected()).toList();
         if (todo.isEmpty()) return;
         UiSettings s = settings;
