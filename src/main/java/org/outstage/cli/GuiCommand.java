@@ -12,7 +12,7 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
 /** {@code outstage gui [FILE...]}: opens the workbench; with no files, the bundled sample session. */
-@Command(name = "gui", description = "Open the workbench window (with no files: the sample session).")
+@Command(name = "gui", mixinStandardHelpOptions = true, description = "Open the workbench window (with no files: the sample session).")
 public final class GuiCommand implements Callable<Integer> {
     @Spec CommandSpec spec;
 

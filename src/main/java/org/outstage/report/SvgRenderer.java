@@ -39,7 +39,8 @@ public final class SvgRenderer {
         double l = vp.left(), t = vp.top(), w = vp.width(), h = vp.height();
         sb.append("<rect x=\"").append(f(l)).append("\" y=\"").append(f(t)).append("\" width=\"").append(f(w))
                 .append("\" height=\"").append(f(h)).append("\" fill=\"").append(Palette.PLOT_AREA).append("\"/>\n");
-        String clip = "plot" + Integer.toHexString(System.identityHashCode(sb));
+        // deterministic, and distinct between charts inlined in one HTML page (same output for the same chart)
+        String clip = "plot" + Integer.toHexString(java.util.Objects.hash(spec.title(), width, height, spec.series().size(), spec.xAxis(), spec.yAxis()));
         sb.append("<defs><clipPath id=\"").append(clip).append("\"><rect x=\"").append(f(l)).append("\" y=\"").append(f(t))
                 .append("\" width=\"").append(f(w)).append("\" height=\"").append(f(h)).append("\"/></clipPath></defs>\n");
 

@@ -4,6 +4,7 @@ import static org.junit.jupiter.api.Assertions.*;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
@@ -186,6 +187,30 @@ class WorkbenchTest {
         assertTrue(pane.importError.getText().startsWith("broken.wav: "), pane.importError.getText());
         assertTrue(pane.waveformChart.message().startsWith("Could not open broken.wav"));
         assertFalse(pane.importError.getText().contains("Exception"), "one plain line, no exception class");
+    }
+
+    @Test
+    void exports_svgAndCsvComeFromTheSameSpec_pngIsAnImage(FxRobot robot, @TempDir Path dir) throws Exception {
+        robot.interact(() -> pane.addCapture(sine("export me")));
+        idle();
+        Path svg = dir.resolve("s.svg"), csv = dir.resolve("s.csv"), png = dir.resolve("s.png");
+        robot.interact(() -> {
+            try {
+                WorkbenchPane.export(pane.spectrumChart, "svg", svg);
+                WorkbenchPane.export(pane.spectrumChart, "csv", csv);
+                WorkbenchPane.export(pane.waveformChart, "png", png);
+            } catch (java.io.IOException e) {
+                throw new java.io.UncheckedIOException(e);
+            }
+        });
+        var spec = pane.spectrumChart.spec().orElseThrow();
+        assertEquals(org.outstage.report.SvgRenderer.render(spec, (int) Math.max(320, pane.spectrumChart.getWidth()),
+                (int) Math.max(200, pane.spectrumChart.getHeight())), Files.readString(svg));
+        assertEquals(org.outstage.plot.CsvExport.toCsv(spec), Files.readString(csv));
+        byte[] head = Arrays.copyOf(Files.readAllBytes(png), 8);
+        assertArrayEquals(new byte[] {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1a, '\n'}, head);   // PNG signature (RFC 2083)
+        javafx.scene.image.Image img = new javafx.scene.image.Image(png.toUri().toString());
+        assertEquals(Math.round(pane.waveformChart.getWidth()), Math.round(img.getWidth()));
     }
 
     @Test
