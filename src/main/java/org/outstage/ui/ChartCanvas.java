@@ -53,8 +53,31 @@ public final class ChartCanvas extends Region {
     private Viewport lastViewport;
     private String message = "";
 
-    /** Series arrays copied once per spec, with whether x is sorted (decimation needs it). */
-    private record Prepared(Series series, double[] x, double[] y, boolean sorted, String colour) {}
+    /** Series arrays copied once per spec, with whether x is sorted (decimation needs it) and the last reduction. */
+    private static final class Prepared {
+        final Series series;
+        final double[] x, y;
+        final boolean sorted;
+        final String colour;
+        double cachedMin = Double.NaN, cachedMax = Double.NaN;
+        int cachedColumns = -1;
+        Decimator.Result cached;
+
+        Prepared(Series series, double[] x, double[] y, boolean sorted, String colour) {
+            this.series = series; this.x = x; this.y = y; this.sorted = sorted; this.colour = colour;
+        }
+
+        /** The reduction for this view, reused while the view does not change (cursor, zoom-box drawing). */
+        Decimator.Result reduced(double min, double max, int columns, Axis.Scale scale) {
+            if (cached == null || min != cachedMin || max != cachedMax || columns != cachedColumns) {
+                cached = Decimator.minMax(x, y, min, max, columns, scale);
+                cachedMin = min;
+                cachedMax = max;
+                cachedColumns = columns;
+            }
+            return cached;
+        }
+    }
 
     public ChartCanvas() {
         getChildren().addAll(canvas, readout);
@@ -256,7 +279,7 @@ public final class ChartCanvas extends Region {
         double[] x = p.x, y = p.y;
         Series s = p.series;
         if (p.sorted && x.length > 2 * vp.width() + 2 && s.style() != Series.Style.BARS) {
-            Decimator.Result r = Decimator.minMax(x, y, vp.x().min(), vp.x().max(), (int) Math.ceil(vp.width()), vp.xScale());
+            Decimator.Result r = p.reduced(vp.x().min(), vp.x().max(), (int) Math.ceil(vp.width()), vp.xScale());
             x = r.x();
             y = r.y();
         }

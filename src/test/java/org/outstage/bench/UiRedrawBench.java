@@ -16,6 +16,7 @@ import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.outstage.plot.Axis;
 import org.outstage.plot.ChartSpec;
+import org.outstage.plot.Range;
 import org.outstage.plot.Series;
 import org.outstage.ui.ChartCanvas;
 
@@ -48,6 +49,7 @@ public class UiRedrawBench {
             fit[i] = Math.sin(2 * Math.PI * 1000 * t[i]);
             y[i] = fit[i] - 0.01 * Math.tanh(fit[i] / 0.01) + 1e-4 * r.nextGaussian();
         }
+        tEnd = t[n - 1];
         ChartSpec spec = ChartSpec.of("bench", Axis.linear("Time", "s"), Axis.linear("Output", "V"),
                 List.of(new Series("capture", t, y, Series.Style.LINE, Series.Role.MEASURED),
                         new Series("fitted fundamental", t, fit, Series.Style.LINE, Series.Role.FIT)));
@@ -62,8 +64,21 @@ public class UiRedrawBench {
         done.get(30, TimeUnit.SECONDS);
     }
 
+    double tEnd;
+    boolean flip;
+
+    /** A new view each time (the x range alternates between two values), so the reduction runs every frame. */
     @Benchmark
     public Canvas redrawMillionSampleView() {
+        flip = !flip;
+        chart.zoomTo(new Range(0, flip ? tEnd : tEnd * 0.999), new Range(-1.1, 1.1));
+        chart.draw(gc, 1200, 700);
+        return canvas;
+    }
+
+    /** The same view again (cursor moves, zoom-box drawing): the reduction is reused. */
+    @Benchmark
+    public Canvas redrawSameView() {
         chart.draw(gc, 1200, 700);
         return canvas;
     }
