@@ -143,12 +143,12 @@ final class AnalyzerBackend implements Backend {
         rows.add(new FigureRow("levelValue", "Level (rms)", num(m.fundamental().rms()), u, levelNote));
         m.powerWatts().ifPresent(p -> rows.add(new FigureRow("powerValue", "Power", num(p.fundamentalWatts()), "W",
                 "into " + num(p.loadOhms()) + " Ω")));
-        rows.add(new FigureRow("thdValue", "THD (H2–H" + m.settings().harmonics() + ")", pct(m.thd().percent()), "%",
-                num(m.thd().db()) + " dB"));
+        rows.add(new FigureRow("thdValue", "THD", pct(m.thd().percent()), "%",
+                num(m.thd().db()) + " dB; H2–H" + m.settings().harmonics()));
         Measurement.ThdN t = m.thdN();
         String band = Levels.formatHz(t.lowHz()) + "–" + Levels.formatHz(t.highHz()) + (t.weighting() == Weighting.A ? ", A-wtd" : "");
-        rows.add(new FigureRow("thdnValue", "THD+N (" + band + ")", pct(t.percent()), "%",
-                "floor " + pct(Levels.ratioToPercent(m.floor().ratio())) + " %" + (t.atFloor() ? " — at the floor" : "")));
+        rows.add(new FigureRow("thdnValue", "THD+N", pct(t.percent()), "%",
+                "floor " + pct(Levels.ratioToPercent(m.floor().ratio())) + " %" + (t.atFloor() ? " (at the floor)" : "") + "; " + band));
         rows.add(new FigureRow("floorValue", "Measurement floor", pct(Levels.ratioToPercent(m.floor().ratio())), "%",
                 m.floor().kind().name().toLowerCase(Locale.ROOT).replace('_', ' ')));
         rows.add(new FigureRow("sinadValue", "SINAD", num(m.sinadDb()), "dB", "ENOB " + num(m.enob()) + " bits"));
@@ -158,7 +158,7 @@ final class AnalyzerBackend implements Backend {
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
                     d.crossover().explanation()));
-            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero / outer gain", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
+            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero (rel.)", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
                     "± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
         } else if (m.stage() instanceof StageDiagnosis.NotMeasured n) {
             rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", n.reason()));

@@ -282,15 +282,21 @@ final class WorkbenchPane extends BorderPane {
 
         figuresTable.setId("figuresTable");
         figuresTable.setColumnResizePolicy(TableView.CONSTRAINED_RESIZE_POLICY);
-        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 130));
-        figuresTable.getColumns().add(column("Value", FigureRow::value, 80));
-        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 40));
-        figuresTable.getColumns().add(column("Note", FigureRow::note, 150));
+        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 125));
+        figuresTable.getColumns().add(column("Value", FigureRow::value, 85));
+        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 38));
+        figuresTable.getColumns().add(column("Note", FigureRow::note, 170));
         figuresTable.getSelectionModel().setSelectionMode(SelectionMode.MULTIPLE);
         figuresTable.setOnKeyPressed(e -> {
             if (new KeyCodeCombination(KeyCode.C, KeyCombination.SHORTCUT_DOWN).match(e)) copyFigures();
         });
         figuresTable.setPlaceholder(new Label("No figures yet"));
+        figuresTable.setRowFactory(tv -> new javafx.scene.control.TableRow<>() {
+            @Override protected void updateItem(FigureRow r, boolean empty) {
+                super.updateItem(r, empty);
+                setTooltip(empty || r == null ? null : new Tooltip(r.quantity() + ": " + r.value() + " " + r.unit() + (r.note().isEmpty() ? "" : "\n" + r.note())));
+            }
+        });
         VBox.setVgrow(figuresTable, Priority.ALWAYS);
         Button copy = new Button("Copy figures");
         copy.setId("copyFigures");
