@@ -10,5 +10,7 @@ package org.outstage.model;
  * @param biasVolts          bias-generator voltage at the optimum
  * @param maxGainDeviation   the minimised max |g/g_L − 1| (fraction)
  * @param levelVolts         the output level of the criterion
+ * @param atSearchLimit      true when the best bias is the top of the searched range (Vq = 200 mV): the gain
+ *                           only flattens as bias rises, so the stage has no crossover optimum below class A
  */
-public record OptimumBias(double vqVolts, double biasVolts, double maxGainDeviation, double levelVolts) {}
+public record OptimumBias(double vqVolts, double biasVolts, double maxGainDeviation, double levelVolts, boolean atSearchLimit) {}

@@ -333,12 +333,35 @@ public final class StageModel {
      */
     public OptimumBias optimumBias(double levelVolts) {
         Require.positive("levelVolts", levelVolts);
-        double vbLo = of(params.withBias(new Bias.EmitterDropVolts(1e-4)), settings).biasVolts;
-        double vbHi = of(params.withBias(new Bias.EmitterDropVolts(0.2)), settings).biasVolts;
+        double vbLo = biasFor(MIN_SEARCH_VQ_VOLTS);
+        double vbHi = biasFor(MAX_SEARCH_VQ_VOLTS);
         java.util.function.DoubleUnaryOperator dev = vb -> gainDeviation(vb, levelVolts);
         double[] best = Search.scanThenGolden(dev, vbLo, vbHi, 16, 1e-6);
         StageModel at = of(params.withBias(new Bias.GeneratorVolts(best[0])), settings);
-        return new OptimumBias(at.vqVolts(), best[0], best[1], levelVolts);
+        boolean atLimit = best[0] > vbHi - 1e-3 * (vbHi - vbLo);
+        return new OptimumBias(at.vqVolts(), best[0], best[1], levelVolts, atLimit);
+    }
+
+    /** Lower and upper ends of the bias searched by {@link #optimumBias} and by the fit, as Vq. */
+    static final double MIN_SEARCH_VQ_VOLTS = 1e-4, MAX_SEARCH_VQ_VOLTS = 0.2;
+
+    /** The bias voltage that gives this Vq. */
+    double biasFor(double vqVolts) { return of(params.withBias(new Bias.EmitterDropVolts(vqVolts)), settings).biasVolts; }
+
+    /** A 301-point input grid dense near zero spanning ±span. */
+    static double[] denseGrid(double span) {
+        double[] vin = new double[301];
+        for (int k = 0; k < vin.length; k++) {
+            double u = -1 + 2.0 * k / (vin.length - 1);
+            vin[k] = span * (0.25 * u + 0.75 * u * u * u);
+        }
+        return vin;
+    }
+
+    /** {vout, gain} on the given ascending inputs, for this stage at bias voltage vb (package use: the fit). */
+    double[][] curveAtBias(double vb, double[] vin) {
+        StageModel at = of(params.withBias(new Bias.GeneratorVolts(vb)), settings);
+        return at.sweep(new Solver(at.circuit, settings, vb), vin);
     }
 
     /** max |g/g_L − 1| over |Vout| ≤ level for bias voltage vb (a 301-point curve, dense near zero). */
@@ -351,11 +374,7 @@ public final class StageModel {
         }
         double g0 = largeSignalGainEstimate(null);
         double span = level / g0 * 1.05;
-        double[] vin = new double[301];
-        for (int k = 0; k < vin.length; k++) {
-            double u = -1 + 2.0 * k / (vin.length - 1);
-            vin[k] = span * (0.25 * u + 0.75 * u * u * u); // dense near crossover
-        }
+        double[] vin = denseGrid(span);
         Solver sv = new Solver(at.circuit, settings, vb);
         double[][] r = at.sweep(sv, vin);
         double gp = Interp.at(r[0], r[1], level), gm = Interp.at(r[0], r[1], -level);
