@@ -60,13 +60,14 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
         p.add(new Parameter("re", emitterOhms, "ohm", isDefaulted("re")));
         p.add(new Parameter("load", loadOhms, "ohm", isDefaulted("load")));
         p.add(new Parameter("rails", railVolts, "V", isDefaulted("rails")));
-        p.add(new Parameter("beta_driver", driver.beta(), "", isDefaulted("beta_driver")));
+        boolean drivers = !(topology instanceof Topology.Pair);
+        if (drivers) p.add(new Parameter("beta_driver", driver.beta(), "", isDefaulted("beta_driver")));
         p.add(new Parameter("beta_output", output.beta(), "", isDefaulted("beta_output")));
-        p.add(new Parameter("is_driver", driver.saturationCurrentAmps(), "A", isDefaulted("is_driver")));
+        if (drivers) p.add(new Parameter("is_driver", driver.saturationCurrentAmps(), "A", isDefaulted("is_driver")));
         p.add(new Parameter("is_output", output.saturationCurrentAmps(), "A", isDefaulted("is_output")));
         p.add(new Parameter("n", driver.emissionCoefficient(), "", isDefaulted("n")));
         if (output.hasKnee()) p.add(new Parameter("ikf_output", output.kneeCurrentAmps(), "A", isDefaulted("ikf_output")));
-        if (driver.hasKnee()) p.add(new Parameter("ikf_driver", driver.kneeCurrentAmps(), "A", isDefaulted("ikf_driver")));
+        if (drivers && driver.hasKnee()) p.add(new Parameter("ikf_driver", driver.kneeCurrentAmps(), "A", isDefaulted("ikf_driver")));
         p.add(new Parameter("temperature_c", temperatureCelsius, "degC", isDefaulted("temperature_c")));
         p.add(new Parameter("drive_sat_v", driveSaturationVolts, "V", isDefaulted("drive_sat_v")));
         if (topology instanceof Topology.Darlington d) p.add(new Parameter("r_driver", d.driverEmitterOhms(), "ohm", isDefaulted("r_driver")));
