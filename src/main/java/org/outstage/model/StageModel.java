@@ -254,7 +254,7 @@ public final class StageModel {
 
     /**
      * The predicted distortion when the output fundamental has peak {@code outputPeakVolts}: the drive
-     * amplitude is adjusted (two corrections) until the output fundamental matches.
+     * amplitude is adjusted (up to five corrections) until the output fundamental is within 1e-7 of the level.
      */
     public Distortion distortion(double outputPeakVolts) {
         Require.positive("outputPeakVolts", outputPeakVolts);
@@ -283,13 +283,12 @@ public final class StageModel {
         int n = SAMPLES_PER_CYCLE;
         double ain = level / gEstimate;
         double[] spec = null, y = null;
-        for (int pass = 0; pass < 3; pass++) {
+        for (int pass = 0; pass < 6; pass++) {
             y = sineResponse(sv, ain);
             spec = Fft.amplitudes(y);
             double a1 = spec[1];
-            if (!(a1 > 0)) break;
-            if (Math.abs(a1 / level - 1) < 1e-9) break;
-            if (pass < 2) ain *= level / a1;
+            if (!(a1 > 0) || Math.abs(a1 / level - 1) < 1e-7 || pass == 5) break;
+            ain *= level / a1;
         }
         double a1 = spec[1];
         double sum = 0;
