@@ -158,7 +158,7 @@ final class Solver {
         }
         if (!failed) { sourceUsed++; return w; }
         throw new SolverFailureException(String.format(Locale.ROOT,
-                "no operating point at Vin = %.6g V after Newton, %d sub-steps, gmin and source stepping (last operating point at Vin = %.6g V, Vout = %.6g V)",
+                "no operating point at Vin = %.6g V after Newton, up to %d sub-steps, gmin and source stepping (continuation started from Vin = %.6g V, Vout = %.6g V)",
                 vin, 1 << s.maxSubdivisionLevels(), fromVin, from[c.out]), vin, fromVin, nodeMap(from));
     }
 
