@@ -1,0 +1,69 @@
+package org.outstage.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.outstage.analysis.TransferCurve;
+import org.outstage.json.Json;
+import org.outstage.model.Bias;
+import org.outstage.model.SolverSettings;
+import org.outstage.model.StageModel;
+import org.outstage.model.StageParameters;
+
+/** {@code outstage fit}: a transfer-curve CSV synthesised from the model at a known bias. */
+class FitCommandTest {
+    @TempDir Path dir;
+
+    static String[] run(String... args) {
+        StringWriter o = new StringWriter(), e = new StringWriter();
+        int code = OutstageCommand.commandLine(new PrintWriter(o), new PrintWriter(e)).execute(args);
+        return new String[] {Integer.toString(code), o.toString(), e.toString()};
+    }
+
+    Path curveFile(double vqVolts) throws Exception {
+        StageParameters p = StageParameters.builder().topology("darlington").bias(new Bias.EmitterDropVolts(vqVolts)).build();
+        TransferCurve c = StageModel.of(p, SolverSettings.defaults()).transferCurve(-8, 8, 801).curve();
+        StringBuilder sb = new StringBuilder("# synthesised: darlington at a known bias\noutput_v,gain\n");
+        double[] x = c.outputVolts(), g = c.incrementalGain();
+        for (int i = 0; i < x.length; i++) sb.append(String.format(Locale.ROOT, "%.9g,%.9g%n", x[i], g[i]));
+        Path f = dir.resolve("curve.csv");
+        Files.writeString(f, sb.toString());
+        return f;
+    }
+
+    @Test
+    void fitJson_estimatesKnownBiasAndAdvises() throws Exception {
+        String[] r = run("fit", curveFile(0.008).toString(), "--topology", "darlington", "--json");
+        assertEquals("0", r[0], r[2]);
+        @SuppressWarnings("unchecked")
+        Map<String, Object> j = (Map<String, Object>) Json.parse(r[1]);
+        assertEquals(8.0, (Double) j.get("vq_mv"), 0.2);
+        assertTrue((Double) j.get("optimum_vq_mv") > 30);
+        assertTrue((Double) j.get("fit_rms_residual") < 1e-3);
+        assertTrue(((String) j.get("advice")).startsWith("raise the drop across each emitter resistor by about"), (String) j.get("advice"));
+    }
+
+    @Test
+    void fitSummary_printsAdvice() throws Exception {
+        String[] r = run("fit", curveFile(0.008).toString(), "--topology", "darlington");
+        assertEquals("0", r[0], r[2]);
+        assertTrue(r[1].contains("Advice: raise the drop"), r[1]);
+    }
+
+    @Test
+    void badHeader_exit2NamingFileAndLine() throws Exception {
+        Path f = dir.resolve("bad.csv");
+        Files.writeString(f, "x,y\n1,2\n");
+        String[] r = run("fit", f.toString());
+        assertEquals("2", r[0]);
+        assertEquals("outstage: " + f + " line 1: header must name the columns output_v and gain", r[2].strip());
+    }
+}
