@@ -257,20 +257,23 @@ public final class StageModel {
      * amplitude is adjusted (up to five corrections) until the output fundamental is within 1e-7 of the level.
      */
     public Distortion distortion(double outputPeakVolts) {
-        Require.positive("outputPeakVolts", outputPeakVolts);
-        Solver sv = new Solver(circuit, settings, biasVolts);
-        return distortion(sv, outputPeakVolts, largeSignalGainEstimate(sv));
+        return distortionVersusLevel(new double[] {outputPeakVolts}).get(0);
     }
 
     /** THD and harmonics at each output level (peak volts). */
     public List<Distortion> distortionVersusLevel(double[] outputPeakVolts) {
+        Require.notNull("outputPeakVolts", outputPeakVolts);
+        double g = largeSignalGainEstimate(null);
+        double maxLevel = 0;
+        for (double level : outputPeakVolts) maxLevel = Math.max(maxLevel, Require.positive("outputPeakVolts", level));
         Solver sv = new Solver(circuit, settings, biasVolts);
-        double g = largeSignalGainEstimate(sv);
+        // A curve with exact gains, for cubic Hermite interpolation: finds the drive amplitude cheaply before the exact passes.
+        double span = Math.min(maxLevel / g * 1.5 + 1, params.railVolts() + Math.abs(biasVolts));
+        double[] gridIn = new double[2001];
+        for (int k = 0; k < gridIn.length; k++) gridIn[k] = -span + 2 * span * k / (gridIn.length - 1);
+        double[][] grid = sweep(sv, gridIn);
         List<Distortion> r = new ArrayList<>();
-        for (double level : outputPeakVolts) {
-            Require.positive("outputPeakVolts", level);
-            r.add(distortion(sv, level, g));
-        }
+        for (double level : outputPeakVolts) r.add(distortion(sv, level, g, gridIn, grid));
         return r;
     }
 
@@ -279,10 +282,20 @@ public final class StageModel {
         return rl / (rl + params.emitterOhms());
     }
 
-    private Distortion distortion(Solver sv, double level, double gEstimate) {
+    private Distortion distortion(Solver sv, double level, double gEstimate, double[] gridIn, double[][] grid) {
         int n = SAMPLES_PER_CYCLE;
         double ain = level / gEstimate;
-        double[] spec = null, y = null;
+        double[] y = new double[n];
+        for (int pass = 0; pass < 8; pass++) {
+            double span = gridIn[gridIn.length - 1];
+            if (ain >= span) break;
+            for (int k = 0; k < n; k++) y[k] = hermite(gridIn, grid[0], grid[1], ain * Math.sin(2 * Math.PI * k / n));
+            double a1 = Fft.amplitudes(y)[1];
+            if (!(a1 > 0)) break;
+            ain *= level / a1;
+            if (Math.abs(a1 / level - 1) < 1e-9) break;
+        }
+        double[] spec = null;
         for (int pass = 0; pass < 6; pass++) {
             y = sineResponse(sv, ain);
             spec = Fft.amplitudes(y);
@@ -296,6 +309,17 @@ public final class StageModel {
         double[] ratios = new double[n / 2];
         for (int h = 0; h < n / 2; h++) ratios[h] = spec[h] / a1;
         return new Distortion(a1, ain, ratios, Math.sqrt(sum) / a1);
+    }
+
+    /** Cubic Hermite interpolation of y(x) with slopes d on a uniform increasing grid x. */
+    private static double hermite(double[] x, double[] y, double[] d, double x0) {
+        int n = x.length;
+        double h = (x[n - 1] - x[0]) / (n - 1);
+        int i = (int) Math.floor((x0 - x[0]) / h);
+        if (i < 0) i = 0;
+        if (i > n - 2) i = n - 2;
+        double t = (x0 - x[i]) / h, t2 = t * t, t3 = t2 * t;
+        return (2 * t3 - 3 * t2 + 1) * y[i] + (t3 - 2 * t2 + t) * h * d[i] + (-2 * t3 + 3 * t2) * y[i + 1] + (t3 - t2) * h * d[i + 1];
     }
 
     /** Output for x_k = A·sin(2πk/N), k = 0..N−1, solving only the distinct inputs (quarter-wave symmetry of the drive). */
