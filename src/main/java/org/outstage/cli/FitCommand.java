@@ -31,7 +31,7 @@ import picocli.CommandLine.Model.CommandSpec;
  * (incremental gain against output voltage; any scale: the fit normalises it). Exit codes: 0 ok, 1 solver failure,
  * 2 bad input.
  */
-@Command(name = "fit", sortOptions = false,
+@Command(name = "fit", sortOptions = false, mixinStandardHelpOptions = true,
         description = {"Estimate a stage's bias from a measured transfer curve and advise (raise, lower, leave it).",
                 "FILE: a CSV with columns output_v,gain (incremental gain against output voltage).",
                 "Exit codes: 0 ok, 1 solver failure, 2 bad input."})
@@ -53,7 +53,7 @@ public final class FitCommand implements Callable<Integer> {
         TransferCurve curve = readCurve(file);
         BiasFitResult r;
         try {
-            r = BiasFit.fit(curve, p, level, toleranceMv / 1e3, ModelOptions.solver());
+            r = BiasFit.fit(curve, p, level, toleranceMv / 1e3, stage.solver());
         } catch (SolverFailureException e) {
             PrintWriter err = spec.commandLine().getErr();
             err.println("outstage: fit: solver failure: " + e.getMessage());

@@ -27,7 +27,7 @@ import picocli.CommandLine.Model.CommandSpec;
  * {@code outstage model}: what a class-AB output stage should do. Prints a summary (default), the transfer curve
  * as CSV ({@code --csv}: vin,vout,gain) or JSON ({@code --json}). Exit codes: 0 ok, 2 bad parameters, 1 solver failure.
  */
-@Command(name = "model", sortOptions = false,
+@Command(name = "model", sortOptions = false, mixinStandardHelpOptions = true,
         description = {"Predict a class-AB push-pull output stage: quiescent currents, optimum bias, clip levels, gain, THD.",
                 "Exit codes: 0 ok, 1 solver failure, 2 bad parameters."})
 public final class ModelCommand implements Callable<Integer> {
@@ -54,7 +54,7 @@ public final class ModelCommand implements Callable<Integer> {
         if (!(level > 0)) throw new BadInputException("level-v=" + level + " must be > 0");
         for (double l : thdLevels) if (!(l > 0)) throw new BadInputException("thd-levels: " + l + " must be > 0");
         try {
-            StageModel m = StageModel.of(p, ModelOptions.solver());
+            StageModel m = StageModel.of(p, stage.solver());
             TransferCurve curve = m.transferCurve(-vmax, vmax, points).curve();
             if (csv) {
                 printCsv(out, curve);

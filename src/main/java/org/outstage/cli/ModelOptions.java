@@ -55,6 +55,9 @@ final class ModelOptions {
     @Option(names = "--ikf-driver", paramLabel = "A", description = "Driver knee current for beta fall-off (default none).") Double ikfDriver;
     @Option(names = "--drive-sat-v", paramLabel = "V", description = "How close to each rail the drive can swing (default 0.2).") Double driveSatV;
 
+    @Option(names = "--max-iterations", paramLabel = "N", description = "Solver budget: Newton iterations per operating point before the fallbacks (default 100).")
+    int maxIterations = 100;
+
     /** Builds the stage parameters: file first, then options. IllegalArgumentException/BadInputException on bad input. */
     StageParameters parameters() {
         Map<String, String> v = new LinkedHashMap<>();
@@ -154,7 +157,12 @@ final class ModelOptions {
         return v;
     }
 
-    static SolverSettings solver() { return SolverSettings.defaults(); }
+    /** The solver settings: the defaults with the iteration budget of {@code --max-iterations}. */
+    SolverSettings solver() {
+        if (maxIterations < 1) throw new BadInputException("max-iterations=" + maxIterations + " must be >= 1");
+        SolverSettings d = SolverSettings.defaults();
+        return new SolverSettings(d.voltageToleranceVolts(), maxIterations, d.maxJunctionStepVolts(), d.maxSubdivisionLevels());
+    }
 
     static String fmt(String pattern, Object... args) { return String.format(Locale.ROOT, pattern, args); }
 }

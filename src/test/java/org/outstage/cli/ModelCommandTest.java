@@ -76,6 +76,23 @@ class ModelCommandTest {
     }
 
     @Test
+    void starvedSolver_exit1WithOneLine() {
+        Run r = run("model", "--max-iterations", "1", "--topology", "darlington");
+        assertEquals(1, r.code(), r.out());
+        assertTrue(r.err().startsWith("outstage: model: solver failure: no operating point at Vin = "), r.err());
+        assertEquals(1, r.err().strip().split("\n").length);
+    }
+
+    @Test
+    void help_listsTheDocumentedOptions() {
+        Run r = run("model", "--help");
+        assertEquals(0, r.code());
+        for (String o : List.of("--topology", "--vq-mv", "--bias-v", "--iq-a", "--re", "--load", "--rails", "--beta-driver", "--beta-output",
+                "--is-driver", "--is-output", "--n", "--temperature-c", "--vin-max", "--points", "--csv", "--json", "--stage", "--max-iterations"))
+            assertTrue(r.out().contains(o), "help lacks " + o);
+    }
+
+    @Test
     void stageFile_readAndOverriddenByOptions() throws Exception {
         Path f = dir.resolve("bench.stage");
         Files.writeString(f, "# a fictional bench stage\ntopology = darlington\nvq_mv = 15\nre = 0.33   # ohm\nrails = 40\n");
