@@ -20,7 +20,7 @@ import picocli.CommandLine.Option;
  */
 final class ModelOptions {
     static final List<String> KEYS = List.of("topology", "vq_mv", "bias_v", "iq_a", "re", "load", "rails", "beta_driver", "beta_output",
-            "is_driver", "is_output", "n", "temperature_c", "r_driver", "rbe", "ikf_driver", "ikf_output", "drive_sat_v");
+            "is_driver", "is_output", "n", "temperature_c", "r_driver", "rbe", "cfp_re_in_loop", "ikf_driver", "ikf_output", "drive_sat_v");
 
     @Option(names = "--stage", paramLabel = "FILE", description = "Stage file (key = value lines; see docs/model.md). Options given here override it.")
     Path stageFile;
@@ -51,6 +51,8 @@ final class ModelOptions {
     @Option(names = "--temperature-c", paramLabel = "C", description = "Junction temperature, degC (default 25).") Double temperatureC;
     @Option(names = "--r-driver", paramLabel = "OHMS", description = "Darlington driver emitter resistor (darlington, quasi; default 200).") Double rDriver;
     @Option(names = "--rbe", paramLabel = "OHMS", description = "CFP output base-emitter resistor (cfp, quasi; default none).") Double rbe;
+    @Option(names = "--cfp-re-in-loop", arity = "0..1", paramLabel = "BOOL",
+            description = "CFP halves: Re inside the local loop (driver emitter at the output) instead of outside (default false).") Boolean cfpReInLoop;
     @Option(names = "--ikf-output", paramLabel = "A", description = "Output-device knee current for beta fall-off (default none).") Double ikfOutput;
     @Option(names = "--ikf-driver", paramLabel = "A", description = "Driver knee current for beta fall-off (default none).") Double ikfDriver;
     @Option(names = "--drive-sat-v", paramLabel = "V", description = "How close to each rail the drive can swing (default 0.2).") Double driveSatV;
@@ -72,13 +74,14 @@ final class ModelOptions {
         put(v, "re", re); put(v, "load", load); put(v, "rails", rails);
         put(v, "beta_driver", betaDriver); put(v, "beta_output", betaOutput);
         put(v, "is_driver", isDriver); put(v, "is_output", isOutput); put(v, "n", n);
-        put(v, "temperature_c", temperatureC); put(v, "r_driver", rDriver); put(v, "rbe", rbe);
+        put(v, "temperature_c", temperatureC); put(v, "r_driver", rDriver); put(v, "rbe", rbe); put(v, "cfp_re_in_loop", cfpReInLoop);
         put(v, "ikf_output", ikfOutput); put(v, "ikf_driver", ikfDriver); put(v, "drive_sat_v", driveSatV);
         StageParameters.Builder b = StageParameters.builder();
         String where = stageFile != null ? " (options and stage file " + stageFile + ")" : "";
         for (Map.Entry<String, String> e : v.entrySet()) {
             String k = e.getKey();
             if (k.equals("topology")) { b.topology(e.getValue()); continue; }
+            if (k.equals("cfp_re_in_loop")) { b.cfpEmitterResistorInLoop(bool(k, e.getValue(), where)); continue; }
             double x = number(k, e.getValue(), where);
             switch (k) {
                 case "vq_mv" -> b.bias(new Bias.EmitterDropVolts(checkPositive("vq_mv", x) / 1e3));
@@ -113,6 +116,14 @@ final class ModelOptions {
         if (value != null) m.put(key, value instanceof Double d ? Double.toString(d) : value.toString());
     }
 
+    private static boolean bool(String key, String text, String where) {
+        return switch (text.trim().toLowerCase(Locale.ROOT)) {
+            case "true", "yes", "1" -> true;
+            case "false", "no", "0" -> false;
+            default -> throw new BadInputException(key + "=" + text + " must be true or false" + where);
+        };
+    }
+
     private static double number(String key, String text, String where) {
         try {
             return Double.parseDouble(text.trim());
@@ -143,7 +154,7 @@ final class ModelOptions {
             if (!KEYS.contains(key)) throw new BadInputException(file + " line " + (i + 1) + ": unknown key '" + key + "' (known: " + String.join(", ", KEYS) + ")");
             if (value.isEmpty()) throw new BadInputException(file + " line " + (i + 1) + ": key '" + key + "' has no value");
             if (v.containsKey(key)) throw new BadInputException(file + " line " + (i + 1) + ": key '" + key + "' given twice");
-            if (!key.equals("topology")) {
+            if (!key.equals("topology") && !key.equals("cfp_re_in_loop")) {
                 try {
                     Double.parseDouble(value);
                 } catch (NumberFormatException e) {

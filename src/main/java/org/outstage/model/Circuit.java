@@ -59,11 +59,11 @@ final class Circuit {
             c.darlingtonTop(drv, outp, re, d.driverEmitterOhms());
             c.darlingtonBottom(drv, outp, re, d.driverEmitterOhms());
         } else if (t instanceof Topology.Cfp f) {
-            c.cfpTop(drv, outp, re, f.outputBaseEmitterOhms());
-            c.cfpBottom(drv, outp, re, f.outputBaseEmitterOhms());
+            c.cfpTop(drv, outp, re, f.outputBaseEmitterOhms(), f.emitterResistorInLoop());
+            c.cfpBottom(drv, outp, re, f.outputBaseEmitterOhms(), f.emitterResistorInLoop());
         } else if (t instanceof Topology.Quasi q) {
             c.darlingtonTop(drv, outp, re, q.driverEmitterOhms());
-            c.cfpBottom(drv, outp, re, q.outputBaseEmitterOhms());
+            c.cfpBottom(drv, outp, re, q.outputBaseEmitterOhms(), q.emitterResistorInLoop());
         }
         c.resistor("RL", c.out, GND, p.loadOhms());
         return c;
@@ -87,18 +87,18 @@ final class Circuit {
         resistor("RE2", e, out, re);
     }
 
-    private void cfpTop(DeviceParameters drv, DeviceParameters outp, double re, double rbe) {
+    private void cfpTop(DeviceParameters drv, DeviceParameters outp, double re, double rbe, boolean reInLoop) {
         int b = node("b3"), col = node("c3");
-        bjts.add(new Bjt("Q1", "upper driver", true, b, DRIVE_TOP, out, drv, false, true));
+        bjts.add(new Bjt("Q1", "upper driver", true, b, DRIVE_TOP, reInLoop ? out : col, drv, false, true));
         bjts.add(new Bjt("Q3", "upper output", false, col, b, VPOS, outp, true, true));
         resistor("RBE1", b, VPOS, rbe);
         emitterResistorTop = resistors.size();
         resistor("RE1", col, out, re);
     }
 
-    private void cfpBottom(DeviceParameters drv, DeviceParameters outp, double re, double rbe) {
+    private void cfpBottom(DeviceParameters drv, DeviceParameters outp, double re, double rbe, boolean reInLoop) {
         int b = node("b4"), col = node("c4");
-        bjts.add(new Bjt("Q2", "lower driver", false, b, DRIVE_BOTTOM, out, drv, false, false));
+        bjts.add(new Bjt("Q2", "lower driver", false, b, DRIVE_BOTTOM, reInLoop ? out : col, drv, false, false));
         bjts.add(new Bjt("Q4", "lower output", true, col, b, VNEG, outp, true, false));
         resistor("RBE2", b, VNEG, rbe);
         emitterResistorBottom = resistors.size();

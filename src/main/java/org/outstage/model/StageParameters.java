@@ -16,7 +16,7 @@ import org.outstage.Require;
  *
  * <p>Defaults describe a stage of about 60 W into 8 Ω: rails ±35 V, Re 0.22 Ω, driver β 150 and Is 1e-14 A,
  * output β 60 and Is 1e-12 A, n = 1, 25 °C, Vq 20 mV, Darlington driver emitter resistor 200 Ω, no output
- * base-emitter resistor in a CFP, driver (VAS) saturation 0.2 V from each rail.
+ * base-emitter resistor in a CFP and its Re outside the local loop, driver (VAS) saturation 0.2 V from each rail.
  */
 public record StageParameters(Topology topology, Bias bias, double emitterOhms, double loadOhms, double railVolts,
                               DeviceParameters driver, DeviceParameters output, double temperatureCelsius,
@@ -71,10 +71,14 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
         p.add(new Parameter("temperature_c", temperatureCelsius, "degC", isDefaulted("temperature_c")));
         p.add(new Parameter("drive_sat_v", driveSaturationVolts, "V", isDefaulted("drive_sat_v")));
         if (topology instanceof Topology.Darlington d) p.add(new Parameter("r_driver", d.driverEmitterOhms(), "ohm", isDefaulted("r_driver")));
-        if (topology instanceof Topology.Cfp c) p.add(new Parameter("rbe", c.outputBaseEmitterOhms(), "ohm", isDefaulted("rbe")));
+        if (topology instanceof Topology.Cfp c) {
+            p.add(new Parameter("rbe", c.outputBaseEmitterOhms(), "ohm", isDefaulted("rbe")));
+            p.add(new Parameter("cfp_re_in_loop", c.emitterResistorInLoop() ? 1 : 0, "", isDefaulted("cfp_re_in_loop")));
+        }
         if (topology instanceof Topology.Quasi q) {
             p.add(new Parameter("r_driver", q.driverEmitterOhms(), "ohm", isDefaulted("r_driver")));
             p.add(new Parameter("rbe", q.outputBaseEmitterOhms(), "ohm", isDefaulted("rbe")));
+            p.add(new Parameter("cfp_re_in_loop", q.emitterResistorInLoop() ? 1 : 0, "", isDefaulted("cfp_re_in_loop")));
         }
         return p;
     }
@@ -99,6 +103,7 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
         private double ikfDriver = Double.POSITIVE_INFINITY, ikfOutput = Double.POSITIVE_INFINITY;
         private double temperature = DEFAULT_TEMPERATURE_CELSIUS, driveSat = DEFAULT_DRIVE_SATURATION_VOLTS;
         private double rDriver = DEFAULT_DRIVER_EMITTER_OHMS, rbe = Double.POSITIVE_INFINITY;
+        private boolean reInLoop = false;
         private final Set<String> set = new LinkedHashSet<>();
 
         private Builder() {}
@@ -121,6 +126,8 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
         public Builder driveSaturationVolts(double v) { driveSat = v; return mark("drive_sat_v"); }
         public Builder driverEmitterOhms(double v) { rDriver = v; return mark("r_driver"); }
         public Builder outputBaseEmitterOhms(double v) { rbe = v; return mark("rbe"); }
+        /** CFP halves: Re inside the local loop (driver emitter at the output node) instead of outside (the default). */
+        public Builder cfpEmitterResistorInLoop(boolean v) { reInLoop = v; return mark("cfp_re_in_loop"); }
 
         /** Checks every parameter: impossible ones throw IllegalArgumentException, unusual ones become warnings. */
         public StageParameters build() {
@@ -152,8 +159,8 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
             Topology t = switch (topologyName.toLowerCase(Locale.ROOT)) {
                 case "pair" -> new Topology.Pair();
                 case "darlington" -> new Topology.Darlington(rDriver);
-                case "cfp" -> new Topology.Cfp(rbe);
-                case "quasi" -> new Topology.Quasi(rDriver, rbe);
+                case "cfp" -> new Topology.Cfp(rbe, reInLoop);
+                case "quasi" -> new Topology.Quasi(rDriver, rbe, reInLoop);
                 default -> throw new IllegalArgumentException("topology=" + topologyName + " must be one of pair, darlington, cfp, quasi");
             };
             if (re < 0.05 || re > 2) w.add("re=" + fmt(re) + " ohm is outside the usual 0.05..2 ohm");
@@ -177,6 +184,8 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
                 w.add("r_driver is ignored by topology " + t.name());
             if (!(t instanceof Topology.Cfp || t instanceof Topology.Quasi) && set.contains("rbe"))
                 w.add("rbe is ignored by topology " + t.name());
+            if (!(t instanceof Topology.Cfp || t instanceof Topology.Quasi) && set.contains("cfp_re_in_loop"))
+                w.add("cfp_re_in_loop is ignored by topology " + t.name());
             DeviceParameters drv = new DeviceParameters(isDriver, n, betaDriver, ikfDriver);
             DeviceParameters out = new DeviceParameters(isOutput, n, betaOutput, ikfOutput);
             return new StageParameters(t, bias, re, load, rails, drv, out, temperature, driveSat, set, w);

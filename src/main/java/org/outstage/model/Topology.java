@@ -33,11 +33,13 @@ public sealed interface Topology permits Topology.Pair, Topology.Darlington, Top
 
     /**
      * Complementary feedback pair each side: an NPN driver controls a PNP output above, a PNP driver an NPN
-     * output below. The driver's emitter is the output node; the output device's collector reaches the output
-     * through the emitter resistor Re. {@code outputBaseEmitterOhms} is the optional resistor from the output
-     * device's base to its emitter (infinite for none).
+     * output below. The output device's collector reaches the output through the emitter resistor Re; the
+     * driver's emitter joins the output device's collector before Re (Re outside the local loop, the default)
+     * or, with {@code emitterResistorInLoop}, the output node after Re (Re inside the loop, where it no longer
+     * affects the gain). {@code outputBaseEmitterOhms} is the optional resistor from the output device's base to
+     * its emitter (infinite for none).
      */
-    record Cfp(double outputBaseEmitterOhms) implements Topology {
+    record Cfp(double outputBaseEmitterOhms, boolean emitterResistorInLoop) implements Topology {
         public Cfp { positiveOrNone(outputBaseEmitterOhms); }
         public String name() { return "cfp"; }
         static void positiveOrNone(double ohms) {
@@ -48,9 +50,9 @@ public sealed interface Topology permits Topology.Pair, Topology.Darlington, Top
 
     /**
      * Quasi-complementary: an NPN Darlington above (as {@link Darlington}) and a CFP below (PNP driver, NPN
-     * output, as the lower half of {@link Cfp}), so both output devices are NPN.
+     * output, as the lower half of {@link Cfp}, with the same choice of where Re sits), so both output devices are NPN.
      */
-    record Quasi(double driverEmitterOhms, double outputBaseEmitterOhms) implements Topology {
+    record Quasi(double driverEmitterOhms, double outputBaseEmitterOhms, boolean emitterResistorInLoop) implements Topology {
         public Quasi {
             Require.positive("driverEmitterOhms", driverEmitterOhms);
             Cfp.positiveOrNone(outputBaseEmitterOhms);

@@ -35,7 +35,7 @@ import org.outstage.analysis.TransferCurve;
 class NgspiceAgreementTest {
     static final double VOUT_TOLERANCE_VOLTS = 1e-4;
     static final double GAIN_TOLERANCE = 2e-3;
-    static final String[] NETLISTS = {"pair", "darlington", "cfp", "cfp-rbe", "quasi"};
+    static final String[] NETLISTS = {"pair", "darlington", "cfp", "cfp-rbe", "cfp-loop", "quasi"};
 
     @TempDir static Path tmp;
     static Path source;
@@ -109,6 +109,7 @@ class NgspiceAgreementTest {
         StageParameters.Builder b = StageParameters.builder();
         switch (netlist) {
             case "cfp-rbe" -> b.topology("cfp").outputBaseEmitterOhms(100);
+            case "cfp-loop" -> b.topology("cfp").outputBaseEmitterOhms(100).cfpEmitterResistorInLoop(true);
             case "quasi" -> b.topology("quasi").emissionCoefficient(1.05).kneeOutputAmps(5).outputBaseEmitterOhms(150).driverEmitterOhms(220);
             default -> b.topology(netlist);
         }
@@ -120,10 +121,12 @@ class NgspiceAgreementTest {
                 Arguments.of("pair", 0.0, "fine"), Arguments.of("pair", 1.28, "fine"), Arguments.of("pair", 1.44, "fine"), Arguments.of("pair", 1.28, "coarse"),
                 Arguments.of("darlington", 0.0, "fine"), Arguments.of("darlington", 2.65, "fine"), Arguments.of("darlington", 2.85, "fine"),
                 Arguments.of("darlington", 2.65, "coarse"),
-                Arguments.of("cfp", 0.0, "fine"), Arguments.of("cfp", 1.29, "fine"), Arguments.of("cfp", 1.37, "fine"), Arguments.of("cfp", 1.29, "coarse"),
-                Arguments.of("cfp-rbe", 0.8, "fine"), Arguments.of("cfp-rbe", 1.4, "fine"), Arguments.of("cfp-rbe", 1.42, "fine"),
-                Arguments.of("cfp-rbe", 1.4, "coarse"),
-                Arguments.of("quasi", 0.0, "fine"), Arguments.of("quasi", 2.1, "fine"), Arguments.of("quasi", 2.23, "fine"), Arguments.of("quasi", 2.1, "coarse"));
+                Arguments.of("cfp", 0.0, "fine"), Arguments.of("cfp", 1.31, "fine"), Arguments.of("cfp", 1.47, "fine"), Arguments.of("cfp", 1.31, "coarse"),
+                Arguments.of("cfp-rbe", 0.8, "fine"), Arguments.of("cfp-rbe", 1.42, "fine"), Arguments.of("cfp-rbe", 1.52, "fine"),
+                Arguments.of("cfp-rbe", 1.42, "coarse"),
+                Arguments.of("cfp-loop", 0.8, "fine"), Arguments.of("cfp-loop", 1.4, "fine"), Arguments.of("cfp-loop", 1.42, "fine"),
+                Arguments.of("cfp-loop", 1.4, "coarse"),
+                Arguments.of("quasi", 0.0, "fine"), Arguments.of("quasi", 2.11, "fine"), Arguments.of("quasi", 2.28, "fine"), Arguments.of("quasi", 2.11, "coarse"));
     }
 
     @ParameterizedTest(name = "{0} bias {1} V {2}")
