@@ -112,7 +112,8 @@ public final class ModelCommand implements Callable<Integer> {
             o.println("Output-stage model: " + p.topology().name() + " (" + describe(p) + ")");
             o.println("Parameters (* = given, others defaulted):");
             for (StageParameters.Parameter q : p.parameters())
-                o.println(fmt("  %-14s %12s %-4s%s", q.name(), num(q.value()), q.unit(), q.defaulted() ? "" : " *"));
+                o.println(fmt("  %-14s %12s %-4s%s", q.name(), q.name().equals("cfp_re_in_loop") ? (q.value() != 0 ? "yes" : "no") : num(q.value()),
+                        q.unit(), q.defaulted() ? "" : " *"));
             o.println("Quiescent point (Vin = 0):");
             o.println(fmt("  bias generator %12.4f V", m.biasVolts()));
             o.println(fmt("  Vq per Re      %12.2f mV  (Iq %.1f mA per emitter resistor)", m.vqVolts() * 1e3, m.quiescentAmps() * 1e3));
