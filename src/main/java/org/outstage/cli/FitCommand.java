@@ -12,7 +12,9 @@ import java.util.List;
 import java.util.Locale;
 import java.util.TreeMap;
 import java.util.concurrent.Callable;
+import org.outstage.analysis.Measurement;
 import org.outstage.analysis.TransferCurve;
+import org.outstage.analysis.stage.StageDiagnosis;
 import org.outstage.json.Json;
 import org.outstage.model.BiasFit;
 import org.outstage.model.BiasFitResult;
@@ -27,21 +29,27 @@ import picocli.CommandLine.Model.CommandSpec;
 
 /**
  * {@code outstage fit FILE}: estimates the bias of a stage from a measured transfer curve and says whether to raise or
- * lower it. FILE is a transfer-curve CSV with a header line naming the columns {@code output_v} and {@code gain}
- * (incremental gain against output voltage; any scale: the fit normalises it). Exit codes: 0 ok, 1 solver failure,
- * 2 bad input.
+ * lower it. FILE is either a capture (WAV or scope CSV of the amplifier's output, read and diagnosed like
+ * {@code analyze}, whose measured transfer curve is used) or a transfer-curve CSV whose header names the columns
+ * {@code output_v} and {@code gain} (incremental gain against output voltage; any scale: the fit normalises it).
+ * Exit codes: 0 ok, 1 solver failure, 2 bad input.
  */
 @Command(name = "fit", sortOptions = false, mixinStandardHelpOptions = true,
         description = {"Estimate a stage's bias from a measured transfer curve and advise (raise, lower, leave it).",
-                "FILE: a CSV with columns output_v,gain (incremental gain against output voltage).",
+                "FILE: a capture (WAV or scope CSV of the output, as for analyze) or a CSV with columns output_v,gain.",
                 "Exit codes: 0 ok, 1 solver failure, 2 bad input."})
 public final class FitCommand implements Callable<Integer> {
     @Spec CommandSpec spec;
-    @Parameters(index = "0", paramLabel = "FILE", description = "Transfer-curve CSV (columns output_v,gain).") Path file;
+    @Parameters(index = "0", paramLabel = "FILE", description = "Capture (WAV or scope CSV) or transfer-curve CSV (columns output_v,gain).") Path file;
     @Mixin ModelOptions stage;
     @Option(names = "--level-v", paramLabel = "V", description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
     @Option(names = "--tolerance-mv", paramLabel = "MV", description = "Within this of the optimum the advice is 'leave it' (default 2).") double toleranceMv = 2;
     @Option(names = "--json", description = "Print the result as JSON.") boolean json;
+    @Option(names = "--fs-volts", paramLabel = "V", description = "Capture: WAV calibration, peak volts at the output that reach full scale (divider included).") Double fsVolts;
+    @Option(names = "--probe", paramLabel = "X", description = "Capture: scope CSV calibration, multiply values by X.") Double probe;
+    @Option(names = "--channel", paramLabel = "N", description = "Capture: channel to fit, from 1 (needed when several are measured).") Integer channel;
+    @Option(names = "--sample-rate", paramLabel = "HZ", description = "Capture: sample rate of a scope CSV without time column.") Double sampleRate;
+    @Option(names = "--reference", paramLabel = "N", description = "Capture: channel (from 1) carrying the generator signal, for an X-Y transfer curve.") Integer reference;
 
     @Override
     public Integer call() {
@@ -50,7 +58,7 @@ public final class FitCommand implements Callable<Integer> {
         double level = levelV != null ? levelV : 0.6 * p.railVolts();
         if (!(level > 0)) throw new BadInputException("level-v=" + level + " must be > 0");
         if (!(toleranceMv > 0)) throw new BadInputException("tolerance-mv=" + toleranceMv + " must be > 0");
-        TransferCurve curve = readCurve(file);
+        TransferCurve curve = isCurveCsv(file) ? readCurve(file) : measuredCurve();
         BiasFitResult r;
         try {
             r = BiasFit.fit(curve, p, level, toleranceMv / 1e3, stage.solver());
@@ -76,6 +84,37 @@ public final class FitCommand implements Callable<Integer> {
         }
         out.flush();
         return 0;
+    }
+
+    /** True when the file's first non-comment line names the columns output_v and gain. */
+    static boolean isCurveCsv(Path file) {
+        if (!Files.isRegularFile(file)) throw new BadInputException(file + ": no such file");
+        if (!file.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".csv")) return false;
+        try (var lines = Files.lines(file, StandardCharsets.UTF_8)) {
+            String first = lines.map(String::strip).filter(l -> !l.isEmpty() && !l.startsWith("#")).findFirst().orElse("");
+            List<String> cols = java.util.Arrays.stream(first.toLowerCase(Locale.ROOT).split(",")).map(String::strip).toList();
+            return cols.contains("output_v") && cols.contains("gain");
+        } catch (IOException | java.io.UncheckedIOException e) {
+            return false; // not text: let the capture readers say what is wrong
+        }
+    }
+
+    /** Reads the capture and returns the measured transfer curve of the chosen channel. */
+    private TransferCurve measuredCurve() {
+        List<String> args = new ArrayList<>();
+        if (fsVolts != null) { args.add("--fs-volts"); args.add(Double.toString(fsVolts)); }
+        if (probe != null) { args.add("--probe"); args.add(Double.toString(probe)); }
+        if (channel != null) { args.add("--channel"); args.add(Integer.toString(channel)); }
+        if (sampleRate != null) { args.add("--sample-rate"); args.add(Double.toString(sampleRate)); }
+        if (reference != null) { args.add("--reference"); args.add(Integer.toString(reference)); }
+        AnalyzeOptions options = picocli.CommandLine.populateCommand(new AnalyzeOptions(), args.toArray(String[]::new));
+        Measuring.FileResult fr = Measuring.measure(file, options);
+        List<Measurement> ms = fr.measurements();
+        if (ms.isEmpty()) throw new BadInputException(file + ": no channel to fit");
+        if (ms.size() > 1) throw new BadInputException(file + ": " + ms.size() + " channels measured; choose one with --channel");
+        Measurement m = ms.get(0);
+        if (m.stage() instanceof StageDiagnosis.Measured d) return d.transfer().curve();
+        throw new BadInputException(file + " channel " + m.channel() + ": no transfer curve: " + ((StageDiagnosis.NotMeasured) m.stage()).reason());
     }
 
     /** Reads output_v,gain columns (header required, comma separated, '#' comment lines allowed). */

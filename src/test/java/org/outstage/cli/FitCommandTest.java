@@ -59,11 +59,52 @@ class FitCommandTest {
     }
 
     @Test
-    void badHeader_exit2NamingFileAndLine() throws Exception {
+    void csvWithoutCurveColumns_isReadAsCapture_badInputExit2() throws Exception {
         Path f = dir.resolve("bad.csv");
         Files.writeString(f, "x,y\n1,2\n");
         String[] r = run("fit", f.toString());
         assertEquals("2", r[0]);
-        assertEquals("outstage: " + f + " line 1: header must name the columns output_v and gain", r[2].strip());
+        assertTrue(r[2].startsWith("outstage: " + f), r[2]);
+        assertEquals(1, r[2].strip().split("\n").length);
+    }
+
+    @Test
+    void curveCsvWithBadRow_exit2NamingFileAndLine() throws Exception {
+        Path f = dir.resolve("curve-bad.csv");
+        Files.writeString(f, "output_v,gain\n0.0,0.97\nabc,0.97\n");
+        String[] r = run("fit", f.toString());
+        assertEquals("2", r[0]);
+        assertEquals("outstage: " + f + " line 3: not a number", r[2].strip());
+    }
+
+    /** A 1 s, 48 kHz WAV of a 997 Hz sine (not commensurate with the sample rate, so the phases cover the cycle) through the model's static curve (darlington at vqVolts), 10 V peak, noise 20 µV rms. */
+    Path captureFile(double vqVolts) throws Exception {
+        StageParameters p = StageParameters.builder().topology("darlington").bias(new Bias.EmitterDropVolts(vqVolts)).build();
+        TransferCurve c = StageModel.of(p, SolverSettings.defaults()).transferCurve(-12, 12, 24001).curve();
+        double[] vin = c.inputVolts(), vout = c.outputVolts();
+        int fs = 48000, n = 48000;
+        double amp = 10 / 0.97, fsVolts = 20;
+        double[] x = new double[n];
+        java.util.Random r = new java.util.Random(17);
+        for (int i = 0; i < n; i++) {
+            double v = amp * Math.sin(2 * Math.PI * 997 * i / fs);
+            int k = (int) Math.floor((v + 12) / 24 * 24000);
+            double t = (v - vin[k]) / (vin[k + 1] - vin[k]);
+            x[i] = (vout[k] + t * (vout[k + 1] - vout[k]) + 2e-5 * r.nextGaussian()) / fsVolts;
+        }
+        Path f = dir.resolve("stage-out.wav");
+        org.outstage.capture.WavWriter.write(f, fs, org.outstage.capture.WavWriter.Encoding.FLOAT_32, false, x);
+        return f;
+    }
+
+    @Test
+    void captureFile_fitsTheMeasuredTransferCurve() throws Exception {
+        String[] r = run("fit", captureFile(0.009).toString(), "--fs-volts", "20", "--topology", "darlington", "--json");
+        assertEquals("0", r[0], r[2]);
+        @SuppressWarnings("unchecked")
+        Map<String, Object> j = (Map<String, Object>) Json.parse(r[1]);
+        System.out.println("capture fit: " + r[1]);
+        assertEquals(9.0, (Double) j.get("vq_mv"), 0.5);
+        assertTrue(((String) j.get("advice")).startsWith("raise"), (String) j.get("advice"));
     }
 }
