@@ -86,14 +86,14 @@ public final class FitCommand implements Callable<Integer> {
         return 0;
     }
 
-    /** True when the file's first non-comment line names the columns output_v and gain. */
+    /** True when the file's first non-comment line names the columns output_v (or vout, as {@code model --csv} writes) and gain. */
     static boolean isCurveCsv(Path file) {
         if (!Files.isRegularFile(file)) throw new BadInputException(file + ": no such file");
         if (!file.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".csv")) return false;
         try (var lines = Files.lines(file, StandardCharsets.UTF_8)) {
             String first = lines.map(String::strip).filter(l -> !l.isEmpty() && !l.startsWith("#")).findFirst().orElse("");
             List<String> cols = java.util.Arrays.stream(first.toLowerCase(Locale.ROOT).split(",")).map(String::strip).toList();
-            return cols.contains("output_v") && cols.contains("gain");
+            return (cols.contains("output_v") || cols.contains("vout")) && cols.contains("gain");
         } catch (IOException | java.io.UncheckedIOException e) {
             return false; // not text: let the capture readers say what is wrong
         }
@@ -134,10 +134,10 @@ public final class FitCommand implements Callable<Integer> {
             if (header < 0) {
                 for (int k = 0; k < f.length; k++) {
                     String name = f[k].strip().toLowerCase(Locale.ROOT);
-                    if (name.equals("output_v")) cx = k;
+                    if (name.equals("output_v") || (name.equals("vout") && cx < 0)) cx = k;
                     if (name.equals("gain")) cg = k;
                 }
-                if (cx < 0 || cg < 0) throw new BadInputException(file + " line " + (i + 1) + ": header must name the columns output_v and gain");
+                if (cx < 0 || cg < 0) throw new BadInputException(file + " line " + (i + 1) + ": header must name the columns output_v (or vout) and gain");
                 header = i;
                 continue;
             }

@@ -59,6 +59,21 @@ class FitCommandTest {
     }
 
     @Test
+    void modelCsvOutput_fitsBackToItsOwnBias() throws Exception {
+        StringWriter o = new StringWriter(), e = new StringWriter();
+        int code = OutstageCommand.commandLine(new PrintWriter(o), new PrintWriter(e))
+                .execute("model", "--topology", "pair", "--vq-mv", "12", "--csv", "--vin-max", "10", "--points", "1001");
+        assertEquals(0, code, e.toString());
+        Path f = dir.resolve("model.csv");
+        Files.writeString(f, o.toString());
+        String[] r = run("fit", f.toString(), "--json");
+        assertEquals("0", r[0], r[2]);
+        @SuppressWarnings("unchecked")
+        Map<String, Object> j = (Map<String, Object>) Json.parse(r[1]);
+        assertEquals(12.0, (Double) j.get("vq_mv"), 0.05);
+    }
+
+    @Test
     void csvWithoutCurveColumns_isReadAsCapture_badInputExit2() throws Exception {
         Path f = dir.resolve("bad.csv");
         Files.writeString(f, "x,y\n1,2\n");
