@@ -51,6 +51,17 @@ public final class SignalCheck {
         return shape(samples, sampleRateHz);
     }
 
+    /**
+     * Whether a reason given by this class says the record holds no single dominant tone (two tones, or a tone
+     * buried in noise): then no distortion figure describes the amplifier, not only the stage figures.
+     */
+    public static boolean isNoSingleTone(String reason) {
+        return reason.startsWith(TWO_TONES) || reason.startsWith(NO_DOMINANT_TONE);
+    }
+
+    static final String TWO_TONES = "two tones";
+    static final String NO_DOMINANT_TONE = "no dominant tone";
+
     /** The rules that need no fit (use before fitting: a fit of silence or of a square is meaningless). */
     public static Optional<String> check(double[] samples, double sampleRateHz) {
         Optional<String> basic = level(samples, sampleRateHz);
@@ -145,11 +156,11 @@ public final class SignalCheck {
             double median = sorted[sorted.length / 2];
             double ratio = Math.sqrt(p[k2] / p[k0]);
             if (ratio >= 0.1 && p[k2] >= 1000 * median)
-                return Optional.of(String.format(Locale.ROOT, "two tones: a line at %.4g Hz, %.1f dB relative to the %.4g Hz tone, is not one of its harmonics",
+                return Optional.of(String.format(Locale.ROOT, TWO_TONES + ": a line at %.4g Hz, %.1f dB relative to the %.4g Hz tone, is not one of its harmonics",
                         (double) k2 * fs / m, 20 * Math.log10(ratio), f0));
         }
         if (inLines < 0.5 * total)
-            return Optional.of(String.format(Locale.ROOT, "no dominant tone: the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
+            return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
                     f0, 100 * inLines / total));
         return Optional.empty();
     }

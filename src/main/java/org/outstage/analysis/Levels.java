@@ -1,0 +1,47 @@
+package org.outstage.analysis;
+
+import java.util.Locale;
+
+/**
+ * Conversions between plain ratios (used inside the program) and percent or decibels (used only at
+ * the edges: reports, tables, the command line). Amplitude ratios use 20·lg, power ratios 10·lg.
+ */
+public final class Levels {
+    private Levels() {}
+
+    /** Amplitude ratio to dB: {@code 20·lg(ratio)}; {@code -Infinity} for 0. */
+    public static double ratioToDb(double ratio) { return 20 * Math.log10(ratio); }
+
+    /** dB to amplitude ratio: {@code 10^(db/20)}. */
+    public static double dbToRatio(double db) { return Math.pow(10, db / 20); }
+
+    /** Power ratio to dB: {@code 10·lg(ratio)}. */
+    public static double powerRatioToDb(double powerRatio) { return 10 * Math.log10(powerRatio); }
+
+    /** Ratio to percent: {@code 100·ratio}. */
+    public static double ratioToPercent(double ratio) { return 100 * ratio; }
+
+    /** Percent to ratio. */
+    public static double percentToRatio(double percent) { return percent / 100; }
+
+    /**
+     * THD relative to the fundamental (THD_F) to THD relative to the total (THD_R):
+     * {@code THD_R = THD_F/√(1+THD_F²)} (references.md §3; both conventions exist in IEC practice).
+     */
+    public static double thdFToThdR(double thdF) { return thdF / Math.sqrt(1 + thdF * thdF); }
+
+    /** Inverse of {@link #thdFToThdR}: {@code THD_F = THD_R/√(1−THD_R²)}. */
+    public static double thdRToThdF(double thdR) { return thdR / Math.sqrt(1 - thdR * thdR); }
+
+    /** A frequency for labels: "20 Hz", "22 kHz", "997 Hz", "22.4 kHz". */
+    public static String formatHz(double hz) {
+        if (hz >= 1000) return trim(hz / 1000) + " kHz";
+        return trim(hz) + " Hz";
+    }
+
+    private static String trim(double v) {
+        String s = String.format(Locale.ROOT, "%.3f", v);
+        s = s.replaceAll("0+$", "");
+        return s.endsWith(".") ? s.substring(0, s.length() - 1) : s;
+    }
+}
