@@ -44,10 +44,10 @@ public final class GenerateSampleCaptures {
             double[] v = amplifier(n, FS, w, 0.026, 0, seed++).output;
             writeWav(dir.resolve(String.format(Locale.ROOT, "da60-level-%03.0fW.wav", w)), FS, toFullScale(v, FULL_SCALE));
         }
-        // bias series at 20 W
+        // bias series at 40 W (the outer swing well past the crossover region even at 90 mV)
         for (double mv : new double[] {3, 26, 90}) {
-            double[] v = amplifier(n, FS, 20, mv / 1000, 0, seed++).output;
-            writeWav(dir.resolve(String.format(Locale.ROOT, "da60-bias-%02.0fmV-20W.wav", mv)), FS, toFullScale(v, FULL_SCALE));
+            double[] v = amplifier(n, FS, 40, mv / 1000, 0, seed++).output;
+            writeWav(dir.resolve(String.format(Locale.ROOT, "da60-bias-%02.0fmV-40W.wav", mv)), FS, toFullScale(v, FULL_SCALE));
         }
         // stereo: generator on channel 1 (soundcard input direct, 2 V full scale), amplifier on channel 2 (1:20 divider)
         Run xy = amplifier(n, FS, 20, 0.010, 7.7e-6, seed++);
