@@ -141,8 +141,14 @@ public final class Analyzer {
             double[] prefix = pre == span.length ? span : Arrays.copyOf(span, pre);
             double start = s.fundamentalHz().isPresent() ? s.fundamentalHz().getAsDouble() : SineFitter.coarseFrequency(prefix, fs);
             SineFit first = SineFitter.fourParameter(prefix, fs, start);
-            if (pre == span.length) return first;
-            return SineFitter.fourParameter(span, fs, first.frequencyHz());
+            SineFit full = pre == span.length ? first : SineFitter.fourParameter(span, fs, first.frequencyHz());
+            // On records of many cycles, refine with window-weighted least squares: the window's sidelobes keep
+            // harmonics and other tones from biasing the frequency of a fit over a non-integer number of cycles.
+            if (full.frequencyHz() * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
+                SineFit weighted = SineFitter.fourParameterWeighted(span, fs, full.frequencyHz(), WINDOW.samples(span.length));
+                if (weighted.converged() && weighted.frequencyHz() > 0 && weighted.frequencyHz() < fs / 2) return weighted;
+            }
+            return full;
         }
 
         int maxOrder(double f, double guardHz) {
@@ -221,8 +227,11 @@ public final class Analyzer {
                 sumH += ph;
             }
             double noiseFloorPower = density * bandG2;
+            // total mean square without DC from the spectrum (free of the partial-cycle error of a plain mean square)
+            double totalMs = 0;
+            for (int k = 1; k < half; k++) totalMs += k <= hw ? density : ps.power[k];
             Measurement.Spectrum spectrum = summary(ps.power, binW, 1, half - 1, p1 / WINDOW.enbwBins(len), density, ps.blocks);
-            return finish(fit, f, p1, fit.phaseRadians(), ps.windowedMean, ps.acMeanSquare, harmonics, sumH, ndU, ndW, noiseFloorPower,
+            return finish(fit, f, p1, fit.phaseRadians(), ps.windowedMean, totalMs, harmonics, sumH, ndU, ndW, noiseFloorPower,
                     Measurement.Method.WINDOWED_SPECTRUM, spectrum, span);
         }
 
@@ -286,11 +295,10 @@ public final class Analyzer {
             ndU += resU;
             ndW += resW;
             double density = nb > 0 ? Stats.median(noiseBins, nb) * Stats.medianToMean(1) : 0;
-            double mean = 0, ms = 0;
-            for (double v : y) mean += v;
-            mean /= y.length;
-            for (double v : y) ms += (v - mean) * (v - mean);
-            ms /= y.length;
+            double mean = hf.dc;
+            // total mean square without DC: fitted lines plus what is left over (free of the partial-cycle error)
+            double ms = resAll;
+            for (int h = 1; h <= hf.orders(); h++) ms += hf.amplitude[h] * hf.amplitude[h] / 2;
             // spectrum for plotting: the record through the analysis window (one block)
             Measurement.Spectrum spectrum;
             if (m >= 16) {

@@ -95,14 +95,30 @@ public final class SineFitter {
         return best;
     }
 
+    /**
+     * Four-parameter fit with each sample weighted by a window (weighted least squares). The window's low
+     * sidelobes keep other spectral lines (harmonics, hum, a second tone) from biasing the frequency, which
+     * an unweighted fit on a non-integer number of cycles suffers from. The residual and DC of the result
+     * are those of the unweighted three-parameter fit at the found frequency. Package-private: used by
+     * {@link Analyzer} on long records.
+     */
+    static SineFit fourParameterWeighted(double[] y, double sampleRateHz, double initialFrequencyHz, double[] weights) {
+        if (weights.length != y.length) throw new IllegalArgumentException("weights.length=" + weights.length + " must equal samples.length=" + y.length);
+        return iterate(y, sampleRateHz, initialFrequencyHz, sampleRateHz / y.length, weights);
+    }
+
     private static SineFit iterate(double[] y, double fs, double f0, double bin) {
+        return iterate(y, fs, f0, bin, null);
+    }
+
+    private static SineFit iterate(double[] y, double fs, double f0, double bin, double[] wt) {
         double f = f0;
-        double[] abc = solve(y, fs, f, false, 0, 0);
+        double[] abc = solve(y, fs, f, false, 0, 0, wt);
         boolean converged = false;
         int it = 0;
         while (it < MAX_ITERATIONS) {
             it++;
-            double[] x = solve(y, fs, f, true, abc[0], abc[1]);
+            double[] x = solve(y, fs, f, true, abc[0], abc[1], wt);
             double dOmega = x[3];
             double df = dOmega / (2 * Math.PI);
             double limit = 0.25 * bin;
@@ -122,6 +138,10 @@ public final class SineFitter {
      * column is t·(−a·sin ωt + b·cos ωt) and the result's 4th entry is Δω (rad/s).
      */
     private static double[] solve(double[] y, double fs, double f, boolean four, double a, double b) {
+        return solve(y, fs, f, four, a, b, null);
+    }
+
+    private static double[] solve(double[] y, double fs, double f, boolean four, double a, double b, double[] wt) {
         int n = y.length;
         int p = four ? 4 : 3;
         double[][] ata = new double[p][p];
@@ -140,18 +160,20 @@ public final class SineFitter {
                 s = Math.sin(ph);
             }
             double yi = y[i];
-            s00 += c * c; s01 += c * s; s02 += c; s11 += s * s; s12 += s;
-            r0 += c * yi; r1 += s * yi; r2 += yi;
+            double wi = wt == null ? 1.0 : wt[i];
+            double cw = c * wi, sw = s * wi;
+            s00 += cw * c; s01 += cw * s; s02 += cw; s11 += sw * s; s12 += sw; s22 += wi;
+            r0 += cw * yi; r1 += sw * yi; r2 += wi * yi;
             if (four) {
                 double t = (i - mid) / fs;
                 double d = t * (-a * s + b * c);
-                s03 += c * d; s13 += s * d; s23 += d; s33 += d * d; r3 += d * yi;
+                double dw = d * wi;
+                s03 += cw * d; s13 += sw * d; s23 += dw; s33 += dw * d; r3 += dw * yi;
             }
             double cn = c * cd - s * sd;
             s = s * cd + c * sd;
             c = cn;
         }
-        s22 = n;
         ata[0][0] = s00; ata[0][1] = s01; ata[0][2] = s02;
         ata[1][0] = s01; ata[1][1] = s11; ata[1][2] = s12;
         ata[2][0] = s02; ata[2][1] = s12; ata[2][2] = s22;
