@@ -16,9 +16,11 @@ import org.outstage.capture.SampleUnit;
  * <p>Steps (sources and assumptions in docs/methods.md):
  * <ol>
  * <li>Fundamental: coarse spectral peak, then the IEEE Std 1057-2017 four-parameter sine fit
- *     ({@link SineFitter}) on a bounded span (the first 2^20 samples).</li>
+ *     ({@link SineFitter}) on a bounded span (the first 2^18 samples), refined on records of many cycles
+ *     by a window-weighted four-parameter fit so harmonics do not bias the frequency.</li>
  * <li>Long records (at least 50 cycles): averaged power spectra with the 7-term Blackman-Harris window
- *     (Solomon 1994, −180 dB sidelobes), blocks of up to 2^20 samples, 50 % overlap (Welch 1967). Each
+ *     (Solomon 1994, −180 dB sidelobes), power-of-two blocks of up to 2^20 samples tiling the record with
+ *     at least 50 % overlap (Welch 1967). Each
  *     line's mean square is the power summed over its main lobe (free of scalloping loss, scaled by Σw²).
  *     Harmonic phases come from the first block's complex spectrum.</li>
  * <li>Short records (fewer than 50 cycles, up to 2^20 samples): a least-squares fit of DC, fundamental and
