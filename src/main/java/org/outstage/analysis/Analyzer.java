@@ -311,7 +311,7 @@ public final class Analyzer {
                 new DoubleFFT_1D(m).realForward(x);
                 double[] pw = new double[m / 2 + 1];
                 for (int k = 1; k < m / 2; k++) pw[k] = (x[2 * k] * x[2 * k] + x[2 * k + 1] * x[2 * k + 1]) * 2 / (m * sw2);
-                spectrum = summary(pw, binW, 1, m / 2 - 1, p1 / WINDOW.enbwBins(m), density * WINDOW.enbwBins(m) / WINDOW.enbwBins(m), 1);
+                spectrum = summary(pw, binW, 1, m / 2 - 1, p1 / WINDOW.enbwBins(m), density, 1);   // noise per bin is window-independent with Σw² scaling
             } else {
                 spectrum = Measurement.Spectrum.empty();
             }
