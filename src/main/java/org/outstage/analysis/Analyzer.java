@@ -4,7 +4,6 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Optional;
-import org.jtransforms.fft.DoubleFFT_1D;
 import org.outstage.Require;
 import org.outstage.capture.Capture;
 import org.outstage.capture.SampleUnit;
@@ -273,7 +272,7 @@ public final class Analyzer {
             // residual (noise and harmonics above the fitted orders), band-limited with a rectangular-window FFT
             int m = y.length - (y.length % 2);
             double[] r = Arrays.copyOf(hf.residual, m);
-            new DoubleFFT_1D(m).realForward(r);
+            Fft.of(m).realForward(r);
             double binW = fs / m;
             int kLo = Math.max(1, (int) Math.ceil(lowHz / binW));
             int kHi = Math.min(m / 2 - 1, (int) Math.floor(highHz / binW));
@@ -308,7 +307,7 @@ public final class Analyzer {
                 double sw2 = 0;
                 double[] x = new double[m];
                 for (int i = 0; i < m; i++) { x[i] = (y[i] - mean) * w[i]; sw2 += w[i] * w[i]; }
-                new DoubleFFT_1D(m).realForward(x);
+                Fft.of(m).realForward(x);
                 double[] pw = new double[m / 2 + 1];
                 for (int k = 1; k < m / 2; k++) pw[k] = (x[2 * k] * x[2 * k] + x[2 * k + 1] * x[2 * k + 1]) * 2 / (m * sw2);
                 spectrum = summary(pw, binW, 1, m / 2 - 1, p1 / WINDOW.enbwBins(m), density, 1);   // noise per bin is window-independent with Σw² scaling

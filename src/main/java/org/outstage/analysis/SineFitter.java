@@ -1,6 +1,5 @@
 package org.outstage.analysis;
 
-import org.jtransforms.fft.DoubleFFT_1D;
 import org.outstage.Require;
 
 /**
@@ -48,7 +47,7 @@ public final class SineFitter {
             double w = 0.5 - 0.5 * Math.cos(2 * Math.PI * i / n);
             buf[i] = (samples[i] - mean) * w;
         }
-        new DoubleFFT_1D(n).realForward(buf);
+        Fft.of(n).realForward(buf);
         int bins = n / 2;
         double[] mag = new double[bins + 1];
         mag[0] = Math.abs(buf[0]);
