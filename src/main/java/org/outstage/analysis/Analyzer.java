@@ -113,6 +113,7 @@ public final class Analyzer {
             double mean = 0;
             for (double v : span) mean += v;
             mean /= span.length;
+            if (!Double.isFinite(mean)) return notMeasured("the record holds samples that are not finite numbers");
             double ac2 = 0, peak = 0;
             for (double v : span) { double d = v - mean; ac2 += d * d; peak = Math.max(peak, Math.abs(v)); }
             double acRms = Math.sqrt(ac2 / span.length);

@@ -214,6 +214,14 @@ class AnalyzerTest {
     }
 
     @Test
+    void nonFiniteSample_isNotMeasured() {
+        double[] y = new double[4800];
+        for (int i = 0; i < y.length; i++) y[i] = Math.sin(2 * Math.PI * 1000 * i / 48000.0);
+        y[100] = Double.NaN;
+        assertTrue(Analyzer.analyze(y, 48000, SampleUnit.VOLTS).notMeasuredReason().orElse("").contains("not finite"));
+    }
+
+    @Test
     void whiteNoise_hasNoClearLine() {
         java.util.Random rnd = new java.util.Random(7);
         double[] y = new double[96000];
