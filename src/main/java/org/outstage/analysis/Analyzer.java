@@ -71,6 +71,14 @@ public final class Analyzer {
         return new Run(capture, channelIndex, settings).run();
     }
 
+    /** Analyses every channel of {@code capture}, in channel order. */
+    public static List<Measurement> analyzeAll(Capture capture, AnalysisSettings settings) {
+        Require.notNull("capture", capture);
+        List<Measurement> out = new ArrayList<>();
+        for (int c = 0; c < capture.channelCount(); c++) out.add(analyze(capture, c, settings));
+        return List.copyOf(out);
+    }
+
     /** Analyses a record held in memory (name "samples", channel 1). */
     public static Measurement analyze(double[] samples, double sampleRateHz, SampleUnit unit, AnalysisSettings settings) {
         return analyze(Capture.inMemory("samples", sampleRateHz, unit, samples), 0, settings);

@@ -125,4 +125,16 @@ class AnalyzerBandTest {
         assertEquals(1500.7, hinted.fundamental().frequencyHz(), 1e-6);
         assertEquals(0.5 / Math.sqrt(2), hinted.fundamental().rms(), 1e-9);
     }
+
+    /** Every channel, numbered from 1, each with its own level (1 V and 0.5 V peak). */
+    @Test
+    void analyzeAll_measuresEachChannel() {
+        double[] a = {0, 1}, p = {0, 0}, b = {0, 0.5};
+        var capture = org.outstage.capture.Capture.inMemory("two", FS, SampleUnit.VOLTS, record(1000.1, a, p, 0.5), record(1000.1, b, p, 0.5));
+        var all = Analyzer.analyzeAll(capture, AnalysisSettings.DEFAULT);
+        assertEquals(2, all.size());
+        assertEquals(2, all.get(1).channel());
+        assertEquals(0.5 / Math.sqrt(2), all.get(1).fundamental().rms(), 1e-9);
+        assertEquals("two", all.get(0).captureName());
+    }
 }
