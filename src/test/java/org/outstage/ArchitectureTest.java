@@ -29,6 +29,11 @@ class ArchitectureTest {
     }
 
     @Test
+    void commonsMath_isOnlyATestReference() {
+        noClasses().should().dependOnClassesThat().resideInAnyPackage("org.apache.commons.math3..").check(MAIN);
+    }
+
+    @Test
     void capture_doesNotReachUpstream() {
         noClasses().that().resideInAPackage("org.outstage.capture..")
                 .should().dependOnClassesThat().resideInAnyPackage("org.outstage.analysis..", "org.outstage.model..", "org.outstage.plot..")

@@ -5,6 +5,10 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Optional;
 import org.outstage.Require;
+import org.outstage.analysis.stage.SignalCheck;
+import org.outstage.analysis.stage.StageAnalyzer;
+import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.analysis.stage.StageSettings;
 import org.outstage.capture.Capture;
 import org.outstage.capture.SampleUnit;
 
@@ -79,6 +83,11 @@ public final class Analyzer {
         return List.copyOf(out);
     }
 
+    /** How many frames of a capture the fit and the stage diagnosis use (the analysis span, from the start). */
+    public static int spanFrames(Capture capture) {
+        return (int) Math.min(capture.frameCount(), MAX_BLOCK);
+    }
+
     /** Analyses a record held in memory (name "samples", channel 1). */
     public static Measurement analyze(double[] samples, double sampleRateHz, SampleUnit unit, AnalysisSettings settings) {
         return analyze(Capture.inMemory("samples", sampleRateHz, unit, samples), 0, settings);
@@ -141,15 +150,41 @@ public final class Analyzer {
             double cycles = n * f / fs;
             if (cycles < MIN_CYCLES)
                 return notMeasured(String.format(java.util.Locale.ROOT, "record too short: %.2f cycles of %s, at least %.1f needed", cycles, Levels.formatHz(f), MIN_CYCLES));
-            if (n <= MAX_BLOCK && cycles < SHORT_RECORD_CYCLES) return shortRecord(span, fit);
-            return longRecord(span, fit);
+            Measurement core = n <= MAX_BLOCK && cycles < SHORT_RECORD_CYCLES ? shortRecord(span, fit) : longRecord(span, fit);
+            return withStage(core, span, fit);
+        }
+
+        /**
+         * Adds the output-stage diagnosis of the same span (org.outstage.analysis.stage). When the stage's
+         * signal check finds no single dominant tone (two tones, or noise), the core figures would describe the
+         * wrong thing, so the whole measurement becomes "not measured" with that reason.
+         */
+        Measurement withStage(Measurement core, double[] span, SineFit fit) {
+            if (!core.measured()) return core;
+            StageSettings ss = StageSettings.defaults().withUnit(capture.unit().symbol());
+            StageDiagnosis d;
+            if (s.referenceChannel().isPresent()) {
+                int ref = s.referenceChannel().getAsInt() - 1;
+                if (ref >= capture.channelCount())
+                    throw new IllegalArgumentException("reference channel " + (ref + 1) + " does not exist in " + capture.name()
+                            + " (it has " + capture.channelCount() + ")");
+                if (ref == index) throw new IllegalArgumentException("reference channel " + (ref + 1) + " is the analysed channel");
+                d = StageAnalyzer.diagnose(span, capture.readChannel(ref, span.length), fs, fit, ss);
+            } else {
+                d = StageAnalyzer.diagnose(span, fs, fit, ss);
+            }
+            if (d instanceof StageDiagnosis.NotMeasured nm && SignalCheck.isNoSingleTone(nm.reason())) return notMeasured(nm.reason());
+            return core.withStage(d);
         }
 
         /** Coarse start (hint or spectral peak), four-parameter fit on a 2^16 prefix, then on the whole span. */
         SineFit fitFundamental(double[] span) {
             int pre = Math.min(span.length, 1 << 16);
             double[] prefix = pre == span.length ? span : Arrays.copyOf(span, pre);
-            double start = s.fundamentalHz().isPresent() ? s.fundamentalHz().getAsDouble() : SineFitter.coarseFrequency(prefix, fs);
+            // with a hint: the strongest line within ±10 % of it (the hint need not be exact)
+            double start = s.fundamentalHz().isPresent()
+                    ? SineFitter.coarseFrequency(prefix, fs, 0.9 * s.fundamentalHz().getAsDouble(), 1.1 * s.fundamentalHz().getAsDouble())
+                    : SineFitter.coarseFrequency(prefix, fs);
             SineFit first = SineFitter.fourParameter(prefix, fs, start);
             SineFit full = pre == span.length ? first : SineFitter.fourParameter(span, fs, first.frequencyHz());
             // On records of many cycles, refine with window-weighted least squares: the window's sidelobes keep
@@ -340,10 +375,11 @@ public final class Analyzer {
             double enob = (sinad - LOG_1_5) / DB_PER_BIT;
             double measuredFloor = Math.sqrt(noiseFloorPower / p1);
             double quant = Double.NaN;
-            if (s.bitDepth().isPresent()) {
+            java.util.OptionalInt bits = s.bitDepth().isPresent() ? s.bitDepth() : capture.bitDepth();
+            if (bits.isPresent()) {
                 // IEEE 1241 / Kester MT-001: q = FSR/2^N, noise q²/12 white over 0…fs/2; scaled to the band and weighting.
                 double fsPeak = capture.scale();
-                double q = 2 * fsPeak / Math.pow(2, s.bitDepth().getAsInt());
+                double q = 2 * fsPeak / Math.pow(2, bits.getAsInt());
                 double bandFraction = weightedBandFraction();
                 quant = Math.sqrt(q * q / 12 * bandFraction / p1);
             }

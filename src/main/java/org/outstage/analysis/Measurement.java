@@ -4,6 +4,7 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Optional;
 import org.outstage.Require;
+import org.outstage.analysis.stage.StageDiagnosis;
 
 /**
  * The result of analysing one channel of one capture: every figure the command line, the report, the
@@ -39,12 +40,15 @@ import org.outstage.Require;
  * @param sineFit           the IEEE 1057 four-parameter fit of the fundamental (on the fit span, see docs/methods.md)
  * @param spectrum          a bounded log-frequency spectrum for plotting
  * @param waveform          a short excerpt of a few cycles for plotting
+ * @param stage             the output-stage diagnosis (residual, transfer curve, crossover, clipping) of the same
+ *                          span, or the reason it could not be made ({@code org.outstage.analysis.stage})
  */
 public record Measurement(String captureName, int channel, double sampleRateHz, String unit, long frameCount,
                           double durationSeconds, AnalysisSettings settings, Optional<String> notMeasuredReason,
                           Method method, Fundamental fundamental, double dcOffset, List<Harmonic> harmonics,
                           Ratio thd, Ratio thdR, ThdN thdN, double sinadDb, double enob, Floor floor, double totalRms,
-                          Optional<Power> powerWatts, SineFit sineFit, Spectrum spectrum, Waveform waveform) {
+                          Optional<Power> powerWatts, SineFit sineFit, Spectrum spectrum, Waveform waveform,
+                          StageDiagnosis stage) {
 
     public Measurement {
         Require.notNull("captureName", captureName);
@@ -64,6 +68,24 @@ public record Measurement(String captureName, int channel, double sampleRateHz, 
         Require.notNull("sineFit", sineFit);
         Require.notNull("spectrum", spectrum);
         Require.notNull("waveform", waveform);
+        Require.notNull("stage", stage);
+    }
+
+    /** The core figures without an output-stage diagnosis (yet). */
+    public Measurement(String captureName, int channel, double sampleRateHz, String unit, long frameCount,
+                       double durationSeconds, AnalysisSettings settings, Optional<String> notMeasuredReason,
+                       Method method, Fundamental fundamental, double dcOffset, List<Harmonic> harmonics,
+                       Ratio thd, Ratio thdR, ThdN thdN, double sinadDb, double enob, Floor floor, double totalRms,
+                       Optional<Power> powerWatts, SineFit sineFit, Spectrum spectrum, Waveform waveform) {
+        this(captureName, channel, sampleRateHz, unit, frameCount, durationSeconds, settings, notMeasuredReason, method, fundamental,
+                dcOffset, harmonics, thd, thdR, thdN, sinadDb, enob, floor, totalRms, powerWatts, sineFit, spectrum, waveform,
+                new StageDiagnosis.NotMeasured(notMeasuredReason.orElse("output stage not diagnosed")));
+    }
+
+    /** The same figures with the output-stage diagnosis {@code d}. */
+    public Measurement withStage(StageDiagnosis d) {
+        return new Measurement(captureName, channel, sampleRateHz, unit, frameCount, durationSeconds, settings, notMeasuredReason, method,
+                fundamental, dcOffset, harmonics, thd, thdR, thdN, sinadDb, enob, floor, totalRms, powerWatts, sineFit, spectrum, waveform, d);
     }
 
     /** Whether the figures are real (no "not measured" reason). */

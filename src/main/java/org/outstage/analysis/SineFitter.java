@@ -36,6 +36,14 @@ public final class SineFitter {
      * log-magnitude peak; at most the first 2^20 samples are used). DC and the first bin are ignored.
      */
     public static double coarseFrequency(double[] samples, double sampleRateHz) {
+        return coarseFrequency(samples, sampleRateHz, 0, Double.POSITIVE_INFINITY);
+    }
+
+    /**
+     * As {@link #coarseFrequency(double[], double)}, but the strongest line between {@code loHz} and
+     * {@code hiHz} (used with a frequency hint: the line nearest the hint, not the strongest overall).
+     */
+    static double coarseFrequency(double[] samples, double sampleRateHz, double loHz, double hiHz) {
         Require.positive("sampleRateHz", sampleRateHz);
         Require.atLeast("samples.length", samples.length, 8);
         int n = Math.min(samples.length, 1 << 20);
@@ -53,8 +61,11 @@ public final class SineFitter {
         mag[0] = Math.abs(buf[0]);
         for (int k = 1; k < bins; k++) mag[k] = Math.hypot(buf[2 * k], buf[2 * k + 1]);
         mag[bins] = (n % 2 == 0) ? Math.abs(buf[1]) : Math.hypot(buf[2 * bins], buf[1]);
-        int best = 2;
-        for (int k = 2; k <= bins - 1; k++) if (mag[k] > mag[best]) best = k;
+        int kLo = Math.max(2, (int) Math.floor(loHz * n / sampleRateHz));
+        int kHi = (int) Math.min(bins - 1, Math.ceil(Math.min(hiHz, sampleRateHz) * n / sampleRateHz));
+        if (kHi < kLo) { kLo = 2; kHi = bins - 1; }
+        int best = kLo;
+        for (int k = kLo; k <= kHi; k++) if (mag[k] > mag[best]) best = k;
         if (best < 2 || mag[best] == 0) return sampleRateHz / n;
         double a = Math.log(mag[best - 1] + 1e-300), b = Math.log(mag[best] + 1e-300), c = Math.log(mag[best + 1] + 1e-300);
         double den = a - 2 * b + c;

@@ -27,9 +27,19 @@ public final class Capture {
     private final double scale;
     private final List<String> warnings;
     private final SampleStore store;
+    private final java.util.OptionalInt bitDepth;
 
     public Capture(String name, double sampleRateHz, int channelCount, long frameCount,
                    SampleUnit unit, double scale, List<String> warnings, SampleStore store) {
+        this(name, sampleRateHz, channelCount, frameCount, unit, scale, warnings, store, java.util.OptionalInt.empty());
+    }
+
+    /**
+     * @param bitDepth resolution of integer PCM samples (the valid bits), empty for float samples and for scope CSV
+     */
+    public Capture(String name, double sampleRateHz, int channelCount, long frameCount,
+                   SampleUnit unit, double scale, List<String> warnings, SampleStore store, java.util.OptionalInt bitDepth) {
+        this.bitDepth = Objects.requireNonNull(bitDepth, "bitDepth");
         this.name = Objects.requireNonNull(name, "name");
         this.sampleRateHz = Require.positive("sampleRateHz", sampleRateHz);
         this.channelCount = Require.positive("channelCount", channelCount);
@@ -78,17 +88,19 @@ public final class Capture {
     public double scale() { return scale; }
     /** Reader warnings (for example a truncated data chunk); empty when the file was clean. */
     public List<String> warnings() { return warnings; }
+    /** Resolution of integer PCM samples in bits (the quantisation floor follows from it); empty for float WAV and scope CSV. */
+    public java.util.OptionalInt bitDepth() { return bitDepth; }
 
     /** The same samples multiplied by {@code factor} (on top of the present scale) and labelled {@code newUnit}. */
     public Capture calibrated(double factor, SampleUnit newUnit) {
-        return new Capture(name, sampleRateHz, channelCount, frameCount, newUnit, scale * Require.positive("calibration factor", factor), warnings, store);
+        return new Capture(name, sampleRateHz, channelCount, frameCount, newUnit, scale * Require.positive("calibration factor", factor), warnings, store, bitDepth);
     }
 
     /** The same capture with extra warnings appended. */
     public Capture withWarnings(List<String> more) {
         List<String> all = new java.util.ArrayList<>(warnings);
         all.addAll(more);
-        return new Capture(name, sampleRateHz, channelCount, frameCount, unit, scale, all, store);
+        return new Capture(name, sampleRateHz, channelCount, frameCount, unit, scale, all, store, bitDepth);
     }
 
     /** Opens a sequential reader of one channel (0-based), calibration applied. */

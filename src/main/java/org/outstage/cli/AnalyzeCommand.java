@@ -1,13 +1,173 @@
 package org.outstage.cli;
 
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.Writer;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.concurrent.Callable;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import org.outstage.analysis.Analyzer;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.stage.Residual;
+import org.outstage.analysis.stage.StageAnalyzer;
+import org.outstage.analysis.stage.StageSettings;
+import org.outstage.json.Json;
+import org.outstage.report.FigureTable;
+import org.outstage.report.MeasurementJson;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
 
-/** Placeholder replaced during integration by the real analyze command. */
-@Command(name = "analyze", description = "Measure distortion of captures (WAV or scope CSV).")
+/**
+ * {@code outstage analyze [options] FILE...}: distortion figures and output-stage diagnosis of captures.
+ * A readable table by default, {@code --json} (the contract in docs/cli.md) or {@code --csv}. Files are
+ * analysed in parallel; a file that cannot be read is reported on stderr (one line) and the others still
+ * are, with exit code 2 at the end.
+ */
+@Command(name = "analyze", mixinStandardHelpOptions = true, sortOptions = false,
+        description = "Measure THD, THD+N, harmonics, crossover and clipping of captures (WAV or scope CSV).")
 public final class AnalyzeCommand implements Callable<Integer> {
+    @Spec picocli.CommandLine.Model.CommandSpec spec;
+
+    @Mixin AnalyzeOptions options;
+
+    @Option(names = "--json", description = "Print JSON (keys documented in docs/cli.md).")
+    boolean json;
+
+    @Option(names = "--csv", description = "Print one CSV row per analysed channel.")
+    boolean csv;
+
+    @Option(names = "--residual", paramLabel = "FILE.csv",
+            description = "Write the residual (capture minus fitted fundamental and DC, band-limited) of the one analysed channel as CSV.")
+    Path residual;
+
+    @Option(names = "--residual-band", paramLabel = "LOW-HIGH",
+            description = "Band-limit the exported residual (zero-phase high-pass and low-pass), e.g. 20-80k. Default: unfiltered, so crossover spikes keep their edges.")
+    String residualBand;
+
+    @Parameters(paramLabel = "FILE", arity = "1..*", description = "Captures: WAV (PCM, float, extensible, RF64) or scope CSV.")
+    List<Path> files;
+
     @Override
-    public Integer call() {
-        throw new BadInputException("analyze: not wired yet in this build");
+    public Integer call() throws Exception {
+        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        if (json && csv) throw new BadInputException("--json and --csv exclude each other");
+        options.settings(); // validate options once, before any file is read
+        List<Outcome> outcomes = analyseAll(files, options, err);
+        int bad = 0;
+        List<Measuring.FileResult> good = new ArrayList<>();
+        for (Outcome o : outcomes) {
+            if (o.error != null) {
+                err.println("outstage: " + o.error);
+                bad++;
+            } else good.add(o.result);
+        }
+        err.flush();
+        if (residual != null) writeResidual(good);
+        if (json) {
+            List<Object> caps = new ArrayList<>();
+            for (Measuring.FileResult r : good)
+                for (Measurement m : r.measurements()) caps.add(MeasurementJson.capture(r.file(), m, r.capture().warnings()));
+            out.println(Json.pretty(Json.obj("captures", caps)));
+        } else if (csv) {
+            out.print(FigureTable.csvHeader());
+            for (Measuring.FileResult r : good)
+                for (Measurement m : r.measurements()) out.print(FigureTable.csvRow(r.file(), m));
+        } else {
+            for (Measuring.FileResult r : good) {
+                for (String w : r.capture().warnings()) err.println("outstage: warning: " + r.file() + ": " + w);
+                for (Measurement m : r.measurements()) out.print(FigureTable.text(r.file(), m));
+            }
+        }
+        out.flush();
+        return bad > 0 ? OutstageCommand.EXIT_BAD_INPUT : OutstageCommand.EXIT_OK;
+    }
+
+    /** The result of one file: figures or a one-line error. */
+    record Outcome(Measuring.FileResult result, String error) {}
+
+    /** Analyses files in parallel (as many threads as cores), keeping their order. */
+    static List<Outcome> analyseAll(List<Path> files, AnalyzeOptions options, PrintWriter err) throws InterruptedException {
+        int threads = Math.max(1, Math.min(files.size(), Runtime.getRuntime().availableProcessors()));
+        ExecutorService pool = Executors.newFixedThreadPool(threads, r -> {
+            Thread t = new Thread(r, "analyze");
+            t.setDaemon(true);
+            return t;
+        });
+        try (Progress progress = new Progress(err)) {
+            List<Future<Outcome>> futures = new ArrayList<>();
+            int i = 0;
+            for (Path f : files) {
+                int index = ++i;
+                futures.add(pool.submit(() -> {
+                    progress.step("analysing " + f + " (" + index + " of " + files.size() + ")");
+                    try {
+                        return new Outcome(Measuring.measure(f, options), null);
+                    } catch (BadInputException | IllegalArgumentException e) {
+                        return new Outcome(null, e.getMessage());
+                    } catch (java.io.UncheckedIOException e) {
+                        return new Outcome(null, f + ": " + e.getCause().getMessage());
+                    }
+                }));
+            }
+            List<Outcome> outcomes = new ArrayList<>();
+            for (Future<Outcome> fu : futures) {
+                try {
+                    outcomes.add(fu.get());
+                } catch (ExecutionException e) {
+                    throw new IllegalStateException(e.getCause());
+                }
+            }
+            return outcomes;
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+
+    private void writeResidual(List<Measuring.FileResult> good) throws IOException {
+        List<Measurement> all = new ArrayList<>();
+        Measuring.FileResult owner = null;
+        for (Measuring.FileResult r : good) {
+            all.addAll(r.measurements());
+            if (!r.measurements().isEmpty()) owner = r;
+        }
+        if (all.size() != 1)
+            throw new BadInputException("--residual needs exactly one analysed channel (got " + all.size() + "; pick one with --channel)");
+        Measurement m = all.get(0);
+        if (!m.measured()) throw new BadInputException(owner.file() + ": no residual: " + m.notMeasuredReason().get());
+        double[] samples = owner.capture().readChannel(m.channel() - 1, Analyzer.spanFrames(owner.capture()));
+        StageSettings ss = StageSettings.defaults().withUnit(m.unit());
+        if (residualBand != null) {
+            org.outstage.analysis.Band b;
+            try {
+                b = org.outstage.analysis.Band.parse(residualBand);
+            } catch (IllegalArgumentException e) {
+                throw new BadInputException("--residual-band: " + e.getMessage());
+            }
+            double hi = b.toNyquist() || b.highHz() >= m.sampleRateHz() / 2 ? 0 : b.highHz();
+            ss = ss.withResidualBand(b.lowHz(), hi);
+        }
+        Residual res = StageAnalyzer.residual(samples, m.sampleRateHz(), m.sineFit(), ss);
+        Path target = residual.toAbsolutePath();
+        Path dir = target.getParent();
+        if (dir != null) Files.createDirectories(dir);
+        Path tmp = Files.createTempFile(dir, target.getFileName().toString(), ".part");
+        try (Writer w = Files.newBufferedWriter(tmp)) {
+            res.writeCsv(w, samples, m.sineFit());
+        } catch (IOException | RuntimeException e) {
+            Files.deleteIfExists(tmp);
+            throw e;
+        }
+        Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
     }
 }

@@ -1,0 +1,155 @@
+package org.outstage.analysis.stage;
+
+import java.util.Arrays;
+import java.util.Locale;
+import java.util.Optional;
+import org.jtransforms.fft.DoubleFFT_1D;
+import org.outstage.Require;
+import org.outstage.analysis.SineFit;
+
+/**
+ * Is this record a usable single sine? Returns a reason when it is not, so the caller shows a clear sentence
+ * instead of figures. The rules, in order (each threshold is our own choice, documented in docs/diagnosis.md):
+ * <ol>
+ *   <li>fewer than 16 samples, or a sample that is not a finite number;</li>
+ *   <li><b>silence</b>: no sample exceeds 1e-7 in magnitude (−140 dB re one unit of the capture);</li>
+ *   <li><b>DC only</b>: the AC RMS is below 1e-4 of |DC|;</li>
+ *   <li><b>shorter than a cycle</b>: the fitted tone spans less than one period of the record (IEEE Std 1057
+ *       notes that sine fitting fails on a fraction of a period), or the fit did not converge;</li>
+ *   <li><b>square wave</b>: at least 95 % of the samples lie within 5 % of the peak-to-peak range of the two
+ *       plateau levels (medians of the upper and lower halves) and each plateau holds at least 20 %. A sine
+ *       spends only 29 % of its time within 5 % of its extremes; a sine clipped so hard that 95 % of it sits on
+ *       the rails (clip level below about 8 % of the drive) is treated as a square: no stage figure means
+ *       anything there;</li>
+ *   <li><b>no dominant tone</b>: the strongest line and its harmonics hold under half of the AC power
+ *       (Hann window, ±6 bins per line) — noise, or a tone buried in it;</li>
+ *   <li><b>two tones</b>: a line that is not a harmonic of the strongest one reaches −20 dB (10 %) of it.
+ *       Twin-tone and SMPTE-type intermodulation tests put their second tone at 0 dB or −12 dB; hum and spurs
+ *       on a working bench sit below −40 dB, so −20 dB separates them with margin.</li>
+ * </ol>
+ * At most the first 2^17 samples are used for the spectral rules and 65 536 evenly spread samples for the
+ * plateau rule. Pure and thread-safe.
+ */
+public final class SignalCheck {
+    static final double SILENCE = 1e-7;
+    private static final int MAX_FFT = 1 << 17;
+
+    private SignalCheck() {}
+
+    /** All rules, including the cycle-count rule that needs the fit. */
+    public static Optional<String> check(double[] samples, double sampleRateHz, SineFit fit) {
+        Require.notNull("fit", fit);
+        Optional<String> basic = level(samples, sampleRateHz);
+        if (basic.isPresent()) return basic;
+        double cycles = fit.frequencyHz() * samples.length / sampleRateHz;
+        if (!(cycles >= 1))
+            return Optional.of(String.format(Locale.ROOT, "record too short: it spans %.2f cycles of the fitted %.6g Hz tone; at least one full cycle is needed",
+                    cycles, fit.frequencyHz()));
+        if (!fit.converged()) return Optional.of("the sine fit did not settle on one frequency: not a steady single tone");
+        return shape(samples, sampleRateHz);
+    }
+
+    /**
+     * Whether a reason given by this class says the record holds no single dominant tone (two tones, or a tone
+     * buried in noise): then no distortion figure describes the amplifier, not only the stage figures.
+     */
+    public static boolean isNoSingleTone(String reason) {
+        return reason.startsWith(TWO_TONES) || reason.startsWith(NO_DOMINANT_TONE);
+    }
+
+    static final String TWO_TONES = "two tones";
+    static final String NO_DOMINANT_TONE = "no dominant tone";
+
+    /** The rules that need no fit (use before fitting: a fit of silence or of a square is meaningless). */
+    public static Optional<String> check(double[] samples, double sampleRateHz) {
+        Optional<String> basic = level(samples, sampleRateHz);
+        return basic.isPresent() ? basic : shape(samples, sampleRateHz);
+    }
+
+    private static Optional<String> level(double[] x, double fs) {
+        Require.notNull("samples", x);
+        Require.positive("sampleRateHz", fs);
+        if (x.length < 16) return Optional.of("record too short: " + x.length + " samples; at least 16 and one full cycle are needed");
+        double sum = 0, maxAbs = 0;
+        for (int i = 0; i < x.length; i++) {
+            if (!Double.isFinite(x[i])) return Optional.of("sample " + i + " is not a finite number (" + x[i] + ")");
+            sum += x[i];
+            maxAbs = Math.max(maxAbs, Math.abs(x[i]));
+        }
+        if (maxAbs <= SILENCE) return Optional.of("silence: no sample exceeds 1e-7 in magnitude");
+        double mean = sum / x.length, ss = 0;
+        for (double v : x) ss += (v - mean) * (v - mean);
+        double acRms = Math.sqrt(ss / x.length);
+        if (acRms < 1e-4 * Math.abs(mean))
+            return Optional.of(String.format(Locale.ROOT, "DC only: the record sits at %.6g with an AC RMS of %.3g (below 0.01 %% of the DC)", mean, acRms));
+        return Optional.empty();
+    }
+
+    private static Optional<String> shape(double[] x, double fs) {
+        // plateau rule
+        int n = x.length;
+        int take = Math.min(n, 65536);
+        double[] sub = new double[take];
+        for (int i = 0; i < take; i++) sub[i] = x[(int) ((long) i * n / take)];
+        Arrays.sort(sub);
+        double lo = sub[0], hi = sub[take - 1], range = hi - lo;
+        double mid = 0.5 * (lo + hi);
+        int split = Arrays.binarySearch(sub, mid);
+        if (split < 0) split = -split - 1;
+        if (split > 0 && split < take) {
+            double lowLevel = sub[split / 2], highLevel = sub[split + (take - split) / 2];
+            int nearLow = 0, nearHigh = 0;
+            for (double v : sub) {
+                if (Math.abs(v - lowLevel) <= 0.05 * range) nearLow++;
+                else if (Math.abs(v - highLevel) <= 0.05 * range) nearHigh++;
+            }
+            if (nearLow + nearHigh >= 0.95 * take && nearLow >= 0.2 * take && nearHigh >= 0.2 * take)
+                return Optional.of(String.format(Locale.ROOT,
+                        "square wave: %.1f %% of the samples sit on two levels (%.6g and %.6g); a sine is needed for stage figures",
+                        100.0 * (nearLow + nearHigh) / take, lowLevel, highLevel));
+        }
+        // spectral rules
+        int m = Integer.highestOneBit(Math.min(n, MAX_FFT));
+        if (m < 64) return Optional.empty();
+        double mean = 0;
+        for (int i = 0; i < m; i++) mean += x[i];
+        mean /= m;
+        double[] buf = new double[m];
+        for (int i = 0; i < m; i++) buf[i] = (x[i] - mean) * (0.5 - 0.5 * Math.cos(2 * Math.PI * i / m));
+        new DoubleFFT_1D(m).realForward(buf);
+        int half = m / 2;
+        double[] p = new double[half];
+        for (int k = 1; k < half; k++) p[k] = buf[2 * k] * buf[2 * k] + buf[2 * k + 1] * buf[2 * k + 1];
+        int guard = 6;
+        int k0 = guard + 1;
+        for (int k = guard + 1; k < half; k++) if (p[k] > p[k0]) k0 = k;
+        if (k0 < 3 * guard) return Optional.empty(); // too few cycles in the spectral window to separate lines
+        boolean[] line = new boolean[half];
+        for (int k = 0; k <= guard; k++) line[k] = true;
+        // harmonics, folded back when they alias past half the sample rate (synthetic or poorly filtered records)
+        for (int hN = 1; (long) hN * k0 < 8L * half && hN <= 200; hN++) {
+            int c = (int) (((long) hN * k0) % m);
+            if (c > half) c = m - c;
+            int w = guard + Math.min(hN, 20);
+            for (int k = Math.max(0, c - w); k <= Math.min(half - 1, c + w); k++) line[k] = true;
+        }
+        double total = 0, inLines = 0;
+        int k2 = -1;
+        for (int k = guard + 1; k < half; k++) {
+            total += p[k];
+            if (line[k]) inLines += p[k];
+            else if (k2 < 0 || p[k] > p[k2]) k2 = k;
+        }
+        double f0 = (double) k0 * fs / m;
+        if (inLines < 0.5 * total)
+            return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
+                    f0, 100 * inLines / total));
+        if (k2 > 0) {
+            double ratio = Math.sqrt(p[k2] / p[k0]);
+            if (ratio >= 0.1)
+                return Optional.of(String.format(Locale.ROOT, TWO_TONES + ": a line at %.4g Hz, %.1f dB relative to the %.4g Hz tone, is not one of its harmonics",
+                        (double) k2 * fs / m, 20 * Math.log10(ratio), f0));
+        }
+        return Optional.empty();
+    }
+}

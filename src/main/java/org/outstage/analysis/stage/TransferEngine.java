@@ -1,0 +1,421 @@
+package org.outstage.analysis.stage;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Optional;
+import java.util.OptionalDouble;
+import org.outstage.analysis.TransferCurve;
+
+/**
+ * Binning, smoothing, line, hysteresis, clipping and crossover metrics on one pair of arrays:
+ * {@code x} = ideal output (zero mean, spanning about ±peak) and {@code y} = measured output. Package-private
+ * workhorse of {@link StageAnalyzer}; stateless.
+ */
+final class TransferEngine {
+    private TransferEngine() {}
+
+    /** What the engine returns to the analyzer. */
+    record Result(MeasuredTransfer transfer, ClippingMetrics clipping, CrossoverMetrics crossover) {}
+
+    /** Local quadratic fit result: value a and slope b at x0 with their variances. */
+    record Local(double value, double slope, double valueVar, double slopeVar) {}
+
+    /** Per-side clipping result plus the ideal level below which the curve is unaffected by it. */
+    private record SideResult(Optional<ClipSide> side, double unaffectedIdealVolts) {}
+
+    static Result analyze(double[] x, boolean[] rising, double[] y, double peak, double sampleRateHz,
+                          StageSettings s, boolean fromReference, double nearZeroResidualShare, double nearZeroTimeShare,
+                          String unit) {
+        int nb = s.binCount();
+        int n = x.length;
+        double width = 2 * peak / nb;
+        double scale = nb / (2 * peak);
+        // accumulators: index dir*nb + bin; x centred on the bin centre, d = y - x
+        long[] cnt = new long[2 * nb];
+        double[] sx = new double[2 * nb], sd = new double[2 * nb], sxx = new double[2 * nb], sxd = new double[2 * nb],
+                sdd = new double[2 * nb];
+        for (int i = 0; i < n; i++) {
+            double xi = x[i];
+            int b = (int) ((xi + peak) * scale);
+            if (b < 0) b = 0;
+            else if (b >= nb) b = nb - 1;
+            double xc = xi - (-peak + (b + 0.5) * width);
+            double d = y[i] - xi;
+            int k = rising[i] ? b : nb + b;
+            cnt[k]++;
+            sx[k] += xc;
+            sd[k] += d;
+            sxx[k] += xc * xc;
+            sxd[k] += xc * d;
+            sdd[k] += d * d;
+        }
+        // direction-separated statistics (for noise and hysteresis)
+        BinStat[] dir = new BinStat[2 * nb];
+        for (int k = 0; k < 2 * nb; k++)
+            dir[k] = BinStat.of(cnt[k], sx[k], sd[k], sxx[k], sxd[k], sdd[k], -peak + ((k % nb) + 0.5) * width);
+        List<BinStat> kept = new ArrayList<>();
+        for (int b = 0; b < nb; b++) {
+            int f = nb + b;
+            BinStat c = BinStat.of(cnt[b] + cnt[f], sx[b] + sx[f], sd[b] + sd[f], sxx[b] + sxx[f], sxd[b] + sxd[f],
+                    sdd[b] + sdd[f], -peak + (b + 0.5) * width);
+            if (c.n >= 3) kept.add(c);
+        }
+        if (kept.size() < 4 * s.smoothingHalfWidthBins() + 4)
+            throw new IllegalArgumentException("only " + kept.size() + " of " + nb
+                    + " transfer-curve bins hold 3 or more samples: the record is too short or its tone is locked to the sample rate");
+        int m = kept.size();
+        double[] xs = new double[m], ds = new double[m], se = new double[m];
+        int[] counts = new int[m];
+        double seFloor = 1e-12 * peak;
+        for (int i = 0; i < m; i++) {
+            BinStat c = kept.get(i);
+            xs[i] = c.xMean;
+            ds[i] = c.dMean;
+            se[i] = Math.max(c.seMean, seFloor);
+            counts[i] = (int) c.n;
+        }
+        // strictly increasing guard (degenerate equal means are merged away by nudging)
+        for (int i = 1; i < m; i++) if (!(xs[i] > xs[i - 1])) xs[i] = Math.nextUp(xs[i - 1]);
+        double noise = medianScatter(dir);
+        double[] w = new double[m];
+        for (int i = 0; i < m; i++) w[i] = 1 / (se[i] * se[i]);
+
+        int h = s.smoothingHalfWidthBins();
+        double[] gain = new double[m], gainVar = new double[m];
+        for (int i = 0; i < m; i++) {
+            int lo = Math.max(0, Math.min(i - h, m - 2 * h - 1));
+            Local l = local(xs, ds, w, lo, lo + 2 * h + 1, xs[i]);
+            gain[i] = 1 + l.slope;
+            gainVar[i] = l.slopeVar;
+        }
+        double[] ys = new double[m];
+        for (int i = 0; i < m; i++) ys[i] = xs[i] + ds[i];
+
+        double centralGain = lineFit(xs, ys, counts, -0.5 * peak, 0.5 * peak)[0];
+
+        // clipping
+        double noiseTol = Math.max(4 * noise, 1e-3 * peak);
+        SideResult pos = clipSide(+1, x, y, xs, ys, gain, centralGain, peak, width, h, noiseTol, sampleRateHz);
+        SideResult neg = clipSide(-1, x, y, xs, ys, gain, centralGain, peak, width, h, noiseTol, sampleRateHz);
+        ClippingMetrics clipping = clippingMetrics(pos, neg, noiseTol);
+
+        // line over the unclipped range, outer gain
+        double upPos = Math.min(0.9 * peak, 0.97 * pos.unaffectedIdealVolts);
+        double upNeg = Math.min(0.9 * peak, 0.97 * neg.unaffectedIdealVolts);
+        boolean outerClipped = upPos < 0.75 * peak || upNeg < 0.75 * peak;
+        upPos = Math.max(upPos, 0.6 * peak);
+        upNeg = Math.max(upNeg, 0.6 * peak);
+        double[] line = lineFit(xs, ys, counts, -Math.min(peak, neg.unaffectedIdealVolts), Math.min(peak, pos.unaffectedIdealVolts));
+        Local p9 = localAt(xs, ds, w, h, upPos), p5 = localAt(xs, ds, w, h, 0.5 * peak);
+        Local n5 = localAt(xs, ds, w, h, -0.5 * peak), n9 = localAt(xs, ds, w, h, -upNeg);
+        double span = (upPos - 0.5 * peak) + (upNeg - 0.5 * peak);
+        double outer = ((upPos + p9.value) - (0.5 * peak + p5.value) + (-0.5 * peak + n5.value) - (-upNeg + n9.value)) / span;
+        double outerVar = (p9.valueVar + p5.valueVar + n5.valueVar + n9.valueVar) / (span * span);
+
+        double[] dev = new double[m], ng = new double[m], ngSe = new double[m];
+        for (int i = 0; i < m; i++) {
+            dev[i] = ys[i] - (line[0] * xs[i] + line[1]);
+            ng[i] = gain[i] / outer;
+            ngSe[i] = Math.sqrt(gainVar[i] / (outer * outer) + ng[i] * ng[i] * outerVar / (outer * outer));
+        }
+        Hysteresis hyst = hysteresis(dir, nb, peak);
+        TransferCurve curve = new TransferCurve(xs, ys, gain, unit);
+        MeasuredTransfer transfer = new MeasuredTransfer(curve, counts, se, dev, ng, ngSe, peak, line[0], line[1], outer,
+                noise, hyst, fromReference);
+
+        // crossover
+        Local z = localAt(xs, ds, w, h, 0);
+        double g0 = 1 + z.slope;
+        double r = g0 / outer;
+        double rSe = Math.sqrt(z.slopeVar / (outer * outer) + r * r * outerVar / (outer * outer));
+        double notchWidth = notchWidth(xs, ng, r, s.notchGainTolerance());
+        double depth = 0;
+        for (int i = 0; i < m; i++) if (Math.abs(xs[i]) < 0.5 * peak) depth = Math.max(depth, Math.abs(dev[i]));
+        CrossoverMetrics crossover = verdict(r, rSe, g0, outer, notchWidth, depth, peak, nearZeroResidualShare,
+                nearZeroTimeShare, hyst, outerClipped, s);
+        return new Result(transfer, clipping, crossover);
+    }
+
+    // ---------------------------------------------------------------- bins
+
+    /** Statistics of one bin: means, and the standard error of the mean after removing the in-bin line. */
+    static final class BinStat {
+        final long n;
+        final double xMean, dMean, seMean, scatter, inBinSlope;
+
+        private BinStat(long n, double xMean, double dMean, double seMean, double scatter, double inBinSlope) {
+            this.n = n; this.xMean = xMean; this.dMean = dMean; this.seMean = seMean; this.scatter = scatter; this.inBinSlope = inBinSlope;
+        }
+
+        static BinStat of(long n, double sx, double sd, double sxx, double sxd, double sdd, double centre) {
+            if (n < 3) return new BinStat(n, centre, 0, Double.NaN, Double.NaN, 0);
+            double sxxC = sxx - sx * sx / n, sxdC = sxd - sx * sd / n, sddC = sdd - sd * sd / n;
+            double rss;
+            long dof;
+            double slope = 0;
+            if (sxxC > 1e-300 * n) {
+                slope = sxdC / sxxC;
+                rss = sddC - sxdC * slope;
+                dof = n - 2;
+            } else {
+                rss = sddC;
+                dof = n - 1;
+            }
+            double var = Math.max(rss, 0) / dof;
+            double sc = Math.sqrt(var);
+            return new BinStat(n, centre + sx / n, sd / n, sc / Math.sqrt(n), sc, slope);
+        }
+
+        /** Mean deviation evaluated at ideal {@code at} using the in-bin slope. */
+        double dAt(double at) { return dMean + inBinSlope * (at - xMean); }
+    }
+
+    private static double medianScatter(BinStat[] dir) {
+        double[] v = Arrays.stream(dir).filter(b -> b.n >= 3 && Double.isFinite(b.scatter)).mapToDouble(b -> b.scatter).sorted().toArray();
+        if (v.length == 0) return 0;
+        return v.length % 2 == 1 ? v[v.length / 2] : 0.5 * (v[v.length / 2 - 1] + v[v.length / 2]);
+    }
+
+    // ---------------------------------------------------------------- local fits
+
+    /**
+     * Weighted cubic fit of d over points [from, to) in t = x − x0; value and slope at x0 with variances.
+     * A cubic (rather than the quadratic of the classic Savitzky–Golay smoother) keeps the slope unbiased
+     * when the gain itself curves (a gm-doubling bump): on a symmetric window the slope of a degree-3 fit
+     * is exact for gain curves up to quadratic in x.
+     */
+    static Local local(double[] xs, double[] ds, double[] w, int from, int to, double x0) {
+        double sc = Math.max(Math.abs(xs[to - 1] - x0), Math.abs(xs[from] - x0));
+        if (!(sc > 0)) sc = 1;
+        final int p = 4;
+        double[] mom = new double[2 * p - 1];
+        double[] rhs = new double[p];
+        for (int i = from; i < to; i++) {
+            double t = (xs[i] - x0) / sc, wi = w[i], tk = wi;
+            for (int k = 0; k < 2 * p - 1; k++) {
+                if (k < p) rhs[k] += tk * ds[i];
+                mom[k] += tk;
+                tk *= t;
+            }
+        }
+        double[][] m = new double[p][2 * p];
+        for (int r = 0; r < p; r++) {
+            for (int c = 0; c < p; c++) m[r][c] = mom[r + c];
+            m[r][p + r] = 1;
+        }
+        // Gauss-Jordan with partial pivoting: [M | I] -> [I | M^-1]
+        for (int c = 0; c < p; c++) {
+            int piv = c;
+            for (int r = c + 1; r < p; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
+            double[] tmp = m[c]; m[c] = m[piv]; m[piv] = tmp;
+            double d = m[c][c];
+            for (int k = 0; k < 2 * p; k++) m[c][k] /= d;
+            for (int r = 0; r < p; r++) {
+                if (r == c) continue;
+                double f = m[r][c];
+                if (f != 0) for (int k = 0; k < 2 * p; k++) m[r][k] -= f * m[c][k];
+            }
+        }
+        double a = 0, b = 0;
+        for (int k = 0; k < p; k++) { a += m[0][p + k] * rhs[k]; b += m[1][p + k] * rhs[k]; }
+        return new Local(a, b / sc, Math.max(m[0][p], 0), Math.max(m[1][p + 1], 0) / (sc * sc));
+    }
+
+    /** Local fit on the 2h+1 kept bins nearest to {@code x0}. */
+    static Local localAt(double[] xs, double[] ds, double[] w, int h, double x0) {
+        int m = xs.length;
+        int j = Arrays.binarySearch(xs, x0);
+        if (j < 0) j = -j - 1;
+        if (j > 0 && (j == m || Math.abs(xs[j - 1] - x0) < Math.abs(xs[j] - x0))) j--;
+        int lo = Math.max(0, Math.min(j - h, m - 2 * h - 1));
+        return local(xs, ds, w, lo, lo + 2 * h + 1, x0);
+    }
+
+    /** Count-weighted least-squares line y = a·x + b over bins with lo ≤ x ≤ hi; returns {a, b}. */
+    static double[] lineFit(double[] xs, double[] ys, int[] counts, double lo, double hi) {
+        double sw = 0, sx = 0, sy = 0;
+        for (int i = 0; i < xs.length; i++) if (xs[i] >= lo && xs[i] <= hi) { sw += counts[i]; sx += counts[i] * xs[i]; sy += counts[i] * ys[i]; }
+        if (sw == 0) return new double[] {1, 0};
+        double mx = sx / sw, my = sy / sw, sxx = 0, sxy = 0;
+        for (int i = 0; i < xs.length; i++)
+            if (xs[i] >= lo && xs[i] <= hi) { double dx = xs[i] - mx; sxx += counts[i] * dx * dx; sxy += counts[i] * dx * (ys[i] - my); }
+        double a = sxx > 0 ? sxy / sxx : 1;
+        return new double[] {a, my - a * mx};
+    }
+
+    // ---------------------------------------------------------------- hysteresis
+
+    private static Hysteresis hysteresis(BinStat[] dir, int nb, double peak) {
+        double chi = 0, sumSq = 0, maxDiff = 0, maxAt = 0;
+        int k = 0;
+        for (int b = 0; b < nb; b++) {
+            BinStat r = dir[b], f = dir[nb + b];
+            if (r.n < 3 || f.n < 3) continue;
+            double at = (r.xMean * r.n + f.xMean * f.n) / (r.n + f.n);
+            double diff = r.dAt(at) - f.dAt(at);
+            double var = r.seMean * r.seMean + f.seMean * f.seMean + 2 * Math.pow(1e-12 * peak, 2);
+            chi += diff * diff / var;
+            sumSq += diff * diff;
+            if (Math.abs(diff) > maxDiff) { maxDiff = Math.abs(diff); maxAt = at; }
+            k++;
+        }
+        if (k == 0) return new Hysteresis(false, 0, 0, 0, 0, 0);
+        double rms = Math.sqrt(sumSq / k);
+        double zScore = (chi - k) / Math.sqrt(2.0 * k);
+        boolean detected = zScore > 5 && rms > 1e-4 * peak;
+        return new Hysteresis(detected, k, chi / k, rms, maxDiff, maxAt);
+    }
+
+    // ---------------------------------------------------------------- clipping
+
+    private static SideResult clipSide(int sgn, double[] x, double[] y, double[] xs, double[] ys, double[] gain,
+                                       double centralGain, double peak, double width, int h, double tol, double fs) {
+        int n = y.length;
+        double top = Double.NEGATIVE_INFINITY;
+        for (double v : y) top = Math.max(top, sgn * v);
+        double thr = top - tol;
+        double xMin = Double.POSITIVE_INFINITY, xMax = Double.NEGATIVE_INFINITY, sum = 0;
+        int count = 0;
+        for (int i = 0; i < n; i++) {
+            if (sgn * y[i] >= thr) {
+                count++;
+                sum += sgn * y[i];
+                double xi = sgn * x[i];
+                if (xi < xMin) xMin = xi;
+                if (xi > xMax) xMax = xi;
+            }
+        }
+        if (count < 3 || !(xMax - xMin > 5 * tol)) return new SideResult(Optional.empty(), Double.POSITIVE_INFINITY);
+        double level = sum / count;
+        // runs on the flat top, merging gaps of up to 2 samples
+        List<int[]> runs = new ArrayList<>();
+        int start = -1, last = -10;
+        for (int i = 0; i < n; i++) {
+            if (sgn * y[i] >= thr) {
+                if (start < 0) start = i;
+                else if (i - last > 3) { runs.add(new int[] {start, last}); start = i; }
+                last = i;
+            }
+        }
+        if (start >= 0) runs.add(new int[] {start, last});
+        double onsetSum = 0, recSum = 0;
+        int onsetN = 0, recN = 0;
+        for (int[] run : runs) {
+            int a = run[0], e = run[1];
+            if (a == 0 || e == n - 1) continue;
+            onsetSum += 0.5 * (sgn * x[a - 1] + sgn * x[a]);
+            onsetN++;
+            // reference instant: midway between the crossings of 20 % of the level before and after the flat top
+            // (a memoryless stage is symmetric about the drive's peak; the fitted ideal is not used because a
+            // sticking rail also shifts the fitted fundamental)
+            double halfLevel = 0.2 * level;
+            int up = a - 1;
+            while (up > 0 && sgn * y[up] >= halfLevel) up--;
+            int down = e + 1;
+            while (down < n - 1 && sgn * y[down] >= halfLevel) down++;
+            if (up <= 0 || down >= n - 1 || sgn * y[up + 1] < halfLevel || sgn * y[down - 1] < halfLevel) continue;
+            double tUp = up + (halfLevel - sgn * y[up]) / (sgn * y[up + 1] - sgn * y[up]);
+            double tDown = down - 1 + (sgn * y[down - 1] - halfLevel) / (sgn * y[down - 1] - sgn * y[down]);
+            double tpf = 0.5 * (tUp + tDown);
+            double entry = a - 0.5, exit = e + 0.5;
+            recSum += (exit - tpf) - (tpf - entry);
+            recN++;
+        }
+        double onset = onsetN > 0 ? onsetSum / onsetN : xMin;
+        double recovery = recN > 0 ? Math.max(0, recSum / recN) / fs : 0;
+        // knee: walk inwards from the extreme bin until the gain is back above 90 % of the central gain
+        int m = xs.length;
+        int i = sgn > 0 ? m - 1 : 0;
+        int step = sgn > 0 ? -1 : 1;
+        while (i >= 0 && i < m && gain[i] < 0.9 * centralGain && sgn * xs[i] > 0) i += step;
+        i = Math.max(0, Math.min(m - 1, i));
+        double kneeDepth = Math.max(0, sgn * level - sgn * ys[i]);
+        double kneeStartIdeal = Math.max(0, sgn * xs[i]);
+        ClipSide.Knee knee = kneeDepth <= Math.max(0.05 * Math.abs(level), (h + 2) * width * Math.abs(centralGain))
+                ? ClipSide.Knee.HARD : ClipSide.Knee.SOFT;
+        ClipSide side = new ClipSide(level * sgn, (double) count / n, onset, recovery, knee, kneeDepth, runs.size());
+        return new SideResult(Optional.of(side), Math.min(onset, kneeStartIdeal));
+    }
+
+    private static ClippingMetrics clippingMetrics(SideResult pos, SideResult neg, double tol) {
+        Optional<ClipSide> p = pos.side, q = neg.side;
+        OptionalDouble asym = OptionalDouble.empty();
+        ClippingMetrics.FirstSide first = ClippingMetrics.FirstSide.NONE;
+        if (p.isPresent() && q.isPresent()) {
+            double lp = p.get().levelVolts(), ln = Math.abs(q.get().levelVolts());
+            asym = OptionalDouble.of(100 * (lp - ln) / ((lp + ln) / 2));
+            double op = p.get().onsetIdealVolts(), on = q.get().onsetIdealVolts();
+            if (Math.abs(op - on) <= 0.01 * Math.max(op, on)) first = ClippingMetrics.FirstSide.BOTH;
+            else first = op < on ? ClippingMetrics.FirstSide.POSITIVE : ClippingMetrics.FirstSide.NEGATIVE;
+        } else if (p.isPresent()) first = ClippingMetrics.FirstSide.POSITIVE;
+        else if (q.isPresent()) first = ClippingMetrics.FirstSide.NEGATIVE;
+        return new ClippingMetrics(p.isPresent() || q.isPresent(), p, q, asym, first, tol);
+    }
+
+    // ---------------------------------------------------------------- crossover
+
+    private static double notchWidth(double[] xs, double[] ng, double r, double tol) {
+        if (Math.abs(r - 1) <= tol) return 0;
+        int m = xs.length;
+        int j = Arrays.binarySearch(xs, 0.0);
+        if (j < 0) j = -j - 1;
+        j = Math.min(j, m - 1);
+        int lo = j, hi = j;
+        while (lo - 1 >= 0 && Math.abs(ng[lo - 1] - 1) > tol) lo--;
+        while (hi + 1 < m && Math.abs(ng[hi + 1] - 1) > tol) hi++;
+        // edges halfway to the first bin back inside the tolerance
+        double left = lo > 0 ? 0.5 * (xs[lo] + xs[lo - 1]) : xs[lo];
+        double right = hi < m - 1 ? 0.5 * (xs[hi] + xs[hi + 1]) : xs[hi];
+        return right - left;
+    }
+
+    private static CrossoverMetrics verdict(double r, double rSe, double g0, double outer, double notchWidth, double depth,
+                                            double peak, double nzShare, double nzTime, Hysteresis hyst, boolean outerClipped,
+                                            StageSettings s) {
+        double band = s.nearOptimalBand(), k = s.verdictSigmas();
+        double lo = 1 - band, hi = 1 + band;
+        double pUnder = phi((lo - r), rSe), pOver = phi((r - hi), rSe);
+        double pNear = Math.max(0, 1 - pUnder - pOver);
+        BiasVerdict v;
+        double conf;
+        String why;
+        String rTxt = String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.4f of the large-signal gain", r, rSe);
+        if (hyst.detected()) {
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = "rising and falling halves of the transfer curve differ (memory): the curve is not static, " + rTxt;
+        } else if (outerClipped) {
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = "clipping reaches into the outer swing used as the large-signal reference; lower the level, " + rTxt;
+        } else if (r + k * rSe < lo) {
+            v = BiasVerdict.UNDERBIASED; conf = pUnder;
+            why = rTxt + ": the gain dips at the crossing (notch); raise the quiescent current";
+        } else if (r - k * rSe > hi) {
+            v = BiasVerdict.OVERBIASED; conf = pOver;
+            why = rTxt + ": the gain rises at the crossing (gm-doubling); lower the quiescent current";
+        } else if (Math.abs(r - 1) + k * rSe <= band) {
+            v = BiasVerdict.NEAR_OPTIMAL; conf = pNear;
+            why = rTxt + ": within ±" + String.format(java.util.Locale.ROOT, "%.2f", band * 100) + " % of flat";
+        } else {
+            v = BiasVerdict.UNCLEAR; conf = Math.max(pNear, Math.max(pUnder, pOver));
+            why = rTxt + ": the uncertainty straddles a threshold; average more cycles or reduce the noise";
+        }
+        return new CrossoverMetrics(r, rSe, g0, outer, notchWidth, depth, depth / peak, nzShare, nzTime, v, conf, why);
+    }
+
+    /** P(Z ≤ z/σ) for a standard normal Z; a step when σ = 0. */
+    static double phi(double z, double sigma) {
+        if (!(sigma > 0)) return z > 0 ? 1 : (z < 0 ? 0 : 0.5);
+        return 0.5 * erfc(-z / (sigma * Math.sqrt(2)));
+    }
+
+    /** Complementary error function (Numerical Recipes 3rd ed. §6.2 Chebyshev fit, |error| &lt; 1.2e-7). */
+    static double erfc(double x) {
+        double z = Math.abs(x);
+        double t = 1 / (1 + 0.5 * z);
+        double r = t * Math.exp(-z * z - 1.26551223 + t * (1.00002368 + t * (0.37409196 + t * (0.09678418
+                + t * (-0.18628806 + t * (0.27886807 + t * (-1.13520398 + t * (1.48851587
+                + t * (-0.82215223 + t * 0.17087277)))))))));
+        return x >= 0 ? r : 2 - r;
+    }
+}

@@ -1,0 +1,57 @@
+package org.outstage.capture;
+
+import java.nio.ByteBuffer;
+
+/**
+ * How one sample is stored in a WAV data chunk, and how it becomes a double.
+ *
+ * <p>Integer convention: a code is divided by 2<sup>bits−1</sup> of its container, so 16-bit −32768 reads
+ * −1.0 and +32767 reads 0.999969 (references.md §10; the other common convention, 2<sup>bits−1</sup>−1,
+ * differs by 0.00027 dB at 16 bits). 8-bit PCM is unsigned with 128 as zero. Left-justified valid bits in a
+ * WAVE_FORMAT_EXTENSIBLE container (e.g. 20 of 24) come out right because their unused low bits are zero.
+ */
+enum WavCoding {
+    PCM_U8(1), PCM_S16(2), PCM_S24(3), PCM_S32(4), FLOAT_32(4), FLOAT_64(8);
+
+    final int bytes;
+
+    WavCoding(int bytes) { this.bytes = bytes; }
+
+    /** Reads the sample at absolute position {@code index} of a little-endian buffer. */
+    double decode(ByteBuffer b, int index) {
+        switch (this) {
+            case PCM_U8: return ((b.get(index) & 0xff) - 128) / 128.0;
+            case PCM_S16: return b.getShort(index) / 32768.0;
+            case PCM_S24: {
+                int v = (b.get(index) & 0xff) | (b.get(index + 1) & 0xff) << 8 | b.get(index + 2) << 16;
+                return v / 8388608.0;
+            }
+            case PCM_S32: return b.getInt(index) / 2147483648.0;
+            case FLOAT_32: return b.getFloat(index);
+            case FLOAT_64: return b.getDouble(index);
+            default: throw new AssertionError(this);
+        }
+    }
+
+    boolean isFloat() { return this == FLOAT_32 || this == FLOAT_64; }
+
+    int bits() { return bytes * 8; }
+
+    static WavCoding pcm(int containerBits) {
+        switch (containerBits) {
+            case 8: return PCM_U8;
+            case 16: return PCM_S16;
+            case 24: return PCM_S24;
+            case 32: return PCM_S32;
+            default: return null;
+        }
+    }
+
+    static WavCoding floating(int bits) {
+        switch (bits) {
+            case 32: return FLOAT_32;
+            case 64: return FLOAT_64;
+            default: return null;
+        }
+    }
+}

@@ -1,0 +1,98 @@
+package org.outstage.cli;
+
+import java.util.OptionalDouble;
+import java.util.OptionalInt;
+import org.outstage.analysis.AnalysisSettings;
+import org.outstage.analysis.Band;
+import org.outstage.analysis.Weighting;
+import org.outstage.capture.CaptureOptions;
+import picocli.CommandLine.Option;
+
+/**
+ * The options shared by every command that reads and measures captures ({@code analyze}, {@code sweep},
+ * {@code fit}, {@code session add}, {@code watch}, {@code verify}). A picocli mixin.
+ */
+public final class AnalyzeOptions {
+    @Option(names = "--channel", paramLabel = "N", description = "Channel to analyse, from 1 (default: every channel).")
+    Integer channel;
+
+    @Option(names = "--bandwidth", paramLabel = "LOW-HIGH", defaultValue = "20-20k",
+            description = "Measurement band for THD+N and harmonics: LOW-HIGH in Hz (e.g. 20-20k, 22-22k), 'wide' (20 Hz-80 kHz) or 'nyquist'. Default: ${DEFAULT-VALUE}.")
+    String bandwidth;
+
+    @Option(names = "--weighting", paramLabel = "A|none", defaultValue = "none",
+            description = "Weighting of noise and distortion in THD+N: A (IEC 61672-1) or none. Default: ${DEFAULT-VALUE}.")
+    String weighting;
+
+    @Option(names = "--harmonics", paramLabel = "N", defaultValue = "10",
+            description = "Highest harmonic order in THD (2..50, limited by the band). Default: ${DEFAULT-VALUE}.")
+    int harmonics;
+
+    @Option(names = "--fs-volts", paramLabel = "V",
+            description = "WAV calibration: peak volts at the amplifier output that reach digital full scale, divider included.")
+    Double fsVolts;
+
+    @Option(names = "--probe", paramLabel = "X", description = "Scope CSV calibration: multiply values by X (probe ratio not applied by the export).")
+    Double probe;
+
+    @Option(names = "--sample-rate", paramLabel = "HZ", description = "Sample rate for a scope CSV without time column or interval.")
+    Double sampleRate;
+
+    @Option(names = "--load", paramLabel = "OHMS", description = "Load resistance, for output power (P = Vrms^2/R; needs volts).")
+    Double load;
+
+    @Option(names = "--fundamental", paramLabel = "HZ", description = "Expected fundamental frequency (default: strongest line).")
+    Double fundamental;
+
+    @Option(names = "--reference", paramLabel = "N",
+            description = "Channel (from 1) that carries the generator signal: gives the X-Y transfer curve of the other channels.")
+    Integer reference;
+
+    /** The capture reader options. */
+    public CaptureOptions captureOptions() {
+        return new CaptureOptions(opt(fsVolts), opt(probe), opt(sampleRate));
+    }
+
+    /** The analysis settings; bad values raise {@link BadInputException} naming the option. */
+    public AnalysisSettings settings() {
+        Band band;
+        try {
+            band = Band.parse(bandwidth);
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException("--bandwidth: " + e.getMessage());
+        }
+        Weighting w = switch (weighting.trim().toLowerCase(java.util.Locale.ROOT)) {
+            case "a" -> Weighting.A;
+            case "none", "flat" -> Weighting.NONE;
+            default -> throw new BadInputException("--weighting: \"" + weighting + "\" must be A or none");
+        };
+        if (harmonics < 2 || harmonics > 50) throw new BadInputException("--harmonics: " + harmonics + " must be between 2 and 50");
+        positive("--load", load);
+        positive("--fundamental", fundamental);
+        positive("--fs-volts", fsVolts);
+        positive("--probe", probe);
+        positive("--sample-rate", sampleRate);
+        if (channel != null && channel < 1) throw new BadInputException("--channel: " + channel + " must be 1 or more");
+        if (reference != null && reference < 1) throw new BadInputException("--reference: " + reference + " must be 1 or more");
+        return new AnalysisSettings(band, w, harmonics, opt(fundamental), opt(load), OptionalInt.empty());
+    }
+
+    /** The chosen channel (1-based), if any. */
+    public OptionalInt channel() { return channel == null ? OptionalInt.empty() : OptionalInt.of(channel); }
+
+    /** The reference channel (1-based), if any. */
+    public OptionalInt reference() { return reference == null ? OptionalInt.empty() : OptionalInt.of(reference); }
+
+    /** A short label of the calibration, used to refuse a level series that mixes calibrations. */
+    public String calibrationLabel() {
+        if (fsVolts != null) return "fs-volts " + fsVolts;
+        if (probe != null) return "probe " + probe;
+        return "uncalibrated";
+    }
+
+    private static void positive(String name, Double v) {
+        if (v != null && !(v > 0 && Double.isFinite(v))) throw new BadInputException(name + ": " + v + " must be a positive number");
+    }
+
+    private static OptionalDouble opt(Double v) { return v == null ? OptionalDouble.empty() : OptionalDouble.of(v); }
+}

@@ -1,0 +1,67 @@
+package org.outstage.cli;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.OptionalInt;
+import org.outstage.analysis.AnalysisSettings;
+import org.outstage.analysis.Analyzer;
+import org.outstage.analysis.Measurement;
+import org.outstage.capture.Capture;
+import org.outstage.capture.CaptureFormatException;
+import org.outstage.capture.CaptureReader;
+
+/**
+ * Reads one capture file and measures the channels the options select. The one place where the command
+ * line turns files into {@link Measurement}s, so every command measures the same way.
+ */
+public final class Measuring {
+    private Measuring() {}
+
+    /** The measurements of one file, with the reader's warnings. */
+    public record FileResult(String file, Capture capture, List<Measurement> measurements) {}
+
+    /**
+     * Opens and analyses {@code file}.
+     *
+     * @throws BadInputException one line naming the file and the problem (unreadable, malformed, channel missing)
+     */
+    public static FileResult measure(Path file, AnalyzeOptions options) {
+        AnalysisSettings settings = options.settings();
+        Capture capture = open(file, options);
+        return new FileResult(file.toString(), capture, measure(capture, settings, options.channel(), options.reference(), file.toString()));
+    }
+
+    /** Opens a capture with the options' calibration; a reader error becomes a {@link BadInputException}. */
+    public static Capture open(Path file, AnalyzeOptions options) {
+        if (!Files.exists(file)) throw new BadInputException(file + ": no such file");
+        try {
+            return CaptureReader.open(file, options.captureOptions());
+        } catch (CaptureFormatException e) {
+            throw new BadInputException(e.getMessage().startsWith(file.getFileName().toString()) && !file.toString().equals(file.getFileName().toString())
+                    ? file.getParent() + java.io.File.separator + e.getMessage() : e.getMessage(), e);
+        }
+    }
+
+    /** Measures the selected channels of an open capture (1-based channel numbers). */
+    public static List<Measurement> measure(Capture capture, AnalysisSettings settings, OptionalInt channel, OptionalInt reference, String label) {
+        int count = capture.channelCount();
+        if (channel.isPresent() && channel.getAsInt() > count)
+            throw new BadInputException(label + ": --channel " + channel.getAsInt() + " does not exist (the capture has " + count + ")");
+        if (reference.isPresent() && reference.getAsInt() > count)
+            throw new BadInputException(label + ": --reference " + reference.getAsInt() + " does not exist (the capture has " + count + ")");
+        if (reference.isPresent() && channel.isPresent() && reference.getAsInt() == channel.getAsInt())
+            throw new BadInputException(label + ": --reference and --channel name the same channel " + channel.getAsInt());
+        if (reference.isPresent() && count < 2)
+            throw new BadInputException(label + ": --reference needs a second channel (the capture has 1)");
+        AnalysisSettings s = reference.isPresent() ? settings.withReferenceChannel(reference.getAsInt()) : settings;
+        List<Measurement> out = new ArrayList<>();
+        for (int c = 1; c <= count; c++) {
+            if (channel.isPresent() && c != channel.getAsInt()) continue;
+            if (reference.isPresent() && c == reference.getAsInt()) continue;
+            out.add(Analyzer.analyze(capture, c - 1, s));
+        }
+        return out;
+    }
+}

@@ -1,0 +1,135 @@
+package org.outstage.report;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.stage.ClipSide;
+import org.outstage.analysis.stage.ClippingMetrics;
+import org.outstage.analysis.stage.CrossoverMetrics;
+import org.outstage.analysis.stage.MeasuredTransfer;
+import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.json.Json;
+
+/**
+ * The JSON face of a {@link Measurement}. The keys documented in docs/cli.md are a contract that users'
+ * scripts rely on: add keys, never rename or remove one. Levels are in the capture's unit ({@code unit}).
+ * A figure that could not be measured is {@code null}, with the reason in {@code not_measured}.
+ */
+public final class MeasurementJson {
+    private MeasurementJson() {}
+
+    /** One capture entry of {@code analyze --json}; {@code file} is the path as the user gave it. */
+    public static Map<String, Object> capture(String file, Measurement m, List<String> warnings) {
+        Map<String, Object> c = new LinkedHashMap<>();
+        c.put("file", file);
+        c.put("channel", m.channel());
+        c.put("sample_rate_hz", m.sampleRateHz());
+        c.put("unit", m.unit());
+        c.put("duration_s", m.durationSeconds());
+        c.put("not_measured", m.notMeasuredReason().orElse(null));
+        c.put("fundamental", Json.obj("frequency_hz", m.fundamental().frequencyHz(), "rms", m.fundamental().rms(),
+                "peak", m.fundamental().amplitudePeak(), "phase_deg", m.fundamental().phaseDeg()));
+        c.put("thd", ratio(m.thd().ratio()));
+        c.put("thd_r", ratio(m.thdR().ratio()));
+        Map<String, Object> thdN = ratio(m.thdN().ratio());
+        thdN.put("bandwidth_hz", new double[] {m.thdN().lowHz(), m.thdN().highHz()});
+        thdN.put("weighting", m.thdN().weighting().name().toLowerCase(java.util.Locale.ROOT));
+        thdN.put("at_floor", m.measured() ? m.thdN().atFloor() : null);
+        c.put("thd_n", thdN);
+        c.put("floor", Json.obj("ratio", m.floor().ratio(), "db", m.floor().db(),
+                "kind", m.floor().kind().name().toLowerCase(java.util.Locale.ROOT).replace('_', '-'),
+                "quantisation_ratio", m.floor().quantisationRatio(), "measured_noise_ratio", m.floor().measuredNoiseRatio()));
+        c.put("sinad_db", m.sinadDb());
+        c.put("enob", m.enob());
+        c.put("dc_offset", m.dcOffset());
+        c.put("total_rms", m.totalRms());
+        c.put("power", m.powerWatts().map(p -> Json.obj("load_ohms", p.loadOhms(), "fundamental_w", p.fundamentalWatts(),
+                "total_w", p.totalWatts())).orElse(null));
+        c.put("method", m.method().name().toLowerCase(java.util.Locale.ROOT).replace('_', '-'));
+        List<Object> hs = new ArrayList<>();
+        for (Measurement.Harmonic h : m.harmonics())
+            hs.add(Json.obj("order", h.order(), "frequency_hz", h.frequencyHz(), "rms", h.rms(), "ratio", h.ratio(),
+                    "dbc", h.dbc(), "phase_deg", h.phaseDeg()));
+        c.put("harmonics", hs);
+        c.put("crossover", crossover(m.stage()));
+        c.put("clipping", clipping(m.stage()));
+        c.put("residual", residual(m.stage()));
+        c.put("transfer", transfer(m.stage()));
+        c.put("warnings", List.copyOf(warnings));
+        return c;
+    }
+
+    static Map<String, Object> ratio(double r) {
+        return Json.obj("ratio", r, "percent", 100 * r, "db", 20 * Math.log10(r));
+    }
+
+    static Map<String, Object> crossover(StageDiagnosis d) {
+        if (!(d instanceof StageDiagnosis.Measured s)) {
+            return Json.obj("verdict", "unclear", "gain_at_zero", null, "not_measured", reason(d));
+        }
+        CrossoverMetrics x = s.crossover();
+        Map<String, Object> o = new LinkedHashMap<>();
+        o.put("gain_at_zero", x.gainAtZero());
+        o.put("gain_at_zero_std_error", x.gainAtZeroStdError());
+        o.put("verdict", x.verdict().label());
+        o.put("confidence", x.confidence());
+        o.put("notch_width", x.notchWidthVolts());
+        o.put("notch_depth", x.notchDepthVolts());
+        o.put("notch_depth_percent", 100 * x.notchDepthFraction());
+        o.put("near_zero_residual_share", x.nearZeroResidualShare());
+        o.put("near_zero_time_share", x.nearZeroTimeShare());
+        o.put("incremental_gain_at_zero", x.incrementalGainAtZero());
+        o.put("large_signal_gain", x.outerMeanGain());
+        o.put("hysteresis", s.transfer().hysteresis().detected());
+        o.put("explanation", x.explanation());
+        return o;
+    }
+
+    static Map<String, Object> clipping(StageDiagnosis d) {
+        if (!(d instanceof StageDiagnosis.Measured s)) return Json.obj("detected", null, "not_measured", reason(d));
+        ClippingMetrics c = s.clipping();
+        Map<String, Object> o = new LinkedHashMap<>();
+        o.put("detected", c.detected());
+        o.put("positive_level", c.positive().map(ClipSide::levelVolts).orElse(null));
+        o.put("negative_level", c.negative().map(ClipSide::levelVolts).orElse(null));
+        o.put("asymmetry_percent", c.asymmetryPercent());
+        o.put("clips_first", c.clipsFirst().label());
+        o.put("positive", c.positive().map(MeasurementJson::side).orElse(null));
+        o.put("negative", c.negative().map(MeasurementJson::side).orElse(null));
+        return o;
+    }
+
+    private static Map<String, Object> side(ClipSide s) {
+        return Json.obj("level", s.levelVolts(), "fraction_of_cycle", s.fractionOfCycle(), "onset_ideal", s.onsetIdealVolts(),
+                "recovery_time_s", s.recoveryTimeSeconds(), "knee", s.knee().name().toLowerCase(java.util.Locale.ROOT),
+                "knee_depth", s.kneeDepthVolts(), "flat_tops", s.flatTops());
+    }
+
+    static Map<String, Object> residual(StageDiagnosis d) {
+        if (!(d instanceof StageDiagnosis.Measured s)) return null;
+        var r = s.residual();
+        return Json.obj("rms", r.rmsVolts(), "peak", r.peakVolts(), "peak_time_s", r.peakTimeSeconds(),
+                "high_pass_hz", r.highPassHz(), "low_pass_hz", r.lowPassHz());
+    }
+
+    static Map<String, Object> transfer(StageDiagnosis d) {
+        if (!(d instanceof StageDiagnosis.Measured s)) return null;
+        MeasuredTransfer t = s.transfer();
+        Map<String, Object> o = new LinkedHashMap<>();
+        o.put("points", t.size());
+        o.put("from_reference", t.fromReference());
+        o.put("large_signal_gain", t.largeSignalGain());
+        o.put("noise_rms", t.noiseRmsVolts());
+        o.put("hysteresis", Json.obj("detected", t.hysteresis().detected(), "chi_square_per_bin", t.hysteresis().chiSquarePerBin(),
+                "rms_difference", t.hysteresis().rmsDifferenceVolts()));
+        s.reference().ifPresent(a -> o.put("reference", Json.obj("delay_s", a.delaySeconds(), "delay_samples", a.delaySamples(),
+                "gain", a.gain())));
+        return o;
+    }
+
+    private static String reason(StageDiagnosis d) {
+        return d instanceof StageDiagnosis.NotMeasured n ? n.reason() : null;
+    }
+}
