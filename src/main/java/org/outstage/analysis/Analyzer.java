@@ -4,14 +4,13 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Optional;
-import org.jtransforms.fft.DoubleFFT_1D;
 import org.outstage.Require;
-import org.outstage.capture.Capture;
-import org.outstage.capture.SampleUnit;
 import org.outstage.analysis.stage.SignalCheck;
 import org.outstage.analysis.stage.StageAnalyzer;
 import org.outstage.analysis.stage.StageDiagnosis;
 import org.outstage.analysis.stage.StageSettings;
+import org.outstage.capture.Capture;
+import org.outstage.capture.SampleUnit;
 
 /**
  * The measurement pipeline: one channel of a capture in, one {@link Measurement} out. Pure, thread-safe,
@@ -20,9 +19,11 @@ import org.outstage.analysis.stage.StageSettings;
  * <p>Steps (sources and assumptions in docs/methods.md):
  * <ol>
  * <li>Fundamental: coarse spectral peak, then the IEEE Std 1057-2017 four-parameter sine fit
- *     ({@link SineFitter}) on a bounded span (the first 2^20 samples).</li>
+ *     ({@link SineFitter}) on a bounded span (the first 2^18 samples), refined on records of many cycles
+ *     by a window-weighted four-parameter fit so harmonics do not bias the frequency.</li>
  * <li>Long records (at least 50 cycles): averaged power spectra with the 7-term Blackman-Harris window
- *     (Solomon 1994, −180 dB sidelobes), blocks of up to 2^20 samples, 50 % overlap (Welch 1967). Each
+ *     (Solomon 1994, −180 dB sidelobes), power-of-two blocks of up to 2^20 samples tiling the record with
+ *     at least 50 % overlap (Welch 1967). Each
  *     line's mean square is the power summed over its main lobe (free of scalloping loss, scaled by Σw²).
  *     Harmonic phases come from the first block's complex spectrum.</li>
  * <li>Short records (fewer than 50 cycles, up to 2^20 samples): a least-squares fit of DC, fundamental and
@@ -74,6 +75,14 @@ public final class Analyzer {
         return new Run(capture, channelIndex, settings).run();
     }
 
+    /** Analyses every channel of {@code capture}, in channel order. */
+    public static List<Measurement> analyzeAll(Capture capture, AnalysisSettings settings) {
+        Require.notNull("capture", capture);
+        List<Measurement> out = new ArrayList<>();
+        for (int c = 0; c < capture.channelCount(); c++) out.add(analyze(capture, c, settings));
+        return List.copyOf(out);
+    }
+
     /** How many frames of a capture the fit and the stage diagnosis use (the analysis span, from the start). */
     public static int spanFrames(Capture capture) {
         return (int) Math.min(capture.frameCount(), MAX_BLOCK);
@@ -121,6 +130,7 @@ public final class Analyzer {
             double mean = 0;
             for (double v : span) mean += v;
             mean /= span.length;
+            if (!Double.isFinite(mean)) return notMeasured("the record holds samples that are not finite numbers");
             double ac2 = 0, peak = 0;
             for (double v : span) { double d = v - mean; ac2 += d * d; peak = Math.max(peak, Math.abs(v)); }
             double acRms = Math.sqrt(ac2 / span.length);
@@ -171,10 +181,19 @@ public final class Analyzer {
         SineFit fitFundamental(double[] span) {
             int pre = Math.min(span.length, 1 << 16);
             double[] prefix = pre == span.length ? span : Arrays.copyOf(span, pre);
-            double start = s.fundamentalHz().isPresent() ? s.fundamentalHz().getAsDouble() : SineFitter.coarseFrequency(prefix, fs);
+            // with a hint: the strongest line within ±10 % of it (the hint need not be exact)
+            double start = s.fundamentalHz().isPresent()
+                    ? SineFitter.coarseFrequency(prefix, fs, 0.9 * s.fundamentalHz().getAsDouble(), 1.1 * s.fundamentalHz().getAsDouble())
+                    : SineFitter.coarseFrequency(prefix, fs);
             SineFit first = SineFitter.fourParameter(prefix, fs, start);
-            if (pre == span.length) return first;
-            return SineFitter.fourParameter(span, fs, first.frequencyHz());
+            SineFit full = pre == span.length ? first : SineFitter.fourParameter(span, fs, first.frequencyHz());
+            // On records of many cycles, refine with window-weighted least squares: the window's sidelobes keep
+            // harmonics and other tones from biasing the frequency of a fit over a non-integer number of cycles.
+            if (full.frequencyHz() * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
+                SineFit weighted = SineFitter.fourParameterWeighted(span, fs, full.frequencyHz(), WINDOW.samples(span.length));
+                if (weighted.converged() && weighted.frequencyHz() > 0 && weighted.frequencyHz() < fs / 2) return weighted;
+            }
+            return full;
         }
 
         int maxOrder(double f, double guardHz) {
@@ -253,8 +272,11 @@ public final class Analyzer {
                 sumH += ph;
             }
             double noiseFloorPower = density * bandG2;
+            // total mean square without DC from the spectrum (free of the partial-cycle error of a plain mean square)
+            double totalMs = 0;
+            for (int k = 1; k < half; k++) totalMs += k <= hw ? density : ps.power[k];
             Measurement.Spectrum spectrum = summary(ps.power, binW, 1, half - 1, p1 / WINDOW.enbwBins(len), density, ps.blocks);
-            return finish(fit, f, p1, fit.phaseRadians(), ps.windowedMean, ps.acMeanSquare, harmonics, sumH, ndU, ndW, noiseFloorPower,
+            return finish(fit, f, p1, fit.phaseRadians(), ps.windowedMean, totalMs, harmonics, sumH, ndU, ndW, noiseFloorPower,
                     Measurement.Method.WINDOWED_SPECTRUM, spectrum, span);
         }
 
@@ -294,7 +316,7 @@ public final class Analyzer {
             // residual (noise and harmonics above the fitted orders), band-limited with a rectangular-window FFT
             int m = y.length - (y.length % 2);
             double[] r = Arrays.copyOf(hf.residual, m);
-            new DoubleFFT_1D(m).realForward(r);
+            Fft.of(m).realForward(r);
             double binW = fs / m;
             int kLo = Math.max(1, (int) Math.ceil(lowHz / binW));
             int kHi = Math.min(m / 2 - 1, (int) Math.floor(highHz / binW));
@@ -318,11 +340,10 @@ public final class Analyzer {
             ndU += resU;
             ndW += resW;
             double density = nb > 0 ? Stats.median(noiseBins, nb) * Stats.medianToMean(1) : 0;
-            double mean = 0, ms = 0;
-            for (double v : y) mean += v;
-            mean /= y.length;
-            for (double v : y) ms += (v - mean) * (v - mean);
-            ms /= y.length;
+            double mean = hf.dc;
+            // total mean square without DC: fitted lines plus what is left over (free of the partial-cycle error)
+            double ms = resAll;
+            for (int h = 1; h <= hf.orders(); h++) ms += hf.amplitude[h] * hf.amplitude[h] / 2;
             // spectrum for plotting: the record through the analysis window (one block)
             Measurement.Spectrum spectrum;
             if (m >= 16) {
@@ -330,10 +351,10 @@ public final class Analyzer {
                 double sw2 = 0;
                 double[] x = new double[m];
                 for (int i = 0; i < m; i++) { x[i] = (y[i] - mean) * w[i]; sw2 += w[i] * w[i]; }
-                new DoubleFFT_1D(m).realForward(x);
+                Fft.of(m).realForward(x);
                 double[] pw = new double[m / 2 + 1];
                 for (int k = 1; k < m / 2; k++) pw[k] = (x[2 * k] * x[2 * k] + x[2 * k + 1] * x[2 * k + 1]) * 2 / (m * sw2);
-                spectrum = summary(pw, binW, 1, m / 2 - 1, p1 / WINDOW.enbwBins(m), density * WINDOW.enbwBins(m) / WINDOW.enbwBins(m), 1);
+                spectrum = summary(pw, binW, 1, m / 2 - 1, p1 / WINDOW.enbwBins(m), density, 1);   // noise per bin is window-independent with Σw² scaling
             } else {
                 spectrum = Measurement.Spectrum.empty();
             }

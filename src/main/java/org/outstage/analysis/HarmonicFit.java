@@ -56,9 +56,10 @@ final class HarmonicFit {
             double nf = f + df;
             if (!(nf > 0) || nf >= fs / 2) break;
             f = nf;
-            x = solve(y, fs, f, orders, null);
-            if (Math.abs(df) < 1e-11 * f + 1e-9 * bin) { converged = true; break; }
+            x = java.util.Arrays.copyOf(g, 2 * orders + 1);   // the Gauss-Newton step also updates the linear terms
+            if (Math.abs(df) < 1e-9 * bin) { converged = true; break; }
         }
+        x = solve(y, fs, f, orders, null);
         double[] amp = new double[orders + 1];
         double[] ph = new double[orders + 1];
         for (int k = 1; k <= orders; k++) {
@@ -71,8 +72,15 @@ final class HarmonicFit {
         double w = 2 * Math.PI * f / fs;
         for (int i = 0; i < n; i++) {
             double t = (i - mid) * w;
+            double c1 = Math.cos(t), s1 = Math.sin(t);
+            double ck = c1, sk = s1;
             double m = x[0];
-            for (int k = 1; k <= orders; k++) m += x[2 * k - 1] * Math.cos(k * t) + x[2 * k] * Math.sin(k * t);
+            for (int k = 1; k <= orders; k++) {
+                m += x[2 * k - 1] * ck + x[2 * k] * sk;
+                double cn = ck * c1 - sk * s1;
+                sk = sk * c1 + ck * s1;
+                ck = cn;
+            }
             res[i] = y[i] - m;
         }
         return new HarmonicFit(fs, f, x[0], amp, ph, res, it, converged);
@@ -90,9 +98,11 @@ final class HarmonicFit {
         double[] row = new double[p];
         double mid = (n - 1) / 2.0;
         double w = 2 * Math.PI * f / fs;
+        double cd = Math.cos(w), sd = Math.sin(w);
+        double c1 = 0, s1 = 0;
         for (int i = 0; i < n; i++) {
             double tt = (i - mid);
-            double c1 = Math.cos(w * tt), s1 = Math.sin(w * tt);
+            if (i % 256 == 0) { c1 = Math.cos(w * tt); s1 = Math.sin(w * tt); }   // rotation recurrence, re-anchored
             row[0] = 1;
             double ck = c1, sk = s1;
             double d = 0;
@@ -105,6 +115,9 @@ final class HarmonicFit {
                 ck = cn;
             }
             if (prev != null) row[p - 1] = d;
+            double cn1 = c1 * cd - s1 * sd;
+            s1 = s1 * cd + c1 * sd;
+            c1 = cn1;
             double yi = y[i];
             for (int a = 0; a < p; a++) {
                 double ra = row[a];

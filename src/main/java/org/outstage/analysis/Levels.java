@@ -33,6 +33,15 @@ public final class Levels {
     /** Inverse of {@link #thdFToThdR}: {@code THD_F = THD_R/√(1−THD_R²)}. */
     public static double thdRToThdF(double thdR) { return thdR / Math.sqrt(1 - thdR * thdR); }
 
+    /** dBV: 20·lg(rmsVolts / 1 V). */
+    public static double dbv(double rmsVolts) { return 20 * Math.log10(rmsVolts); }
+
+    /** dBu: 20·lg(rmsVolts / 0.7746 V), reference √0.6 V (1 mW into 600 Ω; references.md §3). */
+    public static double dbu(double rmsVolts) { return 20 * Math.log10(rmsVolts / Math.sqrt(0.6)); }
+
+    /** dBFS after AES17: the rms of a full-scale sine (peak 1.0, rms 1/√2) is 0 dBFS. */
+    public static double dbfs(double rmsFullScale) { return 20 * Math.log10(rmsFullScale * Math.sqrt(2)); }
+
     /** A frequency for labels: "20 Hz", "22 kHz", "997 Hz", "22.4 kHz". */
     public static String formatHz(double hz) {
         if (hz >= 1000) return trim(hz / 1000) + " kHz";

@@ -27,7 +27,7 @@ import org.outstage.analysis.stage.StageDiagnosis;
  * @param notMeasuredReason why there are no figures, or empty
  * @param method            how harmonics and THD+N were obtained
  * @param fundamental       the fundamental
- * @param dcOffset          mean of the record (DC), never part of THD or THD+N
+ * @param dcOffset          DC: the window-weighted mean over the record (long records) or the fitted constant (short records); never part of THD or THD+N
  * @param harmonics         H2…HN within the band and below Nyquist, in order
  * @param thd               THD_F: rss of the listed harmonics relative to the fundamental (IEEE/IEC 61000 convention)
  * @param thdR              THD_R = THD_F/√(1+THD_F²): relative to the fundamental and listed harmonics together

@@ -57,7 +57,7 @@ final class PowerSpectrum {
         double[] work = new double[length];
         double[] acc = new double[length / 2 + 1];
         double[] first = null;
-        DoubleFFT_1D fft = new DoubleFFT_1D(length);
+        DoubleFFT_1D fft = Fft.of(length);
         int blocks = 0;
         double sumD = 0, sumD2 = 0, sumX0 = 0, sumW = 0;
         for (double v : w) sumW += v;

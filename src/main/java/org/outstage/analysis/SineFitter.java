@@ -1,6 +1,5 @@
 package org.outstage.analysis;
 
-import org.jtransforms.fft.DoubleFFT_1D;
 import org.outstage.Require;
 
 /**
@@ -37,6 +36,14 @@ public final class SineFitter {
      * log-magnitude peak; at most the first 2^20 samples are used). DC and the first bin are ignored.
      */
     public static double coarseFrequency(double[] samples, double sampleRateHz) {
+        return coarseFrequency(samples, sampleRateHz, 0, Double.POSITIVE_INFINITY);
+    }
+
+    /**
+     * As {@link #coarseFrequency(double[], double)}, but the strongest line between {@code loHz} and
+     * {@code hiHz} (used with a frequency hint: the line nearest the hint, not the strongest overall).
+     */
+    static double coarseFrequency(double[] samples, double sampleRateHz, double loHz, double hiHz) {
         Require.positive("sampleRateHz", sampleRateHz);
         Require.atLeast("samples.length", samples.length, 8);
         int n = Math.min(samples.length, 1 << 20);
@@ -48,14 +55,17 @@ public final class SineFitter {
             double w = 0.5 - 0.5 * Math.cos(2 * Math.PI * i / n);
             buf[i] = (samples[i] - mean) * w;
         }
-        new DoubleFFT_1D(n).realForward(buf);
+        Fft.of(n).realForward(buf);
         int bins = n / 2;
         double[] mag = new double[bins + 1];
         mag[0] = Math.abs(buf[0]);
         for (int k = 1; k < bins; k++) mag[k] = Math.hypot(buf[2 * k], buf[2 * k + 1]);
         mag[bins] = (n % 2 == 0) ? Math.abs(buf[1]) : Math.hypot(buf[2 * bins], buf[1]);
-        int best = 2;
-        for (int k = 2; k <= bins - 1; k++) if (mag[k] > mag[best]) best = k;
+        int kLo = Math.max(2, (int) Math.floor(loHz * n / sampleRateHz));
+        int kHi = (int) Math.min(bins - 1, Math.ceil(Math.min(hiHz, sampleRateHz) * n / sampleRateHz));
+        if (kHi < kLo) { kLo = 2; kHi = bins - 1; }
+        int best = kLo;
+        for (int k = kLo; k <= kHi; k++) if (mag[k] > mag[best]) best = k;
         if (best < 2 || mag[best] == 0) return sampleRateHz / n;
         double a = Math.log(mag[best - 1] + 1e-300), b = Math.log(mag[best] + 1e-300), c = Math.log(mag[best + 1] + 1e-300);
         double den = a - 2 * b + c;
@@ -95,14 +105,30 @@ public final class SineFitter {
         return best;
     }
 
+    /**
+     * Four-parameter fit with each sample weighted by a window (weighted least squares). The window's low
+     * sidelobes keep other spectral lines (harmonics, hum, a second tone) from biasing the frequency, which
+     * an unweighted fit on a non-integer number of cycles suffers from. The residual and DC of the result
+     * are those of the unweighted three-parameter fit at the found frequency. Package-private: used by
+     * {@link Analyzer} on long records.
+     */
+    static SineFit fourParameterWeighted(double[] y, double sampleRateHz, double initialFrequencyHz, double[] weights) {
+        if (weights.length != y.length) throw new IllegalArgumentException("weights.length=" + weights.length + " must equal samples.length=" + y.length);
+        return iterate(y, sampleRateHz, initialFrequencyHz, sampleRateHz / y.length, weights);
+    }
+
     private static SineFit iterate(double[] y, double fs, double f0, double bin) {
+        return iterate(y, fs, f0, bin, null);
+    }
+
+    private static SineFit iterate(double[] y, double fs, double f0, double bin, double[] wt) {
         double f = f0;
-        double[] abc = solve(y, fs, f, false, 0, 0);
+        double[] abc = solve(y, fs, f, false, 0, 0, wt);
         boolean converged = false;
         int it = 0;
         while (it < MAX_ITERATIONS) {
             it++;
-            double[] x = solve(y, fs, f, true, abc[0], abc[1]);
+            double[] x = solve(y, fs, f, true, abc[0], abc[1], wt);
             double dOmega = x[3];
             double df = dOmega / (2 * Math.PI);
             double limit = 0.25 * bin;
@@ -122,6 +148,10 @@ public final class SineFitter {
      * column is t·(−a·sin ωt + b·cos ωt) and the result's 4th entry is Δω (rad/s).
      */
     private static double[] solve(double[] y, double fs, double f, boolean four, double a, double b) {
+        return solve(y, fs, f, four, a, b, null);
+    }
+
+    private static double[] solve(double[] y, double fs, double f, boolean four, double a, double b, double[] wt) {
         int n = y.length;
         int p = four ? 4 : 3;
         double[][] ata = new double[p][p];
@@ -140,18 +170,20 @@ public final class SineFitter {
                 s = Math.sin(ph);
             }
             double yi = y[i];
-            s00 += c * c; s01 += c * s; s02 += c; s11 += s * s; s12 += s;
-            r0 += c * yi; r1 += s * yi; r2 += yi;
+            double wi = wt == null ? 1.0 : wt[i];
+            double cw = c * wi, sw = s * wi;
+            s00 += cw * c; s01 += cw * s; s02 += cw; s11 += sw * s; s12 += sw; s22 += wi;
+            r0 += cw * yi; r1 += sw * yi; r2 += wi * yi;
             if (four) {
                 double t = (i - mid) / fs;
                 double d = t * (-a * s + b * c);
-                s03 += c * d; s13 += s * d; s23 += d; s33 += d * d; r3 += d * yi;
+                double dw = d * wi;
+                s03 += cw * d; s13 += sw * d; s23 += dw; s33 += dw * d; r3 += dw * yi;
             }
             double cn = c * cd - s * sd;
             s = s * cd + c * sd;
             c = cn;
         }
-        s22 = n;
         ata[0][0] = s00; ata[0][1] = s01; ata[0][2] = s02;
         ata[1][0] = s01; ata[1][1] = s11; ata[1][2] = s12;
         ata[2][0] = s02; ata[2][1] = s12; ata[2][2] = s22;

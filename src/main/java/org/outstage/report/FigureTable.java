@@ -41,8 +41,8 @@ public final class FigureTable {
         StageDiagnosis d = m.stage();
         if (d instanceof StageDiagnosis.Measured s) {
             CrossoverMetrics x = s.crossover();
-            sb.append(String.format(Locale.ROOT, "  crossover     gain at zero %.4f +/- %.4f: %s (confidence %.2f)%n", x.gainAtZero(),
-                    x.gainAtZeroStdError(), x.verdict().label(), x.confidence()));
+            sb.append(String.format(Locale.ROOT, "  crossover     gain at zero %.4f (standard error %s): %s (confidence %.2f)%n", x.gainAtZero(),
+                    String.format(Locale.ROOT, "%.1e", x.gainAtZeroStdError()), x.verdict().label(), x.confidence()));
             sb.append(String.format(Locale.ROOT, "                notch width %s %s, depth %s %s (%.3f %% of peak)%n", sig(x.notchWidthVolts()), u,
                     sig(x.notchDepthVolts()), u, 100 * x.notchDepthFraction()));
             sb.append("                ").append(x.explanation()).append(System.lineSeparator());

@@ -214,11 +214,41 @@ class AnalyzerTest {
     }
 
     @Test
+    void nonFiniteSample_isNotMeasured() {
+        double[] y = new double[4800];
+        for (int i = 0; i < y.length; i++) y[i] = Math.sin(2 * Math.PI * 1000 * i / 48000.0);
+        y[100] = Double.NaN;
+        assertTrue(Analyzer.analyze(y, 48000, SampleUnit.VOLTS).notMeasuredReason().orElse("").contains("not finite"));
+    }
+
+    @Test
     void whiteNoise_hasNoClearLine() {
         java.util.Random rnd = new java.util.Random(7);
         double[] y = new double[96000];
         for (int i = 0; i < y.length; i++) y[i] = rnd.nextGaussian();
         Measurement m = Analyzer.analyze(y, 48000, SampleUnit.VOLTS);
         assertTrue(m.notMeasuredReason().orElse("").contains("no clear"), m.notMeasuredReason().orElse("measured"));
+    }
+
+    /**
+     * Short record with noise: two cycles, H3 at −40 dBc and white noise σ = 1e-3 (seeded), Nyquist band.
+     * THD+N² = (H3² + σ²)/(total) by Parseval (references.md §11); the fit absorbs only 2N+1 of 20000
+     * degrees of freedom. Tolerance 0.1 dB: the noise power of 20000 samples scatters by about 1 %.
+     */
+    @Test
+    void twoCycleRecordWithNoise_thdNMatchesParseval() {
+        double fs = 1e6, f = 100, sigma = 1e-3;
+        java.util.Random rnd = new java.util.Random(3);
+        double[] a = new double[4], p = new double[4];
+        a[1] = 1; a[3] = 0.01; p[3] = 0.5;
+        double[] y = Signals.harmonicSeries(fs, 20000, f, 0, a, p);
+        for (int i = 0; i < y.length; i++) y[i] += sigma * rnd.nextGaussian();
+        Measurement m = Analyzer.analyze(y, fs, SampleUnit.VOLTS, AnalysisSettings.DEFAULT.withBand(Band.NYQUIST));
+        assertEquals(Measurement.Method.MULTI_HARMONIC_FIT, m.method());
+        double nd = 0.01 * 0.01 / 2 + sigma * sigma;
+        assertEquals(10 * Math.log10(nd / (0.5 + nd)), m.thdN().db(), 0.1);
+        assertEquals(-40, m.harmonics().get(1).dbc(), 0.1);
+        // the floor is the noise: σ relative to the fundamental rms, within 10 %
+        assertEquals(sigma / Math.sqrt(0.5), m.floor().measuredNoiseRatio(), 0.1 * sigma / Math.sqrt(0.5));
     }
 }

@@ -59,4 +59,22 @@ class SineFitterTest {
         double crb = 12 * fs * fs / (Math.pow(2 * Math.PI, 2) * eta * n * ((double) n * n - 1));
         assertTrue(var < 1.5 * crb && var > 0.6 * crb, "variance " + var + " vs bound " + crb);
     }
+
+    /**
+     * Window-weighted four-parameter fit: a strong H3 (−14 dBc) on a non-integer number of cycles biases the
+     * unweighted fit; weighting by the 7-term Blackman-Harris window (−180 dB sidelobes, Solomon 1994) removes
+     * the bias to below 1e-7 Hz.
+     */
+    @Test
+    void strongHarmonic_weightedFitRemovesFrequencyBias() {
+        double fs = 48000, f = 1000.37;
+        int n = 24000;
+        double[] y = new double[n];
+        for (int i = 0; i < n; i++) y[i] = Math.cos(2 * Math.PI * f * i / fs) + 0.2 * Math.cos(2 * Math.PI * 3 * f * i / fs + 1);
+        SineFit plain = SineFitter.fit(y, fs);
+        SineFit weighted = SineFitter.fourParameterWeighted(y, fs, plain.frequencyHz(), Window.BLACKMAN_HARRIS_7.samples(n));
+        assertTrue(weighted.converged());
+        assertEquals(f, weighted.frequencyHz(), 1e-7);
+        assertEquals(1.0, weighted.amplitudePeak(), 1e-4);
+    }
 }

@@ -34,15 +34,15 @@ public final class LevelSweep {
         for (LevelPoint p : points) {
             Require.notNull("point", p);
             if (Math.abs(p.frequencyHz() - first.frequencyHz()) > FREQUENCY_TOLERANCE * first.frequencyHz())
-                throw new IllegalArgumentException(String.format(Locale.ROOT, "%s: frequency %.6g Hz differs from %.6g Hz in %s (tolerance 1 %%)",
-                        p.fileName(), p.frequencyHz(), first.frequencyHz(), first.fileName()));
+                throw new IllegalArgumentException(p.fileName() + ": frequency " + num6(p.frequencyHz()) + " Hz differs from "
+                        + num6(first.frequencyHz()) + " Hz in " + first.fileName() + " (tolerance 1 %)");
             if (p.loadOhms() != first.loadOhms())
-                throw new IllegalArgumentException(String.format(Locale.ROOT, "%s: load %.6g ohm differs from %.6g ohm in %s",
-                        p.fileName(), p.loadOhms(), first.loadOhms(), first.fileName()));
+                throw new IllegalArgumentException(p.fileName() + ": load " + num6(p.loadOhms()) + " ohm differs from "
+                        + num6(first.loadOhms()) + " ohm in " + first.fileName());
             if (!p.calibrationLabel().equals(first.calibrationLabel())
                     || Math.abs(p.fullScaleVolts() - first.fullScaleVolts()) > 1e-6 * Math.max(Math.abs(first.fullScaleVolts()), 1e-12))
-                throw new IllegalArgumentException(String.format(Locale.ROOT, "%s: calibration '%s' (%.6g V full scale) differs from '%s' (%.6g V) in %s",
-                        p.fileName(), p.calibrationLabel(), p.fullScaleVolts(), first.calibrationLabel(), first.fullScaleVolts(), first.fileName()));
+                throw new IllegalArgumentException(p.fileName() + ": calibration '" + p.calibrationLabel() + "' (" + num6(p.fullScaleVolts())
+                        + " V full scale) differs from '" + first.calibrationLabel() + "' (" + num6(first.fullScaleVolts()) + " V) in " + first.fileName());
         }
         List<LevelPoint> sorted = new ArrayList<>(points);
         sorted.sort(Comparator.comparingDouble(LevelPoint::powerWatts));
@@ -78,6 +78,10 @@ public final class LevelSweep {
 
     private static String pct(double ratio) {
         return trim(String.format(Locale.ROOT, "%.3g", 100 * ratio)) + " %";
+    }
+
+    private static String num6(double v) {
+        return trim(String.format(Locale.ROOT, "%.6g", v));
     }
 
     private static String num(double v) {

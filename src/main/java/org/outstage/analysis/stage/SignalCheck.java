@@ -25,7 +25,9 @@ import org.outstage.analysis.SineFit;
  *       (Hann window, ±6 bins per line) — noise, or a tone buried in it;</li>
  *   <li><b>two tones</b>: a line that is not a harmonic of the strongest one reaches −20 dB (10 %) of it.
  *       Twin-tone and SMPTE-type intermodulation tests put their second tone at 0 dB or −12 dB; hum and spurs
- *       on a working bench sit below −40 dB, so −20 dB separates them with margin.</li>
+ *       on a working bench sit below −40 dB, so −20 dB separates them with margin. The line must also stand
+ *       30 dB above the median spectral level, so that noise is not read as a tone; harmonics up to the 50th
+ *       are not second tones.</li>
  * </ol>
  * At most the first 2^17 samples are used for the spectral rules and 65 536 evenly spread samples for the
  * plateau rule. Pure and thread-safe.
@@ -123,14 +125,21 @@ public final class SignalCheck {
         int guard = 6;
         int k0 = guard + 1;
         for (int k = guard + 1; k < half; k++) if (p[k] > p[k0]) k0 = k;
-        if (k0 < 3 * guard) return Optional.empty(); // too few cycles in the spectral window to separate lines
+        if (k0 < 3 * guard || k0 + 1 >= half) return Optional.empty(); // too few cycles in the window to separate lines
+        // fractional peak (quadratic interpolation of the log power) so high harmonics are placed well
+        double k0f = k0;
+        if (k0 + 1 < half) {
+            double a = Math.log(p[k0 - 1] + 1e-300), b = Math.log(p[k0] + 1e-300), c = Math.log(p[k0 + 1] + 1e-300);
+            double den = a - 2 * b + c;
+            if (den < 0) k0f = k0 + Math.max(-0.5, Math.min(0.5, 0.5 * (a - c) / den));
+        }
         boolean[] line = new boolean[half];
         for (int k = 0; k <= guard; k++) line[k] = true;
-        // harmonics, folded back when they alias past half the sample rate (synthetic or poorly filtered records)
-        for (int hN = 1; (long) hN * k0 < 8L * half && hN <= 200; hN++) {
-            int c = (int) (((long) hN * k0) % m);
-            if (c > half) c = m - c;
-            int w = guard + Math.min(hN, 20);
+        // harmonics 1..50 below half the sample rate (a capture is anti-aliased, so harmonics are not folded:
+        // folding would make, e.g., 20 kHz the aliased 4th harmonic of 19 kHz at 48 kHz)
+        for (int hN = 1; hN <= 50 && hN * k0f < half; hN++) {
+            int c = (int) Math.round(hN * k0f);
+            int w = guard + (int) Math.ceil(0.1 * hN);
             for (int k = Math.max(0, c - w); k <= Math.min(half - 1, c + w); k++) line[k] = true;
         }
         double total = 0, inLines = 0;
@@ -140,16 +149,19 @@ public final class SignalCheck {
             if (line[k]) inLines += p[k];
             else if (k2 < 0 || p[k] > p[k2]) k2 = k;
         }
-        double f0 = (double) k0 * fs / m;
-        if (inLines < 0.5 * total)
-            return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
-                    f0, 100 * inLines / total));
+        double f0 = k0f * fs / m;
         if (k2 > 0) {
+            double[] sorted = Arrays.copyOfRange(p, guard + 1, half);
+            Arrays.sort(sorted);
+            double median = sorted[sorted.length / 2];
             double ratio = Math.sqrt(p[k2] / p[k0]);
-            if (ratio >= 0.1)
+            if (ratio >= 0.1 && p[k2] >= 1000 * median)
                 return Optional.of(String.format(Locale.ROOT, TWO_TONES + ": a line at %.4g Hz, %.1f dB relative to the %.4g Hz tone, is not one of its harmonics",
                         (double) k2 * fs / m, 20 * Math.log10(ratio), f0));
         }
+        if (inLines < 0.5 * total)
+            return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
+                    f0, 100 * inLines / total));
         return Optional.empty();
     }
 }

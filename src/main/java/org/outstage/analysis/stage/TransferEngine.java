@@ -13,6 +13,9 @@ import org.outstage.analysis.TransferCurve;
  * workhorse of {@link StageAnalyzer}; stateless.
  */
 final class TransferEngine {
+    /** Largest fall of the gain from 50 % to 90 % of peak accepted for a large-signal reference (0.05 %). */
+    static final double OUTER_FALL_LIMIT = 5e-4;
+
     private TransferEngine() {}
 
     /** What the engine returns to the analyzer. */
@@ -27,6 +30,30 @@ final class TransferEngine {
     static Result analyze(double[] x, boolean[] rising, double[] y, double peak, double sampleRateHz,
                           StageSettings s, boolean fromReference, double nearZeroResidualShare, double nearZeroTimeShare,
                           String unit) {
+        return analyze(x, rising, y, peak, sampleRateHz, s, fromReference, nearZeroResidualShare, nearZeroTimeShare, unit,
+                quantisationStep(y));
+    }
+
+    /**
+     * Smallest positive step between distinct values of (up to 65 536 evenly spread) samples: the resolution of
+     * an integer-coded capture (8-bit scope: range/256), or a tiny number for a continuous one.
+     */
+    static double quantisationStep(double[] y) {
+        int n = y.length, take = Math.min(n, 65536);
+        double[] v = new double[take];
+        for (int i = 0; i < take; i++) v[i] = y[(int) ((long) i * n / take)];
+        Arrays.sort(v);
+        double range = v[take - 1] - v[0], q = Double.POSITIVE_INFINITY;
+        for (int i = 1; i < take; i++) {
+            double d = v[i] - v[i - 1];
+            if (d > 1e-9 * range && d < q) q = d;
+        }
+        return Double.isFinite(q) ? q : 0;
+    }
+
+    static Result analyze(double[] x, boolean[] rising, double[] y, double peak, double sampleRateHz,
+                          StageSettings s, boolean fromReference, double nearZeroResidualShare, double nearZeroTimeShare,
+                          String unit, double quantStep) {
         int nb = s.binCount();
         int n = x.length;
         double width = 2 * peak / nb;
@@ -132,8 +159,16 @@ final class TransferEngine {
         double notchWidth = notchWidth(xs, ng, r, s.notchGainTolerance());
         double depth = 0;
         for (int i = 0; i < m; i++) if (Math.abs(xs[i]) < 0.5 * peak) depth = Math.max(depth, Math.abs(dev[i]));
+        // flatness of the outer swing: past the crossover region one device carries the load and its gain rises
+        // slowly with current (re = VT/I falls), so g(0.9P) >= g(0.5P); a falling gain means the "outer" swing is
+        // still in the crossover region (level too low for a large-signal reference)
+        double gIn = 0.5 * ((1 + p5.slope) + (1 + n5.slope)), gOut = 0.5 * ((1 + p9.slope) + (1 + n9.slope));
+        double flat = gOut / gIn - 1;
+        double flatSe = 0.5 * Math.sqrt(p5.slopeVar + n5.slopeVar + p9.slopeVar + n9.slopeVar) / Math.abs(gIn);
+        boolean outerFalling = flat + s.verdictSigmas() * flatSe < -OUTER_FALL_LIMIT;
         CrossoverMetrics crossover = verdict(r, rSe, g0, outer, notchWidth, depth, peak, nearZeroResidualShare,
-                nearZeroTimeShare, hyst, outerClipped, s);
+                nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
+                quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, s);
         return new Result(transfer, clipping, crossover);
     }
 
@@ -372,7 +407,7 @@ final class TransferEngine {
 
     private static CrossoverMetrics verdict(double r, double rSe, double g0, double outer, double notchWidth, double depth,
                                             double peak, double nzShare, double nzTime, Hysteresis hyst, boolean outerClipped,
-                                            StageSettings s) {
+                                            double outerFall, double coarseStep, StageSettings s) {
         double band = s.nearOptimalBand(), k = s.verdictSigmas();
         double lo = 1 - band, hi = 1 + band;
         double pUnder = phi((lo - r), rSe), pOver = phi((r - hi), rSe);
@@ -387,6 +422,14 @@ final class TransferEngine {
         } else if (outerClipped) {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "clipping reaches into the outer swing used as the large-signal reference; lower the level, " + rTxt;
+        } else if (coarseStep > 0) {
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = String.format(java.util.Locale.ROOT, "the capture's resolution (steps of %.4g) is too coarse for the crossover region: the gain there reads the steps, not the stage; use a finer capture (soundcard), ",
+                    coarseStep) + rTxt;
+        } else if (!Double.isNaN(outerFall)) {
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = String.format(java.util.Locale.ROOT, "the gain falls by %.2f %% from 50 %% to 90 %% of peak: the outer swing is still in the crossover region; measure at a higher level, ",
+                    -100 * outerFall) + rTxt;
         } else if (r + k * rSe < lo) {
             v = BiasVerdict.UNDERBIASED; conf = pUnder;
             why = rTxt + ": the gain dips at the crossing (notch); raise the quiescent current";

@@ -1,0 +1,27 @@
+package org.outstage.analysis;
+
+import java.util.concurrent.Executors;
+import org.jtransforms.fft.DoubleFFT_1D;
+import pl.edu.icm.jlargearrays.ConcurrencyUtils;
+
+/**
+ * The one place analysis creates JTransforms FFTs. On first use it gives JTransforms (through JLargeArrays)
+ * a thread pool of daemon threads: the library's default pool is non-daemon and keeps a JVM alive for about
+ * 60 s after the last large FFT (toolchain.md, P7).
+ */
+final class Fft {
+    private Fft() {}
+
+    static {
+        ConcurrencyUtils.setThreadPool(Executors.newCachedThreadPool(r -> {
+            Thread t = new Thread(r, "outstage-fft");
+            t.setDaemon(true);
+            return t;
+        }));
+    }
+
+    /** A real-input FFT of length {@code n} (JTransforms {@code realForward} layout). Not thread-safe: one per use. */
+    static DoubleFFT_1D of(int n) {
+        return new DoubleFFT_1D(n);
+    }
+}

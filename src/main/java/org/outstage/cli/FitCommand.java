@@ -1,0 +1,163 @@
+package org.outstage.cli;
+
+import static org.outstage.cli.ModelOptions.fmt;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.TreeMap;
+import java.util.concurrent.Callable;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.TransferCurve;
+import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.json.Json;
+import org.outstage.model.BiasFit;
+import org.outstage.model.BiasFitResult;
+import org.outstage.model.SolverFailureException;
+import org.outstage.model.StageParameters;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+/**
+ * {@code outstage fit FILE}: estimates the bias of a stage from a measured transfer curve and says whether to raise or
+ * lower it. FILE is either a capture (WAV or scope CSV of the amplifier's output, read and diagnosed like
+ * {@code analyze}, whose measured transfer curve is used) or a transfer-curve CSV whose header names the columns
+ * {@code output_v} and {@code gain} (incremental gain against output voltage; any scale: the fit normalises it).
+ * Exit codes: 0 ok, 1 solver failure, 2 bad input.
+ */
+@Command(name = "fit", sortOptions = false, mixinStandardHelpOptions = true,
+        description = {"Estimate a stage's bias from a measured transfer curve and advise (raise, lower, leave it).",
+                "FILE: a capture (WAV or scope CSV of the output, as for analyze) or a CSV with columns output_v,gain.",
+                "Exit codes: 0 ok, 1 solver failure, 2 bad input."})
+public final class FitCommand implements Callable<Integer> {
+    @Spec CommandSpec spec;
+    @Parameters(index = "0", paramLabel = "FILE", description = "Capture (WAV or scope CSV) or transfer-curve CSV (columns output_v,gain).") Path file;
+    @Mixin ModelOptions stage;
+    @Option(names = "--level-v", paramLabel = "V", description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
+    @Option(names = "--tolerance-mv", paramLabel = "MV", description = "Within this of the optimum the advice is 'leave it' (default 2).") double toleranceMv = 2;
+    @Option(names = "--json", description = "Print the result as JSON.") boolean json;
+    @Option(names = "--fs-volts", paramLabel = "V", description = "Capture: WAV calibration, peak volts at the output that reach full scale (divider included).") Double fsVolts;
+    @Option(names = "--probe", paramLabel = "X", description = "Capture: scope CSV calibration, multiply values by X.") Double probe;
+    @Option(names = "--channel", paramLabel = "N", description = "Capture: channel to fit, from 1 (needed when several are measured).") Integer channel;
+    @Option(names = "--sample-rate", paramLabel = "HZ", description = "Capture: sample rate of a scope CSV without time column.") Double sampleRate;
+    @Option(names = "--reference", paramLabel = "N", description = "Capture: channel (from 1) carrying the generator signal, for an X-Y transfer curve.") Integer reference;
+
+    @Override
+    public Integer call() {
+        PrintWriter out = spec.commandLine().getOut();
+        StageParameters p = stage.parameters();
+        double level = levelV != null ? levelV : 0.6 * p.railVolts();
+        if (!(level > 0)) throw new BadInputException("level-v=" + level + " must be > 0");
+        if (!(toleranceMv > 0)) throw new BadInputException("tolerance-mv=" + toleranceMv + " must be > 0");
+        TransferCurve curve = isCurveCsv(file) ? readCurve(file) : measuredCurve();
+        BiasFitResult r;
+        try {
+            r = BiasFit.fit(curve, p, level, toleranceMv / 1e3, stage.solver());
+        } catch (SolverFailureException e) {
+            PrintWriter err = spec.commandLine().getErr();
+            err.println("outstage: fit: solver failure: " + e.getMessage());
+            err.flush();
+            return OutstageCommand.EXIT_FAULT;
+        }
+        if (json) {
+            out.println(Json.pretty(Json.obj("file", file.toString(), "topology", p.topology().name(), "vq_mv", r.vqVolts() * 1e3,
+                    "bias_v", r.biasVolts(), "optimum_vq_mv", r.optimumVqVolts() * 1e3, "optimum_at_search_limit", r.optimumAtSearchLimit(),
+                    "optimum_level_v", r.levelVolts(), "fit_rms_residual", r.rmsResidual(), "gain_noise", r.gainNoise(),
+                    "residual_limit", r.residualLimit(), "advice_given", r.adviceGiven(), "advice", r.advice(), "points", r.points())));
+        } else {
+            out.println("Bias fit: " + file + " as a " + p.topology().name() + " stage (" + ModelCommand.describe(p) + ")");
+            out.println(fmt("  estimated Vq   %8.2f mV per emitter resistor (bias generator %.4f V)", r.vqVolts() * 1e3, r.biasVolts()));
+            if (r.optimumAtSearchLimit()) out.println("  optimum Vq     none below class A for this model");
+            else out.println(fmt("  optimum Vq     %8.2f mV (flattest gain over |Vout| <= %.3g V)", r.optimumVqVolts() * 1e3, r.levelVolts()));
+            out.println(fmt("  fit residual   %8.3f %% RMS over %d points (measurement noise %.3f %%, limit %.3f %%)", r.rmsResidual() * 100,
+                    r.points(), r.gainNoise() * 100, r.residualLimit() * 100));
+            out.println("Advice: " + r.advice());
+        }
+        out.flush();
+        return 0;
+    }
+
+    /** True when the file's first non-comment line names the columns output_v (or vout, as {@code model --csv} writes) and gain. */
+    static boolean isCurveCsv(Path file) {
+        if (!Files.isRegularFile(file)) throw new BadInputException(file + ": no such file");
+        if (!file.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".csv")) return false;
+        try (var lines = Files.lines(file, StandardCharsets.UTF_8)) {
+            String first = lines.map(String::strip).filter(l -> !l.isEmpty() && !l.startsWith("#")).findFirst().orElse("");
+            List<String> cols = java.util.Arrays.stream(first.toLowerCase(Locale.ROOT).split(",")).map(String::strip).toList();
+            return (cols.contains("output_v") || cols.contains("vout")) && cols.contains("gain");
+        } catch (IOException | java.io.UncheckedIOException e) {
+            return false; // not text: let the capture readers say what is wrong
+        }
+    }
+
+    /** Reads the capture and returns the measured transfer curve of the chosen channel. */
+    private TransferCurve measuredCurve() {
+        List<String> args = new ArrayList<>();
+        if (fsVolts != null) { args.add("--fs-volts"); args.add(Double.toString(fsVolts)); }
+        if (probe != null) { args.add("--probe"); args.add(Double.toString(probe)); }
+        if (channel != null) { args.add("--channel"); args.add(Integer.toString(channel)); }
+        if (sampleRate != null) { args.add("--sample-rate"); args.add(Double.toString(sampleRate)); }
+        if (reference != null) { args.add("--reference"); args.add(Integer.toString(reference)); }
+        AnalyzeOptions options = picocli.CommandLine.populateCommand(new AnalyzeOptions(), args.toArray(String[]::new));
+        Measuring.FileResult fr = Measuring.measure(file, options);
+        List<Measurement> ms = fr.measurements();
+        if (ms.isEmpty()) throw new BadInputException(file + ": no channel to fit");
+        if (ms.size() > 1) throw new BadInputException(file + ": " + ms.size() + " channels measured; choose one with --channel");
+        Measurement m = ms.get(0);
+        if (m.stage() instanceof StageDiagnosis.Measured d) return d.transfer().curve();
+        throw new BadInputException(file + " channel " + m.channel() + ": no transfer curve: " + ((StageDiagnosis.NotMeasured) m.stage()).reason());
+    }
+
+    /** Reads output_v,gain columns (header required, comma separated, '#' comment lines allowed). */
+    static TransferCurve readCurve(Path file) {
+        List<String> lines;
+        try {
+            lines = Files.readAllLines(file, StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw new BadInputException(file + ": cannot read (" + e.getMessage() + ")");
+        }
+        int header = -1, cx = -1, cg = -1;
+        TreeMap<Double, Double> pts = new TreeMap<>();
+        for (int i = 0; i < lines.size(); i++) {
+            String t = lines.get(i).strip();
+            if (t.isEmpty() || t.startsWith("#")) continue;
+            String[] f = t.split(",");
+            if (header < 0) {
+                for (int k = 0; k < f.length; k++) {
+                    String name = f[k].strip().toLowerCase(Locale.ROOT);
+                    if (name.equals("output_v") || (name.equals("vout") && cx < 0)) cx = k;
+                    if (name.equals("gain")) cg = k;
+                }
+                if (cx < 0 || cg < 0) throw new BadInputException(file + " line " + (i + 1) + ": header must name the columns output_v (or vout) and gain");
+                header = i;
+                continue;
+            }
+            if (f.length <= Math.max(cx, cg)) throw new BadInputException(file + " line " + (i + 1) + ": expected " + (Math.max(cx, cg) + 1) + " columns");
+            double x, g;
+            try {
+                x = Double.parseDouble(f[cx].strip());
+                g = Double.parseDouble(f[cg].strip());
+            } catch (NumberFormatException e) {
+                throw new BadInputException(file + " line " + (i + 1) + ": not a number");
+            }
+            if (!Double.isFinite(x) || !Double.isFinite(g)) throw new BadInputException(file + " line " + (i + 1) + ": value is not finite");
+            if (pts.put(x, g) != null) throw new BadInputException(file + " line " + (i + 1) + ": output_v " + x + " appears twice");
+        }
+        if (header < 0) throw new BadInputException(file + ": empty (expected a header output_v,gain and rows)");
+        if (pts.size() < 10) throw new BadInputException(file + ": needs at least 10 rows, has " + pts.size());
+        double[] x = new double[pts.size()], g = new double[pts.size()];
+        int k = 0;
+        for (var e : pts.entrySet()) { x[k] = e.getKey(); g[k] = e.getValue(); k++; }
+        return new TransferCurve(x, x.clone(), g, "V");
+    }
+
+}
