@@ -1,0 +1,177 @@
+package org.outstage.ui;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
+import java.util.OptionalDouble;
+import java.util.OptionalInt;
+import java.util.function.BooleanSupplier;
+import java.util.function.DoubleConsumer;
+import org.outstage.analysis.AnalysisSettings;
+import org.outstage.analysis.Analyzer;
+import org.outstage.analysis.Band;
+import org.outstage.analysis.Levels;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.Weighting;
+import org.outstage.analysis.stage.LevelPoint;
+import org.outstage.analysis.stage.Residual;
+import org.outstage.analysis.stage.StageAnalyzer;
+import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.analysis.stage.StageSettings;
+import org.outstage.capture.Capture;
+import org.outstage.capture.CaptureOptions;
+import org.outstage.capture.CaptureReader;
+import org.outstage.plot.Charts;
+import org.outstage.plot.Range;
+import org.outstage.plot.Ticks;
+
+/**
+ * The workbench's backend on the real pipeline: {@link CaptureReader} opens files, {@link Analyzer} measures,
+ * {@link StageAnalyzer} gives the residual waveform. Figures are formatted from the {@link Measurement}
+ * as they are; the only arithmetic here converts the spectrum's dB re fundamental to dBV or dBFS for the axis.
+ */
+final class AnalyzerBackend implements Backend {
+
+    @Override
+    public Capture open(Path file, Calibration calibration) throws Exception {
+        CaptureOptions o = CaptureOptions.none();
+        if (calibration.fullScaleVolts().isPresent()) o = o.withFullScaleVolts(calibration.fullScaleVolts().getAsDouble());
+        if (calibration.probeRatio().isPresent()) o = o.withProbeFactor(calibration.probeRatio().getAsDouble());
+        return CaptureReader.open(file, o);
+    }
+
+    static AnalysisSettings settingsFor(UiSettings s, Calibration cal) {
+        AnalysisSettings a = AnalysisSettings.DEFAULT.withBand(new Band(s.band().lowHz, s.band().highHz))
+                .withWeighting(s.aWeighting() ? Weighting.A : Weighting.NONE).withHarmonics(s.harmonics());
+        if (cal.loadOhms().isPresent()) a = a.withLoadOhms(cal.loadOhms().getAsDouble());
+        if (s.referenceChannel().isPresent()) a = a.withReferenceChannel(s.referenceChannel().getAsInt() + 1);
+        return a;
+    }
+
+    @Override
+    public ViewData analyze(Capture capture, int channel, Calibration calibration, UiSettings settings,
+                            DoubleConsumer progress, BooleanSupplier cancelled) {
+        progress.accept(0.02);
+        OptionalInt ref = settings.referenceChannel();
+        UiSettings s = ref.isPresent() && (ref.getAsInt() >= capture.channelCount() || ref.getAsInt() == channel)
+                ? settings.withReference(OptionalInt.empty()) : settings;
+        Measurement m;
+        try {
+            m = Analyzer.analyze(capture, channel, settingsFor(s, calibration));
+        } catch (IllegalArgumentException | java.io.UncheckedIOException e) {
+            return ViewData.failed(capture.name(), "Not measured: " + WorkbenchPane.oneLine(e));
+        }
+        if (cancelled.getAsBoolean()) return ViewData.failed(capture.name(), "cancelled");
+        progress.accept(0.6);
+        return fromMeasurement(capture, channel, m, calibration, cancelled, progress);
+    }
+
+    /** Builds what the views show from a measurement (public to the tests, which compare against it). */
+    static ViewData fromMeasurement(Capture capture, int channel, Measurement m, Calibration cal, BooleanSupplier cancelled,
+                                    DoubleConsumer progress) {
+        String unit = m.unit();
+        String name = capture.name() + (capture.channelCount() > 1 ? " ch " + m.channel() : "");
+        if (!m.measured()) {
+            String why = m.notMeasuredReason().get();
+            return ViewData.failed(name, "Not measured: " + why);
+        }
+        List<FigureRow> rows = figures(m);
+        // waveform and residual over the analysis span (the fit refers to its first sample)
+        int span = Analyzer.spanFrames(capture);
+        double[] x = capture.readChannel(channel, span);
+        if (cancelled.getAsBoolean()) return ViewData.failed(name, "cancelled");
+        String part = span < capture.frameCount() ? " (first " + num(span / capture.sampleRateHz()) + " s of "
+                + num(capture.durationSeconds()) + " s)" : "";
+        Panel wave = Panel.of(Charts.waveform(name + " — waveform" + part, x, m.sampleRateHz(), 0, unit, Optional.of(m.sineFit())));
+        progress.accept(0.75);
+        Panel res;
+        try {
+            Residual r = StageAnalyzer.residual(x, m.sampleRateHz(), m.sineFit(), StageSettings.defaults().withUnit(unit));
+            res = Panel.of(Charts.residual(name + " — residual", r.samples(), m.sampleRateHz(), 0, unit,
+                    m.fundamental().amplitudePeak(), m.fundamental().frequencyHz()));
+        } catch (IllegalArgumentException e) {
+            res = Panel.message("No residual: " + WorkbenchPane.oneLine(e));
+        }
+        progress.accept(0.9);
+        // spectrum: dB re fundamental from the analysis, shifted to dBV (volts) or dBFS (full scale, re a full-scale sine)
+        Measurement.Spectrum sp = m.spectrum();
+        double shift;
+        String dbUnit;
+        if (unit.equals("V")) { shift = Levels.ratioToDb(m.fundamental().rms()); dbUnit = "dBV"; }
+        else { shift = Levels.ratioToDb(m.fundamental().rms() * Math.sqrt(2)); dbUnit = "dBFS"; }
+        double[] lv = sp.levelDb();
+        for (int i = 0; i < lv.length; i++) lv[i] += shift;
+        int k = m.harmonics().size();
+        int[] orders = new int[k];
+        double[] hf = new double[k], hl = new double[k];
+        for (int i = 0; i < k; i++) {
+            Measurement.Harmonic h = m.harmonics().get(i);
+            orders[i] = h.order();
+            hf[i] = h.frequencyHz();
+            hl[i] = h.dbc() + shift;
+        }
+        Panel spectrum = sp.size() == 0 ? Panel.message("No spectrum for this record")
+                : Panel.of(Charts.spectrum(name + " — spectrum" + (sp.blocks() > 1 ? " (" + sp.blocks() + " blocks averaged)" : ""), sp.frequencyHz(), lv, dbUnit,
+                Charts.harmonicMarkers(orders, hf, hl), Optional.of(new Range(m.thdN().lowHz(), m.thdN().highHz())),
+                Double.isFinite(sp.noiseFloorDb()) ? OptionalDouble.of(sp.noiseFloorDb() + shift) : OptionalDouble.empty()));
+        double[] dbc = new double[k];
+        for (int i = 0; i < k; i++) dbc[i] = m.harmonics().get(i).dbc();
+        Panel harmonics = k == 0 ? Panel.message("No harmonics inside the band for this fundamental")
+                : Panel.of(Charts.harmonicProfile(name + " — harmonic profile", orders, dbc));
+        Optional<org.outstage.analysis.TransferCurve> curve = m.stage() instanceof StageDiagnosis.Measured d
+                ? Optional.of(d.transfer().curve()) : Optional.empty();
+        Optional<ViewData.SweepPoint> sweep = Optional.empty();
+        if (m.powerWatts().isPresent() && m.thd().ratio() > 0 && m.thdN().ratio() > 0) {
+            Measurement.Power p = m.powerWatts().get();
+            sweep = Optional.of(new ViewData.SweepPoint(new LevelPoint(capture.name(), m.fundamental().frequencyHz(), p.loadOhms(),
+                    cal.fullScaleVolts().isPresent() ? "full scale " + cal.fullScaleVolts().getAsDouble() + " V" : "volts",
+                    cal.fullScaleVolts().orElse(0), p.fundamentalWatts(), m.thd().ratio(), m.thdN().ratio())));
+        }
+        progress.accept(1);
+        return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, harmonics, curve, sweep);
+    }
+
+    /** The figures table, formatted from the measurement. */
+    static List<FigureRow> figures(Measurement m) {
+        List<FigureRow> rows = new ArrayList<>();
+        String u = m.unit();
+        rows.add(new FigureRow("frequencyValue", "Fundamental", num(m.fundamental().frequencyHz()), "Hz", ""));
+        String levelNote = u.equals("V") ? num(Levels.ratioToDb(m.fundamental().rms())) + " dBV"
+                : num(Levels.ratioToDb(m.fundamental().rms() * Math.sqrt(2))) + " dBFS";
+        rows.add(new FigureRow("levelValue", "Level (rms)", num(m.fundamental().rms()), u, levelNote));
+        m.powerWatts().ifPresent(p -> rows.add(new FigureRow("powerValue", "Power", num(p.fundamentalWatts()), "W",
+                "into " + num(p.loadOhms()) + " Ω")));
+        rows.add(new FigureRow("thdValue", "THD", pct(m.thd().percent()), "%",
+                num(m.thd().db()) + " dB; H2–H" + m.settings().harmonics()));
+        Measurement.ThdN t = m.thdN();
+        String band = Levels.formatHz(t.lowHz()) + "–" + Levels.formatHz(t.highHz()) + (t.weighting() == Weighting.A ? ", A-wtd" : "");
+        rows.add(new FigureRow("thdnValue", "THD+N", pct(t.percent()), "%",
+                "floor " + pct(Levels.ratioToPercent(m.floor().ratio())) + " %" + (t.atFloor() ? " (at the floor)" : "") + "; " + band));
+        rows.add(new FigureRow("floorValue", "Measurement floor", pct(Levels.ratioToPercent(m.floor().ratio())), "%",
+                m.floor().kind().name().toLowerCase(Locale.ROOT).replace('_', ' ')));
+        rows.add(new FigureRow("sinadValue", "SINAD", num(m.sinadDb()), "dB", "ENOB " + num(m.enob()) + " bits"));
+        rows.add(new FigureRow("dcValue", "DC offset", num(m.dcOffset()), u, ""));
+        for (Measurement.Harmonic h : m.harmonics())
+            rows.add(new FigureRow("h" + h.order() + "Value", "H" + h.order(), num(h.dbc()), "dBc", pct(Levels.ratioToPercent(h.ratio())) + " %"));
+        if (m.stage() instanceof StageDiagnosis.Measured d) {
+            rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
+                    d.crossover().explanation()));
+            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero (rel.)", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
+                    "± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
+        } else if (m.stage() instanceof StageDiagnosis.NotMeasured n) {
+            rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", n.reason()));
+        }
+        return rows;
+    }
+
+    static String num(double v) { return Double.isFinite(v) ? Ticks.withUnit(v, "").trim() : "—"; }
+
+    /** Percent with 3 significant digits, plain notation down to 0.0001 %. */
+    static String pct(double p) {
+        if (!Double.isFinite(p)) return "—";
+        if (p == 0) return "0";
+        return new java.math.BigDecimal(p).round(new java.math.MathContext(3)).stripTrailingZeros().toPlainString();
+    }
+}

@@ -1,0 +1,165 @@
+package org.outstage.ui;
+
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.concurrent.atomic.AtomicLong;
+import javafx.application.Platform;
+import javafx.beans.value.ObservableValue;
+import javafx.collections.FXCollections;
+import javafx.collections.ObservableList;
+import javafx.geometry.Insets;
+import javafx.scene.Node;
+import javafx.scene.control.ComboBox;
+import javafx.scene.control.Label;
+import javafx.scene.layout.Priority;
+import javafx.scene.layout.VBox;
+import org.controlsfx.control.PropertySheet;
+import org.outstage.analysis.TransferCurve;
+import org.outstage.plot.ChartSpec;
+import org.outstage.plot.Charts;
+
+/**
+ * The model side of the transfer view: topology choice and parameters in a ControlsFX PropertySheet; every
+ * change of a value recomputes the model's prediction and redraws the overlay on the measured curve. The
+ * prediction runs on a worker thread; only the newest request is shown.
+ */
+final class TransferPanel {
+    private final Optional<StageModelAdapter> model;
+    private final VBox box = new VBox(6);
+    final ComboBox<String> topologyChoice = new ComboBox<>();
+    final PropertySheet sheet = new PropertySheet();
+    final Label modelMessage = new Label();
+    private final Map<String, Double> values = new LinkedHashMap<>();
+    private Runnable onChange = () -> {};
+    private final AtomicLong generation = new AtomicLong();
+    private volatile TransferCurve lastPrediction;
+    private ChartCanvas target;
+    private Optional<TransferCurve> measured = Optional.empty();
+
+    TransferPanel(Optional<StageModelAdapter> model) {
+        this.model = model;
+        box.setPadding(new Insets(6));
+        box.setId("modelPanel");
+        topologyChoice.setId("topologyChoice");
+        sheet.setId("modelSheet");
+        sheet.setModeSwitcherVisible(false);
+        sheet.setSearchBoxVisible(false);
+        modelMessage.setId("modelMessage");
+        modelMessage.setWrapText(true);
+        modelMessage.setStyle("-fx-text-fill: #a0281e;");
+        VBox.setVgrow(sheet, Priority.ALWAYS);
+        if (model.isEmpty()) {
+            modelMessage.setText("No stage model is part of this build: the transfer view shows the measured curve only.");
+            box.getChildren().addAll(new Label("Stage model"), modelMessage);
+        } else {
+            topologyChoice.getItems().setAll(model.get().topologies());
+            topologyChoice.valueProperty().addListener((o, a, b) -> { if (b != null) loadTopology(b); });
+            box.getChildren().addAll(new Label("Stage model (topology)"), topologyChoice, sheet, modelMessage);
+            if (!topologyChoice.getItems().isEmpty()) {
+                topologyChoice.setValue(topologyChoice.getItems().get(0));
+                loadTopology(topologyChoice.getValue());
+            }
+        }
+    }
+
+    Node node() { return box; }
+
+    void setOnChange(Runnable r) { this.onChange = r; }
+
+    Map<String, Double> values() { return Map.copyOf(values); }
+
+    /** The prediction now drawn, if any (tests compare it with the model's own result). */
+    Optional<TransferCurve> lastPrediction() { return Optional.ofNullable(lastPrediction); }
+
+    private void loadTopology(String topology) {
+        values.clear();
+        ObservableList<PropertySheet.Item> items = FXCollections.observableArrayList();
+        for (StageModelAdapter.Parameter p : model.get().parameters(topology)) {
+            values.put(p.key(), p.defaultValue());
+            items.add(new Item(p));
+        }
+        sheet.getItems().setAll(items);
+        onChange.run();
+    }
+
+    /** Sets a parameter as the sheet's editor would, and recomputes. */
+    void set(String key, double value) {
+        values.put(key, value);
+        onChange.run();
+    }
+
+    /** Draws the measured curve and the model's prediction on {@code chart}. */
+    void show(ChartCanvas chart, Optional<TransferCurve> measuredCurve) {
+        this.target = chart;
+        this.measured = measuredCurve;
+        if (model.isEmpty() || topologyChoice.getValue() == null) {
+            if (measuredCurve.isPresent())
+                chart.setSpec(Charts.transfer("Incremental gain against output", measuredCurve.get(), Optional.empty(), ""));
+            else chart.setMessage("No transfer curve: this result carries no measured curve and no model is available.");
+            return;
+        }
+        String topology = topologyChoice.getValue();
+        Map<String, Double> v = Map.copyOf(values);
+        long gen = generation.incrementAndGet();
+        Thread th = new Thread(() -> {
+            TransferCurve pred = null;
+            String err = "";
+            try {
+                pred = model.get().predict(topology, v);
+            } catch (RuntimeException e) {
+                err = "Model: " + WorkbenchPane.oneLine(e);
+            }
+            TransferCurve p = pred;
+            String m = err;
+            Platform.runLater(() -> {
+                if (gen != generation.get()) return;
+                lastPrediction = p;
+                modelMessage.setText(m);
+                draw(p, topology, m);
+            });
+        }, "outstage-model");
+        th.setDaemon(true);
+        th.start();
+    }
+
+    private void draw(TransferCurve prediction, String topology, String error) {
+        ChartCanvas chart = target;
+        if (chart == null) return;
+        ChartSpec spec;
+        if (measured.isPresent())
+            spec = Charts.transfer("Incremental gain against output", measured.get(), Optional.ofNullable(prediction), topology);
+        else if (prediction != null)
+            spec = Charts.transferModelOnly("Incremental gain against output (model)", prediction, topology);
+        else {
+            chart.setMessage(error.isEmpty() ? "No transfer curve" : error);
+            return;
+        }
+        if (chart.spec().isPresent() && chart.spec().get().title().equals(spec.title())) chart.updateSpec(spec); else chart.setSpec(spec);
+    }
+
+    /** A PropertySheet row bound to one model parameter. */
+    private final class Item implements PropertySheet.Item {
+        private final StageModelAdapter.Parameter p;
+
+        Item(StageModelAdapter.Parameter p) { this.p = p; }
+
+        @Override public Class<?> getType() { return Double.class; }
+        @Override public String getCategory() { return topologyChoice.getValue(); }
+        @Override public String getName() { return p.label() + (p.unit().isEmpty() ? "" : " (" + p.unit() + ")"); }
+        @Override public String getDescription() { return p.description(); }
+        @Override public Object getValue() { return values.getOrDefault(p.key(), p.defaultValue()); }
+
+        @Override
+        public void setValue(Object value) {
+            if (value instanceof Number n && Double.isFinite(n.doubleValue())) {
+                values.put(p.key(), n.doubleValue());
+                onChange.run();
+            }
+        }
+
+        @Override public Optional<ObservableValue<? extends Object>> getObservableValue() { return Optional.empty(); }
+    }
+
+}

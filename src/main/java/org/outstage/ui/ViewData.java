@@ -1,0 +1,44 @@
+package org.outstage.ui;
+
+import java.util.List;
+import java.util.Optional;
+import org.outstage.analysis.TransferCurve;
+
+/**
+ * Everything the views show for one capture, built by a {@link Backend} from a measurement result.
+ * Views only display this; they never compute a figure.
+ *
+ * @param captureName   name of the capture
+ * @param figures       rows of the figures table (THD+N with its floor beside it)
+ * @param notMeasured   why there are no figures, if so
+ * @param waveform      waveform with the fitted fundamental
+ * @param residual      residual, magnified
+ * @param spectrum      spectrum
+ * @param harmonics     harmonic profile
+ * @param measuredCurve measured transfer curve for the transfer view, if the result has one
+ * @param sweepPoint    this capture's point for the level sweep: power (W), THD and THD+N (fractions)
+ */
+record ViewData(String captureName, List<FigureRow> figures, Optional<String> notMeasured, Panel waveform, Panel residual,
+                Panel spectrum, Panel harmonics, Optional<TransferCurve> measuredCurve, Optional<SweepPoint> sweepPoint) {
+
+    ViewData {
+        figures = List.copyOf(figures);
+    }
+
+    /** One point of a level sweep: the analysis's level point (power, THD, THD+N and its conditions). */
+    record SweepPoint(org.outstage.analysis.stage.LevelPoint point) {
+        double powerWatts() { return point.powerWatts(); }
+        double thd() { return point.thdRatio(); }
+        double thdN() { return point.thdNRatio(); }
+    }
+
+    static ViewData failed(String name, String message) {
+        Panel p = Panel.message(message);
+        return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, Optional.empty(), Optional.empty());
+    }
+
+    Optional<FigureRow> figure(String id) {
+        return figures.stream().filter(f -> f.id().equals(id)).findFirst();
+    }
+
+}

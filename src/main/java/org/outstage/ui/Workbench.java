@@ -1,0 +1,62 @@
+package org.outstage.ui;
+
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Optional;
+import javafx.application.Application;
+import javafx.scene.Scene;
+import javafx.scene.control.Alert;
+import javafx.scene.control.ButtonType;
+import javafx.scene.control.CheckBox;
+import javafx.scene.control.Label;
+import javafx.scene.layout.VBox;
+import javafx.stage.Stage;
+import javafx.stage.Window;
+
+/**
+ * The Outstage workbench (JavaFX Application). Start it through {@link WorkbenchLauncher}; the files to
+ * open come as the application's parameters.
+ */
+public final class Workbench extends Application {
+
+    /** The backend the workbench uses in this build. */
+    static Backend defaultBackend() { return new AnalyzerBackend(); }
+
+    /** The stage model in this build, if any. */
+    static Optional<StageModelAdapter> defaultModel() { return Optional.empty(); }
+
+    /** Builds the window content (also used by tests and the screenshot tool). */
+    static WorkbenchPane createPane() {
+        return new WorkbenchPane(defaultBackend(), new TransferPanel(defaultModel()));
+    }
+
+    @Override
+    public void start(Stage stage) {
+        WorkbenchPane pane = createPane();
+        Scene scene = new Scene(pane, 1360, 820);
+        stage.setTitle("Outstage workbench");
+        stage.setScene(scene);
+        stage.show();
+        List<Path> files = getParameters().getRaw().stream().map(Path::of).toList();
+        if (!files.isEmpty()) pane.openPaths(files);
+        if (!Cautions.dismissed(Cautions.dismissalFile())) showCautions(stage, true);
+    }
+
+    /** Shows the cautions; on first start a check box lets the user stop it appearing at start-up. */
+    static void showCautions(Window owner, boolean firstStart) {
+        Alert a = new Alert(Alert.AlertType.WARNING, "", ButtonType.OK);
+        a.initOwner(owner);
+        a.setTitle(Cautions.TITLE);
+        a.setHeaderText(Cautions.TITLE);
+        Label text = new Label(Cautions.TEXT);
+        text.setWrapText(true);
+        text.setMaxWidth(560);
+        text.setId("cautionsText");
+        CheckBox dontShow = new CheckBox("Do not show this at start-up again (it stays in the Help menu)");
+        VBox box = firstStart ? new VBox(12, text, dontShow) : new VBox(12, text);
+        a.getDialogPane().setContent(box);
+        a.getDialogPane().setPrefWidth(620);
+        a.showAndWait();
+        if (firstStart && dontShow.isSelected()) Cautions.rememberDismissal(Cautions.dismissalFile());
+    }
+}

@@ -1,0 +1,675 @@
+package org.outstage.ui;
+
+import java.io.File;
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
+import java.util.OptionalDouble;
+import java.util.OptionalInt;
+import java.util.stream.Stream;
+import javafx.beans.value.ChangeListener;
+import javafx.collections.FXCollections;
+import javafx.concurrent.Task;
+import javafx.concurrent.Worker;
+import javafx.embed.swing.SwingFXUtils;
+import javafx.geometry.Insets;
+import javafx.geometry.Pos;
+import javafx.scene.Node;
+import javafx.scene.control.Button;
+import javafx.scene.control.CheckBox;
+import javafx.scene.control.ComboBox;
+import javafx.scene.control.Label;
+import javafx.scene.control.ListCell;
+import javafx.scene.control.ListView;
+import javafx.scene.control.Menu;
+import javafx.scene.control.MenuBar;
+import javafx.scene.control.MenuItem;
+import javafx.scene.control.ProgressBar;
+import javafx.scene.control.SelectionMode;
+import javafx.scene.control.Spinner;
+import javafx.scene.control.SplitPane;
+import javafx.scene.control.Tab;
+import javafx.scene.control.TabPane;
+import javafx.scene.control.TableColumn;
+import javafx.scene.control.TableView;
+import javafx.scene.control.TextField;
+import javafx.scene.control.TitledPane;
+import javafx.scene.control.Tooltip;
+import javafx.scene.image.WritableImage;
+import javafx.scene.input.Clipboard;
+import javafx.scene.input.ClipboardContent;
+import javafx.scene.input.KeyCode;
+import javafx.scene.input.KeyCodeCombination;
+import javafx.scene.input.KeyCombination;
+import javafx.scene.input.TransferMode;
+import javafx.scene.layout.BorderPane;
+import javafx.scene.layout.FlowPane;
+import javafx.scene.layout.GridPane;
+import javafx.scene.layout.HBox;
+import javafx.scene.layout.Priority;
+import javafx.scene.layout.Region;
+import javafx.scene.layout.VBox;
+import javafx.scene.control.cell.PropertyValueFactory;
+import javafx.beans.property.ReadOnlyStringWrapper;
+import javafx.stage.FileChooser;
+import javafx.stage.Window;
+import javax.imageio.ImageIO;
+import org.outstage.capture.Capture;
+import org.outstage.plot.ChartSpec;
+import org.outstage.plot.Charts;
+import org.outstage.plot.CsvExport;
+import org.outstage.report.SvgRenderer;
+
+/**
+ * The workbench window's content: capture list with calibration on the left, views in the middle,
+ * settings and figures on the right, progress at the bottom. All analysis runs in {@link Task}s off the
+ * FX thread; the views show what the {@link Backend} returns and never compute a figure.
+ */
+final class WorkbenchPane extends BorderPane {
+    private final Backend backend;
+    final ListView<CaptureEntry> captureList = new ListView<>();
+    final Label importError = new Label();
+    final TextField fullScaleField = new TextField();
+    final TextField probeField = new TextField();
+    final TextField loadField = new TextField();
+    final Label calibrationError = new Label();
+    final ComboBox<Integer> channelChoice = new ComboBox<>();
+    final ComboBox<UiSettings.BandChoice> bandChoice = new ComboBox<>(FXCollections.observableArrayList(UiSettings.BandChoice.values()));
+    final CheckBox weightingBox = new CheckBox("A-weighting (IEC 61672-1)");
+    final Spinner<Integer> harmonicsSpinner = new Spinner<>(2, 50, 10);
+    final ComboBox<String> referenceChoice = new ComboBox<>();
+    final TabPane views = new TabPane();
+    final ChartCanvas waveformChart = chart("waveformChart");
+    final ChartCanvas residualChart = chart("residualChart");
+    final ChartCanvas spectrumChart = chart("spectrumChart");
+    final ChartCanvas harmonicsChart = chart("harmonicsChart");
+    final ChartCanvas transferChart = chart("transferChart");
+    final ChartCanvas sweepChart = chart("sweepChart");
+    final TableView<FigureRow> figuresTable = new TableView<>();
+    final FlowPane summary = new FlowPane(14, 4);
+    final Label statusText = new Label("Open captures with File ▸ Open, or drop files or folders here.");
+    final ProgressBar progress = new ProgressBar(0);
+    final Button cancelButton = new Button("Cancel");
+    final TransferPanel transferPanel;
+    private ChartCanvas currentChart = waveformChart;
+    private Task<?> running;
+    private UiSettings settings = UiSettings.DEFAULT;
+    private boolean updatingControls;
+
+    WorkbenchPane(Backend backend, TransferPanel transferPanel) {
+        this.backend = backend;
+        this.transferPanel = transferPanel;
+        setId("workbench");
+        setTop(menus());
+        setLeft(captureSide());
+        setCenter(viewTabs());
+        setRight(settingsSide());
+        setBottom(statusBar());
+        setOnDragOver(e -> {
+            if (e.getDragboard().hasFiles()) e.acceptTransferModes(TransferMode.COPY);
+            e.consume();
+        });
+        setOnDragDropped(e -> {
+            boolean ok = e.getDragboard().hasFiles();
+            if (ok) openPaths(e.getDragboard().getFiles().stream().map(File::toPath).toList());
+            e.setDropCompleted(ok);
+            e.consume();
+        });
+        showNothing();
+    }
+
+    private static ChartCanvas chart(String id) {
+        ChartCanvas c = new ChartCanvas();
+        c.setId(id);
+        return c;
+    }
+
+    // ---- layout -----------------------------------------------------------------------------------
+
+    private MenuBar menus() {
+        MenuItem open = new MenuItem("Open captures…");
+        open.setAccelerator(new KeyCodeCombination(KeyCode.O, KeyCombination.SHORTCUT_DOWN));
+        open.setOnAction(e -> openByDialog());
+        MenuItem quit = new MenuItem("Quit");
+        quit.setOnAction(e -> { Window w = getScene().getWindow(); if (w != null) w.hide(); });
+        Menu file = new Menu("File", null, open, quit);
+        MenuItem png = new MenuItem("Export chart as PNG…");
+        png.setOnAction(e -> exportByDialog("png"));
+        MenuItem svg = new MenuItem("Export chart as SVG…");
+        svg.setOnAction(e -> exportByDialog("svg"));
+        MenuItem csv = new MenuItem("Export chart data as CSV…");
+        csv.setOnAction(e -> exportByDialog("csv"));
+        MenuItem reset = new MenuItem("Show whole chart");
+        reset.setOnAction(e -> currentChart.resetZoom());
+        Menu chart = new Menu("Chart", null, png, svg, csv, reset);
+        MenuItem cautions = new MenuItem("Cautions");
+        cautions.setOnAction(e -> Workbench.showCautions(getScene().getWindow(), false));
+        MenuItem help = new MenuItem("Using the charts");
+        help.setOnAction(e -> statusText.setText("Wheel: zoom · drag: zoom box · right-drag or Ctrl-drag: pan · double-click: whole chart"));
+        Menu helpMenu = new Menu("Help", null, cautions, help);
+        MenuBar bar = new MenuBar(file, chart, helpMenu);
+        bar.setId("menuBar");
+        return bar;
+    }
+
+    private Node captureSide() {
+        captureList.setId("captureList");
+        captureList.getSelectionModel().setSelectionMode(SelectionMode.SINGLE);
+        captureList.setCellFactory(v -> new ListCell<>() {
+            @Override protected void updateItem(CaptureEntry item, boolean empty) {
+                super.updateItem(item, empty);
+                setText(empty || item == null ? null : item.toString());
+                setStyle(!empty && item != null && item.failed() ? "-fx-text-fill: #a0281e;" : "");
+                setTooltip(!empty && item != null && item.failed() ? new Tooltip(item.error) : null);
+            }
+        });
+        captureList.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> onSelect(b));
+        captureList.setPrefWidth(250);
+        VBox.setVgrow(captureList, Priority.ALWAYS);
+        Button openButton = new Button("Open…");
+        openButton.setId("openButton");
+        openButton.setOnAction(e -> openByDialog());
+        importError.setId("importError");
+        importError.setWrapText(true);
+        importError.setStyle("-fx-text-fill: #a0281e;");
+        importError.setMaxWidth(250);
+
+        fullScaleField.setId("fullScaleField");
+        fullScaleField.setPromptText("V at full scale");
+        probeField.setId("probeField");
+        probeField.setPromptText("e.g. 10");
+        loadField.setId("loadField");
+        loadField.setPromptText("e.g. 8");
+        channelChoice.setId("channelChoice");
+        Button apply = new Button("Apply");
+        apply.setId("applyCalibration");
+        apply.setOnAction(e -> applyCalibration());
+        calibrationError.setId("calibrationError");
+        calibrationError.setWrapText(true);
+        calibrationError.setStyle("-fx-text-fill: #a0281e;");
+        calibrationError.setMaxWidth(250);
+        GridPane g = new GridPane();
+        g.setHgap(6);
+        g.setVgap(4);
+        g.addRow(0, new Label("Full scale (V)"), fullScaleField);
+        g.addRow(1, new Label("Probe ratio"), probeField);
+        g.addRow(2, new Label("Load (Ω)"), loadField);
+        g.addRow(3, new Label("Channel"), channelChoice);
+        for (TextField f : List.of(fullScaleField, probeField, loadField)) f.setPrefColumnCount(6);
+        g.getColumnConstraints().add(new javafx.scene.layout.ColumnConstraints(96));
+        channelChoice.valueProperty().addListener((o, a, b) -> {
+            CaptureEntry e = selected();
+            if (!updatingControls && e != null && b != null && b - 1 != e.channel) { e.channel = b - 1; analyzeSelected(); }
+        });
+        VBox cal = new VBox(6, g, apply, calibrationError);
+        TitledPane calPane = new TitledPane("Calibration of the selected capture", cal);
+        calPane.setCollapsible(false);
+        VBox side = new VBox(6, new HBox(6, new Label("Captures"), spacer(), openButton), captureList, importError, calPane);
+        side.setPadding(new Insets(6));
+        side.setPrefWidth(262);
+        return side;
+    }
+
+    private Node viewTabs() {
+        views.setId("views");
+        views.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
+        SplitPane wave = new SplitPane(waveformChart, residualChart);
+        wave.setOrientation(javafx.geometry.Orientation.VERTICAL);
+        wave.setDividerPositions(0.5);
+        Tab t1 = tab("waveformTab", "Waveform and residual", wave);
+        Tab t2 = tab("spectrumTab", "Spectrum", spectrumChart);
+        Tab t3 = tab("harmonicsTab", "Harmonic profile", harmonicsChart);
+        SplitPane tr = new SplitPane(transferChart, transferPanel.node());
+        tr.setDividerPositions(0.68);
+        Tab t4 = tab("transferTab", "Transfer and model", tr);
+        Tab t5 = tab("sweepTab", "Level sweep", sweepChart);
+        views.getTabs().addAll(t1, t2, t3, t4, t5);
+        views.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> currentChart = primaryChart(b));
+        for (ChartCanvas c : List.of(waveformChart, residualChart, spectrumChart, harmonicsChart, transferChart, sweepChart))
+            c.addEventFilter(javafx.scene.input.MouseEvent.MOUSE_PRESSED, e -> currentChart = c);
+        transferPanel.setOnChange(this::refreshTransfer);
+        return views;
+    }
+
+    private ChartCanvas primaryChart(Tab t) {
+        if (t == null) return waveformChart;
+        return switch (t.getId()) {
+            case "spectrumTab" -> spectrumChart;
+            case "harmonicsTab" -> harmonicsChart;
+            case "transferTab" -> transferChart;
+            case "sweepTab" -> sweepChart;
+            default -> waveformChart;
+        };
+    }
+
+    private static Tab tab(String id, String title, Node content) {
+        Tab t = new Tab(title, content);
+        t.setId(id);
+        return t;
+    }
+
+    private Node settingsSide() {
+        bandChoice.setId("bandChoice");
+        bandChoice.setValue(settings.band());
+        weightingBox.setId("weightingBox");
+        harmonicsSpinner.setId("harmonicsSpinner");
+        harmonicsSpinner.setEditable(true);
+        harmonicsSpinner.setPrefWidth(80);
+        referenceChoice.setId("referenceChoice");
+        referenceChoice.getItems().setAll("none");
+        referenceChoice.setValue("none");
+        bandChoice.valueProperty().addListener((o, a, b) -> { if (b != null) changeSettings(settings.withBand(b)); });
+        weightingBox.selectedProperty().addListener((o, a, b) -> changeSettings(settings.withAWeighting(b)));
+        harmonicsSpinner.valueProperty().addListener((o, a, b) -> { if (b != null) changeSettings(settings.withHarmonics(b)); });
+        referenceChoice.valueProperty().addListener((o, a, b) -> {
+            if (b == null || updatingControls) return;
+            changeSettings(settings.withReference(b.equals("none") ? OptionalInt.empty() : OptionalInt.of(Integer.parseInt(b) - 1)));
+        });
+        GridPane g = new GridPane();
+        g.setHgap(6);
+        g.setVgap(4);
+        g.addRow(0, new Label("Band"), bandChoice);
+        g.addRow(1, new Label("Weighting"), weightingBox);
+        g.addRow(2, new Label("Harmonics up to H"), harmonicsSpinner);
+        g.addRow(3, new Label("Reference channel"), referenceChoice);
+        TitledPane sp = new TitledPane("Measurement settings", g);
+        sp.setCollapsible(false);
+
+        figuresTable.setId("figuresTable");
+        figuresTable.setColumnResizePolicy(TableView.CONSTRAINED_RESIZE_POLICY);
+        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 125));
+        figuresTable.getColumns().add(column("Value", FigureRow::value, 85));
+        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 38));
+        figuresTable.getColumns().add(column("Note", FigureRow::note, 170));
+        figuresTable.getSelectionModel().setSelectionMode(SelectionMode.MULTIPLE);
+        figuresTable.setOnKeyPressed(e -> {
+            if (new KeyCodeCombination(KeyCode.C, KeyCombination.SHORTCUT_DOWN).match(e)) copyFigures();
+        });
+        figuresTable.setPlaceholder(new Label("No figures yet"));
+        figuresTable.setRowFactory(tv -> new javafx.scene.control.TableRow<>() {
+            @Override protected void updateItem(FigureRow r, boolean empty) {
+                super.updateItem(r, empty);
+                setTooltip(empty || r == null ? null : new Tooltip(r.quantity() + ": " + r.value() + " " + r.unit() + (r.note().isEmpty() ? "" : "\n" + r.note())));
+            }
+        });
+        VBox.setVgrow(figuresTable, Priority.ALWAYS);
+        Button copy = new Button("Copy figures");
+        copy.setId("copyFigures");
+        copy.setOnAction(e -> copyFigures());
+        summary.setId("summary");
+        VBox side = new VBox(6, sp, new Label("Figures of the selected capture"), summary, figuresTable, copy);
+        side.setPadding(new Insets(6));
+        side.setPrefWidth(440);
+        return side;
+    }
+
+    private static TableColumn<FigureRow, String> column(String title, java.util.function.Function<FigureRow, String> f, double w) {
+        TableColumn<FigureRow, String> c = new TableColumn<>(title);
+        c.setCellValueFactory(d -> new ReadOnlyStringWrapper(f.apply(d.getValue())));
+        c.setPrefWidth(w);
+        c.setSortable(false);
+        return c;
+    }
+
+    private Node statusBar() {
+        statusText.setId("statusText");
+        progress.setId("progress");
+        progress.setPrefWidth(160);
+        progress.setVisible(false);
+        cancelButton.setId("cancelButton");
+        cancelButton.setDisable(true);
+        cancelButton.setOnAction(e -> { if (running != null) running.cancel(); });
+        HBox bar = new HBox(8, statusText, spacer(), progress, cancelButton);
+        bar.setAlignment(Pos.CENTER_LEFT);
+        bar.setPadding(new Insets(3, 6, 3, 6));
+        bar.setStyle("-fx-border-color: #c8c8c8 transparent transparent transparent;");
+        return bar;
+    }
+
+    private static Region spacer() {
+        Region r = new Region();
+        HBox.setHgrow(r, Priority.ALWAYS);
+        return r;
+    }
+
+    // ---- opening ----------------------------------------------------------------------------------
+
+    private void openByDialog() {
+        FileChooser fc = new FileChooser();
+        fc.setTitle("Open captures");
+        fc.getExtensionFilters().addAll(new FileChooser.ExtensionFilter("Captures (WAV, CSV)", "*.wav", "*.WAV", "*.csv", "*.CSV", "*.txt"),
+                new FileChooser.ExtensionFilter("All files", "*.*"));
+        List<File> files = fc.showOpenMultipleDialog(getScene().getWindow());
+        if (files != null) openPaths(files.stream().map(File::toPath).toList());
+    }
+
+    /** Opens files, and the capture files inside folders; each failure stays beside its file. */
+    void openPaths(List<Path> paths) {
+        List<Path> files = new ArrayList<>();
+        for (Path p : paths) {
+            if (Files.isDirectory(p)) {
+                try (Stream<Path> s = Files.list(p)) {
+                    s.filter(f -> Files.isRegularFile(f) && isCaptureName(f)).sorted(Comparator.comparing(Path::toString)).forEach(files::add);
+                } catch (IOException e) {
+                    CaptureEntry bad = new CaptureEntry(String.valueOf(p.getFileName()), Optional.of(p));
+                    bad.error = "folder cannot be read: " + e.getMessage();
+                    captureList.getItems().add(bad);
+                }
+            } else files.add(p);
+        }
+        if (files.isEmpty()) return;
+        List<CaptureEntry> entries = new ArrayList<>();
+        for (Path f : files) entries.add(new CaptureEntry(String.valueOf(f.getFileName()), Optional.of(f)));
+        captureList.getItems().addAll(entries);
+        Task<List<Object>> t = new Task<>() {
+            @Override protected List<Object> call() {
+                List<Object> out = new ArrayList<>();
+                for (int i = 0; i < entries.size(); i++) {
+                    if (isCancelled()) break;
+                    updateMessage("Opening " + entries.get(i).name + "…");
+                    updateProgress(i, entries.size());
+                    try {
+                        out.add(backend.open(entries.get(i).path.get(), Calibration.NONE));
+                    } catch (Exception e) {
+                        out.add(oneLine(e));
+                    }
+                }
+                return out;
+            }
+        };
+        t.setOnSucceeded(e -> {
+            List<Object> r = t.getValue();
+            for (int i = 0; i < r.size(); i++) {
+                CaptureEntry en = entries.get(i);
+                if (r.get(i) instanceof Capture c) en.capture = c; else en.error = (String) r.get(i);
+            }
+            captureList.refresh();
+            long failed = entries.stream().filter(CaptureEntry::failed).count();
+            statusText.setText("Opened " + (entries.size() - failed) + " of " + entries.size() + " file(s)"
+                    + (failed > 0 ? "; " + failed + " could not be read (see the list)" : ""));
+            CaptureEntry first = entries.stream().filter(x -> !x.failed()).findFirst().orElse(entries.get(0));
+            if (captureList.getSelectionModel().getSelectedItem() == first) onSelect(first);
+            else captureList.getSelectionModel().select(first);
+            analyzeAllForSweep();
+        });
+        run(t, "Opening files");
+    }
+
+    /** Adds a capture already in memory (tests, generated signals). */
+    void addCapture(Capture c) {
+        CaptureEntry e = new CaptureEntry(c.name(), Optional.empty());
+        e.capture = c;
+        captureList.getItems().add(e);
+        captureList.getSelectionModel().select(e);
+    }
+
+    static boolean isCaptureName(Path f) {
+        String n = f.getFileName().toString().toLowerCase(Locale.ROOT);
+        return n.endsWith(".wav") || n.endsWith(".wave") || n.endsWith(".rf64") || n.endsWith(".bw64") || n.endsWith(".csv");
+    }
+
+    static String oneLine(Throwable e) {
+        String m = e.getMessage();
+        if (m == null || m.isBlank()) m = e.getClass().getSimpleName();
+        int nl = m.indexOf('\n');
+        return nl >= 0 ? m.substring(0, nl) : m;
+    }
+
+    // ---- selection, settings, analysis -----------------------------------------------------------
+
+    CaptureEntry selected() { return captureList.getSelectionModel().getSelectedItem(); }
+
+    private void onSelect(CaptureEntry e) {
+        updatingControls = true;
+        try {
+            importError.setText(e != null && e.failed() ? e.name + ": " + e.error : "");
+            calibrationError.setText("");
+            if (e == null) { showNothing(); return; }
+            fullScaleField.setText(text(e.calibration.fullScaleVolts()));
+            probeField.setText(text(e.calibration.probeRatio()));
+            loadField.setText(text(e.calibration.loadOhms()));
+            channelChoice.getItems().clear();
+            referenceChoice.getItems().setAll("none");
+            if (e.capture != null) {
+                for (int i = 1; i <= e.capture.channelCount(); i++) { channelChoice.getItems().add(i); referenceChoice.getItems().add(Integer.toString(i)); }
+                channelChoice.setValue(e.channel + 1);
+            }
+            referenceChoice.setValue(settings.referenceChannel().isPresent() && e.capture != null
+                    && settings.referenceChannel().getAsInt() < e.capture.channelCount() ? Integer.toString(settings.referenceChannel().getAsInt() + 1) : "none");
+        } finally {
+            updatingControls = false;
+        }
+        if (e.failed()) { show(ViewData.failed(e.name, "Could not open " + e.name + ": " + e.error)); return; }
+        if (e.capture == null) { showNothing(); statusText.setText("Opening " + e.name + "…"); return; }
+        if (e.data != null) show(e.data);
+        analyzeSelected();
+    }
+
+    private static String text(OptionalDouble v) {
+        if (v.isEmpty()) return "";
+        double d = v.getAsDouble();
+        return d == Math.rint(d) && Math.abs(d) < 1e12 ? Long.toString((long) d) : Double.toString(d);
+    }
+
+    private void applyCalibration() {
+        CaptureEntry e = selected();
+        if (e == null) return;
+        Calibration cal;
+        try {
+            cal = new Calibration(Calibration.parseField("Full scale", fullScaleField.getText()),
+                    Calibration.parseField("Probe ratio", probeField.getText()), Calibration.parseField("Load", loadField.getText()));
+        } catch (IllegalArgumentException ex) {
+            calibrationError.setText(ex.getMessage());
+            return;
+        }
+        calibrationError.setText("");
+        e.calibration = cal;
+        if (e.path.isPresent()) {
+            Calibration c = cal;
+            Task<Capture> t = new Task<>() {
+                @Override protected Capture call() throws Exception { return backend.open(e.path.get(), c); }
+            };
+            t.setOnSucceeded(x -> { e.capture = t.getValue(); e.error = ""; captureList.refresh(); analyzeSelected(); });
+            t.setOnFailed(x -> { calibrationError.setText(oneLine(t.getException())); });
+            run(t, "Reopening " + e.name);
+        } else analyzeSelected();
+    }
+
+    private void changeSettings(UiSettings s) {
+        if (s.equals(settings)) return;
+        settings = s;
+        for (CaptureEntry e : captureList.getItems()) e.data = null;
+        analyzeSelected();
+    }
+
+    UiSettings settings() { return settings; }
+
+    /** Analyses the selected capture in the background, replacing any analysis still running. */
+    void analyzeSelected() {
+        CaptureEntry e = selected();
+        if (e == null || e.capture == null) return;
+        Capture c = e.capture;
+        int ch = e.channel;
+        Calibration cal = e.calibration;
+        UiSettings s = settings;
+        Task<ViewData> t = new Task<>() {
+            @Override protected ViewData call() {
+                updateMessage("Analysing " + e.name + "…");
+                return backend.analyze(c, ch, cal, s, f -> updateProgress(f, 1), this::isCancelled);
+            }
+        };
+        t.setOnSucceeded(x -> {
+            e.data = t.getValue();
+            if (selected() == e) show(e.data);
+            statusText.setText(e.data.notMeasured().map(r -> e.name + ": " + r).orElse(e.name + ": analysed"));
+            refreshSweep();
+        });
+        t.setOnFailed(x -> {
+            ViewData d = ViewData.failed(e.name, "Analysis failed: " + oneLine(t.getException()));
+            if (selected() == e) show(d);
+            statusText.setText(d.notMeasured().get());
+        });
+        run(t, "Analysing " + e.name);
+    }
+
+    /** Analyses every opened capture that has no result yet (for the level sweep), one after another. */
+    void analyzeAllForSweep() {
+        List<CaptureEntry> todo = captureList.getItems().stream().filter(x -> x.capture != null && x.data == null && x != selected()).toList();
+        if (todo.isEmpty()) return;
+        UiSettings s = settings;
+        Thread th = new Thread(() -> {
+            for (CaptureEntry e : todo) {
+                ViewData d;
+                try {
+                    d = backend.analyze(e.capture, e.channel, e.calibration, s, f -> {}, () -> false);
+                } catch (RuntimeException ex) {
+                    continue;
+                }
+                javafx.application.Platform.runLater(() -> {
+                    if (e.data == null && settings.equals(s)) { e.data = d; refreshSweep(); }
+                });
+            }
+        }, "outstage-sweep");
+        th.setDaemon(true);
+        th.start();
+    }
+
+    private void run(Task<?> t, String what) {
+        if (running != null && running.isRunning()) running.cancel();
+        running = t;
+        progress.progressProperty().bind(t.progressProperty());
+        progress.setVisible(true);
+        cancelButton.setDisable(false);
+        statusText.setText(what + "…");
+        ChangeListener<Worker.State> done = (o, a, b) -> {
+            if (b == Worker.State.SUCCEEDED || b == Worker.State.FAILED || b == Worker.State.CANCELLED) {
+                if (running == t) {
+                    progress.progressProperty().unbind();
+                    progress.setVisible(false);
+                    cancelButton.setDisable(true);
+                    running = null;
+                }
+                if (b == Worker.State.CANCELLED) statusText.setText(what + ": cancelled");
+            }
+        };
+        t.stateProperty().addListener(done);
+        Thread th = new Thread(t, "outstage-analysis");
+        th.setDaemon(true);
+        th.start();
+    }
+
+    /** True while a background task runs (tests wait on it). */
+    boolean busy() { return running != null; }
+
+    // ---- showing ----------------------------------------------------------------------------------
+
+    private void showNothing() {
+        String m = "Open a capture to see its waveform, residual and figures.";
+        for (ChartCanvas c : List.of(waveformChart, residualChart, spectrumChart, harmonicsChart)) c.setMessage(m);
+        figuresTable.getItems().clear();
+        summary.getChildren().clear();
+        refreshTransfer();
+        refreshSweep();
+    }
+
+    void show(ViewData d) {
+        d.waveform().showOn(waveformChart);
+        d.residual().showOn(residualChart);
+        d.spectrum().showOn(spectrumChart);
+        d.harmonics().showOn(harmonicsChart);
+        figuresTable.getItems().setAll(d.figures());
+        summary.getChildren().clear();
+        if (d.notMeasured().isPresent()) {
+            Label l = new Label(d.notMeasured().get());
+            l.setId("notMeasured");
+            l.setWrapText(true);
+            l.setStyle("-fx-text-fill: #a0281e;");
+            summary.getChildren().add(l);
+        }
+        for (FigureRow r : d.figures()) {
+            if (!List.of("thdValue", "thdnValue", "floorValue", "frequencyValue", "levelValue", "powerValue").contains(r.id())) continue;
+            Label name = new Label(r.quantity());
+            name.setStyle("-fx-text-fill: #555555; -fx-font-size: 11px;");
+            Label value = new Label(r.value() + (r.unit().isEmpty() ? "" : " " + r.unit()));
+            value.setId(r.id());
+            value.setStyle("-fx-font-size: 15px; -fx-font-weight: bold;");
+            summary.getChildren().add(new VBox(0, name, value));
+        }
+        refreshTransfer();
+    }
+
+    private void refreshTransfer() {
+        CaptureEntry e = selected();
+        transferPanel.show(transferChart, e == null || e.data == null ? Optional.empty() : e.data.measuredCurve());
+    }
+
+    private void refreshSweep() {
+        List<ViewData.SweepPoint> pts = new ArrayList<>();
+        for (CaptureEntry e : captureList.getItems())
+            if (e.data != null) e.data.sweepPoint().ifPresent(pts::add);
+        pts.sort(Comparator.comparingDouble(ViewData.SweepPoint::powerWatts));
+        if (pts.size() < 2) {
+            sweepChart.setMessage("The level sweep needs two or more captures at rising level, in volts, with a load set ("
+                    + pts.size() + " so far).");
+            return;
+        }
+        double[] p = new double[pts.size()], a = new double[pts.size()], b = new double[pts.size()];
+        for (int i = 0; i < p.length; i++) { p[i] = pts.get(i).powerWatts(); a[i] = pts.get(i).thd(); b[i] = pts.get(i).thdN(); }
+        sweepChart.setSpec(Charts.levelSweep("THD and THD+N against output power", p, a, b, 0.01));
+    }
+
+    private void copyFigures() {
+        List<FigureRow> rows = figuresTable.getSelectionModel().getSelectedItems().isEmpty()
+                ? figuresTable.getItems() : figuresTable.getSelectionModel().getSelectedItems();
+        StringBuilder sb = new StringBuilder("Quantity\tValue\tUnit\tNote\n");
+        for (FigureRow r : rows) sb.append(r.tsv()).append('\n');
+        ClipboardContent c = new ClipboardContent();
+        c.putString(sb.toString());
+        Clipboard.getSystemClipboard().setContent(c);
+        statusText.setText("Copied " + rows.size() + " figure(s) to the clipboard");
+    }
+
+    // ---- export -----------------------------------------------------------------------------------
+
+    private void exportByDialog(String kind) {
+        ChartCanvas c = currentChart;
+        if (c.spec().isEmpty()) { statusText.setText("Nothing to export: this chart is empty"); return; }
+        FileChooser fc = new FileChooser();
+        fc.setTitle("Export chart");
+        fc.setInitialFileName(safeName(c.spec().get().title()) + "." + kind);
+        File f = fc.showSaveDialog(getScene().getWindow());
+        if (f == null) return;
+        try {
+            export(c, kind, f.toPath());
+            statusText.setText("Wrote " + f);
+        } catch (IOException | RuntimeException ex) {
+            statusText.setText("Could not write " + f + ": " + oneLine(ex));
+        }
+    }
+
+    /** Writes the chart as PNG (what is on screen), SVG (same spec through the SVG renderer) or CSV (its data). */
+    static void export(ChartCanvas c, String kind, Path file) throws IOException {
+        ChartSpec spec = c.spec().orElseThrow(() -> new IllegalArgumentException("the chart is empty"));
+        Path tmp = file.resolveSibling(file.getFileName() + ".part");
+        switch (kind) {
+            case "svg" -> Files.writeString(tmp, SvgRenderer.render(spec, (int) Math.max(320, c.getWidth()), (int) Math.max(200, c.getHeight())));
+            case "csv" -> Files.writeString(tmp, CsvExport.toCsv(spec));
+            case "png" -> {
+                WritableImage img = c.snapshot(null, null);
+                ImageIO.write(SwingFXUtils.fromFXImage(img, null), "png", tmp.toFile());
+            }
+            default -> throw new IllegalArgumentException("export kind '" + kind + "' must be png, svg or csv");
+        }
+        Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING);
+    }
+
+    static String safeName(String title) {
+        String s = title.replaceAll("[^A-Za-z0-9._-]+", "-").replaceAll("-+", "-").replaceAll("^-|-$", "");
+        return s.isEmpty() ? "chart" : s;
+    }
+}

@@ -1,0 +1,161 @@
+package org.outstage.ui;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.TimeUnit;
+import java.util.function.Supplier;
+import javafx.application.Platform;
+import javafx.embed.swing.SwingFXUtils;
+import javafx.scene.Scene;
+import javafx.scene.control.Label;
+import javafx.scene.control.Tab;
+import javafx.scene.image.WritableImage;
+import javafx.scene.layout.VBox;
+import javafx.stage.Stage;
+import javax.imageio.ImageIO;
+import org.outstage.capture.Capture;
+import org.outstage.capture.SampleUnit;
+
+/**
+ * Builds the workbench headless (Monocle, software rendering), loads the sample session (or, when
+ * sample-captures/ is missing, a few generated captures of an invented amplifier) and writes one PNG per
+ * view to the folder given as the first argument. Run through {@code tools/screenshots}.
+ */
+public final class ScreenshotTool {
+    /**
+     * Entry point when run through surefire ({@code tools/screenshots} does this, since surefire already
+     * carries the headless JavaFX settings): only with {@code -Doutstage.screenshots=DIR}. The class name
+     * does not match surefire's default includes, so normal builds never run it.
+     */
+    @org.junit.jupiter.api.Test
+    @org.junit.jupiter.api.condition.EnabledIfSystemProperty(named = "outstage.screenshots", matches = ".+")
+    void writeScreenshots() throws Exception {
+        run(Path.of(System.getProperty("outstage.screenshots")), false);
+    }
+
+    public static void main(String[] args) throws Exception {
+        run(Path.of(args.length > 0 ? args[0] : "docs/screenshots"), true);
+    }
+
+    static void run(Path out, boolean standalone) throws Exception {
+        Files.createDirectories(out);
+        try {
+            Platform.startup(() -> {});
+        } catch (IllegalStateException alreadyRunning) {
+            // started by an earlier test in the same JVM
+        }
+        Platform.setImplicitExit(false);
+        WorkbenchPane pane = fx(() -> {
+            WorkbenchPane p = Workbench.createPane();
+            Stage stage = new Stage();
+            stage.setScene(new Scene(p, 1360, 820));
+            stage.show();
+            return p;
+        });
+        var session = WorkbenchLauncher.sampleSession();
+        if (session.isPresent()) {
+            fx(() -> { pane.openPaths(List.of(session.get())); return null; });
+        } else {
+            fx(() -> {
+                for (Capture c : generated()) pane.addCapture(c);
+                for (CaptureEntry e : pane.captureList.getItems()) {
+                    e.calibration = new Calibration(java.util.OptionalDouble.empty(), java.util.OptionalDouble.empty(), java.util.OptionalDouble.of(8));
+                    e.data = null;   // analysed again with the load
+                }
+                pane.captureList.getSelectionModel().select(0);
+                pane.analyzeSelected();
+                pane.analyzeAllForSweep();
+                return null;
+            });
+        }
+        waitIdle(pane);
+        long until = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);   // let the level-sweep analyses of the other captures land
+        while (System.nanoTime() < until && fx(() -> pane.captureList.getItems().stream().anyMatch(e -> e.capture != null && e.data == null)))
+            Thread.sleep(200);
+        waitIdle(pane);
+        fx(() -> { if (!pane.captureList.getItems().isEmpty()) pane.captureList.getSelectionModel().select(pickShowcase(pane)); return null; });
+        waitIdle(pane);
+        String[][] shots = {{"waveformTab", "waveform-residual.png"}, {"spectrumTab", "spectrum.png"}, {"harmonicsTab", "harmonic-profile.png"},
+                {"transferTab", "transfer-model.png"}, {"sweepTab", "level-sweep.png"}};
+        for (String[] s : shots) {
+            fx(() -> {
+                Tab t = pane.views.getTabs().stream().filter(x -> x.getId().equals(s[0])).findFirst().orElseThrow();
+                pane.views.getSelectionModel().select(t);
+                return null;
+            });
+            waitIdle(pane);
+            Thread.sleep(600);
+            save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve(s[1]));
+        }
+        VBox cautions = fx(() -> {
+            Label head = new Label(Cautions.TITLE);
+            head.setStyle("-fx-font-size: 16px; -fx-font-weight: bold;");
+            Label text = new Label(Cautions.TEXT);
+            text.setWrapText(true);
+            text.setMaxWidth(600);
+            VBox b = new VBox(12, head, text);
+            b.setStyle("-fx-padding: 18; -fx-background-color: white;");
+            Stage st = new Stage();
+            st.setScene(new Scene(b, 640, 520));
+            st.show();
+            return b;
+        });
+        Thread.sleep(300);
+        save(fx(() -> cautions.snapshot(null, null)), out.resolve("cautions.png"));
+        if (standalone) Platform.exit();
+        System.out.println("screenshots written to " + out.toAbsolutePath());
+    }
+
+    /** The capture with the most to show: the first one whose name mentions crossover or low bias, else the first. */
+    private static int pickShowcase(WorkbenchPane pane) {
+        var items = pane.captureList.getItems();
+        for (int i = 0; i < items.size(); i++) {
+            String n = items.get(i).name.toLowerCase(java.util.Locale.ROOT);
+            if (!items.get(i).failed() && (n.contains("05vpk") || n.contains("crossover") || n.contains("low-bias") || n.contains("underbias"))) return i;
+        }
+        for (int i = 0; i < items.size(); i++) if (!items.get(i).failed()) return i;
+        return 0;
+    }
+
+    /**
+     * Invented amplifier (used only without sample-captures/): 1 kHz at rising levels into 8 Ω, a small
+     * crossover dead band, soft clipping near ±30 V rails, seeded noise.
+     */
+    static List<Capture> generated() {
+        double fs = 96_000;
+        double[] levels = {2, 5, 10, 20, 27, 30, 33};
+        return java.util.Arrays.stream(levels).mapToObj(peak -> {
+            double[] x = new double[(int) fs];
+            java.util.Random r = new java.util.Random(7);
+            for (int i = 0; i < x.length; i++) {
+                double s = peak * Math.sin(2 * Math.PI * 1000 * i / fs);
+                double v = s - 0.02 * Math.tanh(s / 0.02);
+                x[i] = v / Math.pow(1 + Math.pow(Math.abs(v) / 29, 8), 1 / 8.0);   // smooth limit at ±29 V
+                x[i] += 1e-4 * r.nextGaussian();
+            }
+            return Capture.inMemory(String.format(java.util.Locale.ROOT, "demo-amp-1kHz-%02.0fVpk.wav", peak), fs, SampleUnit.VOLTS, x);
+        }).toList();
+    }
+
+    private static void waitIdle(WorkbenchPane pane) throws Exception {
+        long end = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+        Thread.sleep(200);
+        while (System.nanoTime() < end && fx(pane::busy)) Thread.sleep(100);
+    }
+
+    private static void save(WritableImage img, Path file) throws Exception {
+        ImageIO.write(SwingFXUtils.fromFXImage(img, null), "png", file.toFile());
+        System.out.println("wrote " + file);
+    }
+
+    static <T> T fx(Supplier<T> s) throws Exception {
+        CompletableFuture<T> f = new CompletableFuture<>();
+        Platform.runLater(() -> {
+            try { f.complete(s.get()); } catch (Throwable t) { f.completeExceptionally(t); }
+        });
+        return f.get(60, TimeUnit.SECONDS);
+    }
+
+}

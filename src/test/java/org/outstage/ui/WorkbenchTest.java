@@ -1,0 +1,225 @@
+package org.outstage.ui;
+
+import static org.junit.jupiter.api.Assertions.*;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicInteger;
+import javafx.scene.Scene;
+import javafx.scene.control.Label;
+import javafx.scene.control.TabPane;
+import javafx.stage.Stage;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.ExtendWith;
+import org.junit.jupiter.api.io.TempDir;
+import org.outstage.analysis.SineFit;
+import org.outstage.analysis.Analyzer;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.TransferCurve;
+import org.outstage.capture.Capture;
+import org.outstage.capture.SampleUnit;
+import org.outstage.plot.Charts;
+import org.outstage.plot.Series;
+import org.testfx.api.FxRobot;
+import org.testfx.framework.junit5.ApplicationExtension;
+import org.testfx.framework.junit5.Start;
+import org.testfx.util.WaitForAsyncUtils;
+
+/**
+ * Headless (Monocle) checks that the workbench displays what the backend and the model return, that every
+ * view switches, that settings and model parameters take effect, and that an import error is shown in place.
+ */
+@ExtendWith(ApplicationExtension.class)
+class WorkbenchTest {
+    private WorkbenchPane pane;
+    private final AtomicInteger analyses = new AtomicInteger();
+    private volatile UiSettings lastSettings;
+
+    /** A cubic stage law y = g·(x − a·x³) on [−1, 1]: a small test model whose curve the test can recompute. */
+    static final class CubicModel implements StageModelAdapter {
+        @Override public List<String> topologies() { return List.of("cubic test law"); }
+        @Override public List<Parameter> parameters(String t) {
+            return List.of(new Parameter("gain", "Gain", "", 0.95, "small-signal gain"),
+                    new Parameter("cubic", "Cubic term", "", 0.02, "a in x − a·x³"));
+        }
+        @Override public TransferCurve predict(String t, Map<String, Double> v) {
+            double g = v.get("gain"), a = v.get("cubic");
+            if (g <= 0) throw new IllegalArgumentException("gain must be > 0");
+            int n = 101;
+            double[] in = new double[n], out = new double[n], d = new double[n];
+            for (int i = 0; i < n; i++) { in[i] = -1 + 2.0 * i / (n - 1); out[i] = g * (in[i] - a * Math.pow(in[i], 3)); d[i] = g * (1 - 3 * a * in[i] * in[i]); }
+            return new TransferCurve(in, out, d, "V");
+        }
+    }
+
+    @Start
+    void start(Stage stage) {
+        AnalyzerBackend fit = new AnalyzerBackend();
+        Backend counting = new Backend() {
+            @Override public Capture open(Path file, Calibration c) throws Exception { return fit.open(file, c); }
+            @Override public ViewData analyze(Capture c, int ch, Calibration cal, UiSettings s, java.util.function.DoubleConsumer p,
+                                              java.util.function.BooleanSupplier x) {
+                analyses.incrementAndGet();
+                lastSettings = s;
+                return fit.analyze(c, ch, cal, s, p, x);
+            }
+        };
+        pane = new WorkbenchPane(counting, new TransferPanel(Optional.of(new CubicModel())));
+        stage.setScene(new Scene(pane, 1280, 800));
+        stage.show();
+    }
+
+    /** 0.5 s at 96 kHz of a 997 Hz sine with a small dead band at each crossing and seeded white noise. */
+    static Capture sine(String name) {
+        double fs = 96_000;
+        double[] x = new double[48_000];
+        java.util.Random r = new java.util.Random(11);
+        for (int i = 0; i < x.length; i++) {
+            double s = 2.5 * Math.cos(2 * Math.PI * 997 * i / fs + 0.4);
+            x[i] = s - 0.01 * Math.tanh(s / 0.01) + 2e-4 * r.nextGaussian();
+        }
+        return Capture.inMemory(name, fs, SampleUnit.VOLTS, x);
+    }
+
+    static String shown(FxRobot robot, String id) {
+        return robot.lookup("#" + id).queryAs(Label.class).getText();
+    }
+
+    private void idle() throws Exception {
+        WaitForAsyncUtils.waitFor(20, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() -> !pane.busy()).get());
+        WaitForAsyncUtils.waitForFxEvents();
+    }
+
+    @Test
+    void sineCapture_figuresEqualTheAnalyzersMeasurementAndEveryViewShows(FxRobot robot) throws Exception {
+        Capture c = sine("bench sine");
+        robot.interact(() -> pane.addCapture(c));
+        idle();
+        // what the analyzer returns for the same capture and settings
+        Measurement m = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(UiSettings.DEFAULT, Calibration.NONE));
+        assertTrue(m.measured());
+        assertEquals(AnalyzerBackend.pct(m.thd().percent()) + " %", shown(robot, "thdValue"));
+        assertEquals(AnalyzerBackend.pct(m.thdN().percent()) + " %", shown(robot, "thdnValue"));
+        assertEquals(AnalyzerBackend.pct(100 * m.floor().ratio()) + " %", shown(robot, "floorValue"));
+        assertEquals(AnalyzerBackend.num(m.fundamental().frequencyHz()) + " Hz", shown(robot, "frequencyValue"));
+        FigureRow thdn = pane.figuresTable.getItems().stream().filter(r -> r.id().equals("thdnValue")).findFirst().orElseThrow();
+        assertTrue(thdn.note().startsWith("floor "), "floor beside THD+N: " + thdn.note());
+        assertEquals(m.harmonics().size(), pane.figuresTable.getItems().stream().filter(r -> r.quantity().matches("H\\d+")).count());
+        // the waveform chart shows the capture and the analyzer's fitted fundamental
+        SineFit expected = m.sineFit();
+        Series fitSeries = pane.waveformChart.spec().orElseThrow().series().get(1);
+        assertEquals(expected.valueAt(100 / c.sampleRateHz()), fitSeries.yAt(100), 1e-12);
+        assertTrue(pane.residualChart.spec().orElseThrow().title().contains("magnified"));
+        // the spectrum is the analyzer's, shifted from dB re fundamental to dBV
+        Series spec = pane.spectrumChart.spec().orElseThrow().series().get(0);
+        assertEquals(m.spectrum().levelDb()[200] + 20 * Math.log10(m.fundamental().rms()), spec.yAt(200), 1e-9);
+        assertEquals("Level (dBV)", pane.spectrumChart.spec().get().yAxis().title());
+        assertEquals(m.harmonics().size(), pane.spectrumChart.spec().get().markers().size());
+        assertEquals(m.harmonics().get(1).dbc(), pane.harmonicsChart.spec().orElseThrow().series().get(0).yAt(0), 0.0); // H3, first odd bar
+
+        TabPane views = robot.lookup("#views").queryAs(TabPane.class);
+        for (String tab : List.of("spectrumTab", "harmonicsTab", "transferTab", "sweepTab", "waveformTab")) {
+            robot.interact(() -> views.getSelectionModel().select(views.getTabs().stream().filter(t -> t.getId().equals(tab)).findFirst().get()));
+            assertEquals(tab, views.getSelectionModel().getSelectedItem().getId());
+        }
+        // the level sweep needs several captures with a load: it says so in place
+        assertTrue(pane.sweepChart.message().contains("two or more captures"));
+    }
+
+    @Test
+    void changingABandSetting_reanalysesWithTheNewSettings(FxRobot robot) throws Exception {
+        Capture c = sine("s");
+        robot.interact(() -> pane.addCapture(c));
+        idle();
+        String narrow = shown(robot, "thdnValue");
+        int before = analyses.get();
+        robot.interact(() -> pane.bandChoice.setValue(UiSettings.BandChoice.WIDE_80K));
+        idle();
+        assertTrue(analyses.get() > before);
+        assertEquals(UiSettings.BandChoice.WIDE_80K, lastSettings.band());
+        Measurement wide = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(lastSettings, Calibration.NONE));
+        assertEquals(AnalyzerBackend.pct(wide.thdN().percent()) + " %", shown(robot, "thdnValue"));
+        assertNotEquals(narrow, shown(robot, "thdnValue"), "a wider band holds more noise");
+        robot.interact(() -> pane.weightingBox.setSelected(true));
+        idle();
+        Measurement weighted = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(lastSettings, Calibration.NONE));
+        assertTrue(lastSettings.aWeighting());
+        assertEquals(AnalyzerBackend.pct(weighted.thdN().percent()) + " %", shown(robot, "thdnValue"));
+        robot.interact(() -> pane.harmonicsSpinner.getValueFactory().setValue(15));
+        idle();
+        assertEquals(15, lastSettings.harmonics());
+    }
+
+    @Test
+    void modelParameterChange_redrawsTheOverlayFromTheModelsResult(FxRobot robot) throws Exception {
+        TabPane views = robot.lookup("#views").queryAs(TabPane.class);
+        robot.interact(() -> views.getSelectionModel().select(3));
+        robot.interact(() -> pane.transferPanel.set("cubic", 0.08));
+        WaitForAsyncUtils.waitFor(10, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() ->
+                pane.transferPanel.values().get("cubic") == 0.08 && pane.transferPanel.lastPrediction().isPresent()
+                        && pane.transferChart.spec().isPresent()
+                        && pane.transferChart.spec().get().series().get(0).yAt(50) == Charts.gainDeviationPercent(
+                        new CubicModel().predict("", Map.of("gain", 0.95, "cubic", 0.08)))[1][50]).get());
+        TransferCurve expected = new CubicModel().predict("", Map.of("gain", 0.95, "cubic", 0.08));
+        double[][] dev = Charts.gainDeviationPercent(expected);
+        Series shown = pane.transferChart.spec().orElseThrow().series().get(0);
+        assertEquals(Series.Role.MODEL, shown.role());
+        assertArrayEquals(dev[1], shown.y(), 0.0);
+        // an impossible value: the model's message appears in place, the window keeps working
+        robot.interact(() -> pane.transferPanel.set("gain", -1));
+        WaitForAsyncUtils.waitFor(10, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() -> !pane.transferPanel.modelMessage.getText().isEmpty()).get());
+        assertEquals("Model: gain must be > 0", pane.transferPanel.modelMessage.getText());
+    }
+
+    @Test
+    void unreadableFile_errorShownBesideTheFile(FxRobot robot, @TempDir Path dir) throws Exception {
+        Path bad = Files.writeString(dir.resolve("broken.wav"), "not a wav");
+        robot.interact(() -> pane.openPaths(List.of(bad)));
+        idle();
+        CaptureEntry e = pane.captureList.getItems().get(0);
+        assertTrue(e.failed());
+        assertTrue(e.toString().startsWith("broken.wav  —  "), e.toString());
+        assertTrue(pane.importError.getText().startsWith("broken.wav: "), pane.importError.getText());
+        assertTrue(pane.waveformChart.message().startsWith("Could not open broken.wav"));
+        assertFalse(pane.importError.getText().contains("Exception"), "one plain line, no exception class");
+    }
+
+    @Test
+    void exports_svgAndCsvComeFromTheSameSpec_pngIsAnImage(FxRobot robot, @TempDir Path dir) throws Exception {
+        robot.interact(() -> pane.addCapture(sine("export me")));
+        idle();
+        Path svg = dir.resolve("s.svg"), csv = dir.resolve("s.csv"), png = dir.resolve("s.png");
+        robot.interact(() -> {
+            try {
+                WorkbenchPane.export(pane.spectrumChart, "svg", svg);
+                WorkbenchPane.export(pane.spectrumChart, "csv", csv);
+                WorkbenchPane.export(pane.waveformChart, "png", png);
+            } catch (java.io.IOException e) {
+                throw new java.io.UncheckedIOException(e);
+            }
+        });
+        var spec = pane.spectrumChart.spec().orElseThrow();
+        assertEquals(org.outstage.report.SvgRenderer.render(spec, (int) Math.max(320, pane.spectrumChart.getWidth()),
+                (int) Math.max(200, pane.spectrumChart.getHeight())), Files.readString(svg));
+        assertEquals(org.outstage.plot.CsvExport.toCsv(spec), Files.readString(csv));
+        byte[] head = Arrays.copyOf(Files.readAllBytes(png), 8);
+        assertArrayEquals(new byte[] {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1a, '\n'}, head);   // PNG signature (RFC 2083)
+        javafx.scene.image.Image img = new javafx.scene.image.Image(png.toUri().toString());
+        assertEquals(Math.round(pane.waveformChart.getWidth()), Math.round(img.getWidth()));
+    }
+
+    @Test
+    void badCalibrationText_messageInPlace(FxRobot robot) throws Exception {
+        robot.interact(() -> pane.addCapture(sine("s")));
+        idle();
+        robot.interact(() -> { pane.loadField.setText("eight"); });
+        robot.clickOn("#applyCalibration");
+        WaitForAsyncUtils.waitForFxEvents();
+        assertEquals("Load 'eight' is not a number", pane.calibrationError.getText());
+    }
+}
