@@ -13,7 +13,7 @@ import org.outstage.verify.MeasuredChannel;
 public final class HtmlReport {
     private HtmlReport() {}
 
-    private static final String CSS = """
+    static final String CSS = """
             :root { --ink: #1d232a; --muted: #5b6570; --line: #d5dbe1; --pass: #1f7a3a; --fail: #b3261e; --nm: #8a6d00; }
             * { box-sizing: border-box; }
             body { font: 14px/1.45 system-ui, -apple-system, "Segoe UI", sans-serif; color: var(--ink); margin: 2rem auto; max-width: 62rem; padding: 0 1rem; }
