@@ -1,11 +1,7 @@
 package org.outstage.report;
 
 import java.io.IOException;
-import java.io.Writer;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -41,8 +37,8 @@ public final class BenchReport {
     public static Written write(Path dir, String folder, List<Capture> captures, Map<String, LevelSweepResult> sweeps,
                                 List<String> failures) throws IOException {
         Path html = dir.resolve("report.html"), json = dir.resolve("report.json");
-        atomicWrite(html, html(folder, captures, sweeps, failures));
-        atomicWrite(json, Json.pretty(json(folder, captures, sweeps, failures)) + "\n");
+        AtomicFile.write(html, html(folder, captures, sweeps, failures));
+        AtomicFile.write(json, Json.pretty(json(folder, captures, sweeps, failures)) + "\n");
         return new Written(html, json);
     }
 
@@ -132,21 +128,5 @@ public final class BenchReport {
 
     private static void figure(StringBuilder h, ChartSpec spec) {
         h.append("<figure>\n").append(SvgRenderer.render(spec, CHART_WIDTH, CHART_HEIGHT)).append("\n</figure>\n");
-    }
-
-    private static void atomicWrite(Path target, String text) throws IOException {
-        Path tmp = Files.createTempFile(target.toAbsolutePath().getParent(), target.getFileName().toString(), ".part");
-        try (Writer w = Files.newBufferedWriter(tmp, StandardCharsets.UTF_8)) {
-            w.write(text);
-        } catch (IOException | RuntimeException e) {
-            Files.deleteIfExists(tmp);
-            throw e;
-        }
-        try {
-            Files.setPosixFilePermissions(tmp, java.nio.file.attribute.PosixFilePermissions.fromString("rw-r--r--"));
-        } catch (UnsupportedOperationException e) {
-            // not a POSIX file system: the temporary file's default permissions stand
-        }
-        Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
     }
 }
