@@ -136,6 +136,12 @@ class SessionCommandTest {
     }
 
     @Test
+    void logbookPathIsAFolder_exit2_oneLine() {
+        assertEquals(2, run("session", "list", "--logbook", dir.toString()));
+        assertTrue(err.contains("is a folder") && err.lines().count() == 1, err);
+    }
+
+    @Test
     void addToUnknownSession_exit2() throws Exception {
         String db = dir.resolve("lb.db").toString();
         Path c = capture("t.txt", "f=1000\n");
