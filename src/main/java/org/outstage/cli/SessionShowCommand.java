@@ -67,6 +67,8 @@ public final class SessionShowCommand implements Callable<Integer> {
                 for (String w : a.warnings()) out.println("warning: " + w);
                 DriftReport dr = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.READING);
                 out.println("drift: " + dr.text());
+                DriftReport dg = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.GAIN_AT_ZERO);
+                out.println("drift of gain at zero: " + dg.text());
             }
         }
         out.flush();
