@@ -55,8 +55,23 @@ public final class StageAnalyzer {
         double[] x = new double[n];
         boolean[] rising = new boolean[n];
         ideal(fit, sampleRateHz, n, x, rising);
-        Residual res = residualFrom(samples, x, fit.dcOffset(), sampleRateHz, s);
-        return finish(x, rising, samples, fit.amplitudePeak(), sampleRateHz, s, res, false, Optional.empty());
+        if (s.residualHighPassHz() > 0 || s.residualLowPassHz() > 0) {
+            Residual res = residualFrom(samples, x, fit.dcOffset(), sampleRateHz, s);
+            return finish(x, rising, samples, fit.amplitudePeak(), sampleRateHz, s, res, false, Optional.empty());
+        }
+        // unfiltered: the residual's figures in one pass, without materialising it
+        double dc = fit.dcOffset(), lim = s.nearZeroFraction() * fit.amplitudePeak();
+        double ss = 0, pk = 0, eNear = 0;
+        int at = 0, cNear = 0;
+        for (int i = 0; i < n; i++) {
+            double r = samples[i] - x[i] - dc, r2 = r * r;
+            ss += r2;
+            if (Math.abs(r) > pk) { pk = Math.abs(r); at = i; }
+            if (Math.abs(x[i]) < lim) { eNear += r2; cNear++; }
+        }
+        Residual.Summary sum = new Residual.Summary(Math.sqrt(ss / n), pk, at / sampleRateHz, 0, 0);
+        return engine(x, rising, samples, fit.amplitudePeak(), sampleRateHz, s, sum, ss > 0 ? eNear / ss : 0,
+                (double) cNear / n, false, Optional.empty());
     }
 
     /**
@@ -159,10 +174,15 @@ public final class StageAnalyzer {
             if (Math.abs(x[i]) < lim) { eNear += v * v; cNear++; }
         }
         double share = eAll > 0 ? eNear / eAll : 0;
+        return engine(x, rising, y, peak, fs, s, res.summary(), share, (double) cNear / x.length, fromRef, al);
+    }
+
+    private static StageDiagnosis engine(double[] x, boolean[] rising, double[] y, double peak, double fs, StageSettings s,
+                                         Residual.Summary res, double nearShare, double nearTime, boolean fromRef,
+                                         Optional<ReferenceAlignment> al) {
         try {
-            TransferEngine.Result t = TransferEngine.analyze(x, rising, y, peak, fs, s, fromRef, share,
-                    (double) cNear / x.length, s.unit());
-            return new StageDiagnosis.Measured(res.summary(), t.transfer(), t.crossover(), t.clipping(), al);
+            TransferEngine.Result t = TransferEngine.analyze(x, rising, y, peak, fs, s, fromRef, nearShare, nearTime, s.unit());
+            return new StageDiagnosis.Measured(res, t.transfer(), t.crossover(), t.clipping(), al);
         } catch (IllegalArgumentException e) {
             return new StageDiagnosis.NotMeasured(e.getMessage());
         }
