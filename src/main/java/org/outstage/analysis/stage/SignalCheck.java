@@ -19,7 +19,7 @@ import org.outstage.analysis.SineFit;
  *   <li><b>square wave</b>: at least 95 % of the samples lie within 5 % of the peak-to-peak range of the two
  *       plateau levels (medians of the upper and lower halves) and each plateau holds at least 20 %. A sine
  *       spends only 29 % of its time within 5 % of its extremes; a sine clipped so hard that 95 % of it sits on
- *       the rails (clip level below about 8 % of the drive) is treated as a square: no stage figure means
+ *       the rails (clip level below about 9 % of the drive) is treated as a square: no stage figure means
  *       anything there;</li>
  *   <li><b>no dominant tone</b>: the strongest line and its harmonics hold under half of the AC power
  *       (Hann window, ±6 bins per line) — noise, or a tone buried in it;</li>
