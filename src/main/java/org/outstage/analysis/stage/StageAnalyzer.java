@@ -90,7 +90,6 @@ public final class StageAnalyzer {
         ideal(outputFit, sampleRateHz, n, ideal, rising0);
         ResidualFigures rf = residualFigures(output, ideal, outputFit, sampleRateHz, s);
         ideal = null;
-        rising0 = null;
 
         // aligned, gain-scaled reference: u[k] = gain·(ref(k − D) − dc_ref)
         double[] u = FractionalDelay.delay(reference, refFit.dcOffset(), al.delaySamples());
@@ -100,14 +99,14 @@ public final class StageAnalyzer {
         double[] xs = new double[len], ys = new double[len];
         boolean[] rising = new boolean[len];
         double peak = 0;
-        double w = 2 * Math.PI * refFit.frequencyHz() / sampleRateHz;
         for (int i = 0; i < len; i++) {
             int k = i + skip;
             xs[i] = al.gain() * u[k];
             ys[i] = output[k];
             peak = Math.max(peak, Math.abs(xs[i]));
-            double dRef = -Math.sin(w * (k - al.delaySamples()) + refFit.phaseRadians());
-            rising[i] = dRef * al.gain() > 0;
+            // the aligned reference has the phase of the output's fitted fundamental (that is how the delay and
+            // the sign of the gain were found), so it rises when that fundamental rises
+            rising[i] = rising0[k];
         }
         return engine(xs, rising, ys, peak * (1 + 1e-12), sampleRateHz, s, rf, true, Optional.of(al));
     }
