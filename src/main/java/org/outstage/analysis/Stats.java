@@ -1,17 +1,22 @@
 package org.outstage.analysis;
 
-/** Small order statistics for spectra. */
-final class Stats {
+/** Small order statistics (median, k-th smallest) shared by the analysis and the stage diagnosis. */
+public final class Stats {
     private Stats() {}
 
     /** Median of the first {@code n} values (the array is reordered). Quickselect, O(n) expected. */
-    static double median(double[] a, int n) {
+    public static double median(double[] a, int n) {
         if (n <= 0) return Double.NaN;
         double hi = select(a, 0, n - 1, n / 2);
         if (n % 2 == 1) return hi;
         double lo = Double.NEGATIVE_INFINITY;
         for (int i = 0; i < n / 2; i++) lo = Math.max(lo, a[i]);
         return (lo + hi) / 2;
+    }
+
+    /** k-th smallest value (0-based) of {@code a} by quickselect (Hoare), reordering {@code a}. */
+    public static double select(double[] a, int k) {
+        return select(a, 0, a.length - 1, k);
     }
 
     private static double select(double[] a, int left, int right, int k) {

@@ -6,6 +6,7 @@ import java.util.Optional;
 import org.jtransforms.fft.DoubleFFT_1D;
 import org.outstage.Require;
 import org.outstage.analysis.SineFit;
+import org.outstage.analysis.Stats;
 
 /**
  * Is this record a usable single sine? Returns a reason when it is not, so the caller shows a clear sentence
@@ -151,7 +152,7 @@ public final class SignalCheck {
         }
         double f0 = k0f * fs / m;
         if (k2 > 0) {
-            double median = select(Arrays.copyOfRange(p, guard + 1, half), (half - guard - 1) / 2);
+            double median = Stats.select(Arrays.copyOfRange(p, guard + 1, half), (half - guard - 1) / 2);
             double ratio = Math.sqrt(p[k2] / p[k0]);
             if (ratio >= 0.1 && p[k2] >= 1000 * median)
                 return Optional.of(String.format(Locale.ROOT, TWO_TONES + ": a line at %.4g Hz, %.1f dB relative to the %.4g Hz tone, is not one of its harmonics",
@@ -161,23 +162,5 @@ public final class SignalCheck {
             return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
                     f0, 100 * inLines / total));
         return Optional.empty();
-    }
-
-    /** k-th smallest value (0-based) by quickselect (Hoare), reordering {@code a}. */
-    static double select(double[] a, int k) {
-        int lo = 0, hi = a.length - 1;
-        while (lo < hi) {
-            double pivot = a[(lo + hi) >>> 1];
-            int i = lo, j = hi;
-            while (i <= j) {
-                while (a[i] < pivot) i++;
-                while (a[j] > pivot) j--;
-                if (i <= j) { double t = a[i]; a[i] = a[j]; a[j] = t; i++; j--; }
-            }
-            if (k <= j) hi = j;
-            else if (k >= i) lo = i;
-            else return a[k];
-        }
-        return a[k];
     }
 }
