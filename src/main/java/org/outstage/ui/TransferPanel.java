@@ -32,11 +32,15 @@ final class TransferPanel {
     final PropertySheet sheet = new PropertySheet();
     final Label modelMessage = new Label();
     private final Map<String, Double> values = new LinkedHashMap<>();
+    private final java.util.Set<String> edited = new java.util.HashSet<>();
     private Runnable onChange = () -> {};
     private final AtomicLong generation = new AtomicLong();
     private volatile TransferCurve lastPrediction;
     private ChartCanvas target;
     private Optional<TransferCurve> measured = Optional.empty();
+
+    /** Parameter key of the output span, which follows the measured curve until edited. */
+    static final String SPAN_KEY = "span_v";
 
     TransferPanel(Optional<StageModelAdapter> model) {
         this.model = model;
@@ -87,6 +91,7 @@ final class TransferPanel {
     /** Sets a parameter as the sheet's editor would, and recomputes. */
     void set(String key, double value) {
         values.put(key, value);
+        edited.add(key);
         onChange.run();
     }
 
@@ -101,6 +106,16 @@ final class TransferPanel {
             return;
         }
         String topology = topologyChoice.getValue();
+        // the model's output span follows the measured swing until the user sets it
+        if (measuredCurve.isPresent() && values.containsKey(SPAN_KEY) && !edited.contains(SPAN_KEY)) {
+            double peak = 0;
+            for (double o : measuredCurve.get().outputVolts()) if (Double.isFinite(o)) peak = Math.max(peak, Math.abs(o));
+            if (peak > 0 && !Double.valueOf(peak).equals(values.get(SPAN_KEY))) {
+                values.put(SPAN_KEY, peak);
+                ObservableList<PropertySheet.Item> items = FXCollections.observableArrayList(sheet.getItems());
+                sheet.getItems().setAll(items);
+            }
+        }
         Map<String, Double> v = Map.copyOf(values);
         long gen = generation.incrementAndGet();
         Thread th = new Thread(() -> {
@@ -154,7 +169,9 @@ final class TransferPanel {
         @Override
         public void setValue(Object value) {
             if (value instanceof Number n && Double.isFinite(n.doubleValue())) {
+                if (java.util.Objects.equals(values.get(p.key()), n.doubleValue())) return;
                 values.put(p.key(), n.doubleValue());
+                edited.add(p.key());
                 onChange.run();
             }
         }

@@ -78,6 +78,7 @@ final class WorkbenchPane extends BorderPane {
     final TextField probeField = new TextField();
     final TextField loadField = new TextField();
     final Label calibrationError = new Label();
+    final Label captureWarnings = new Label();
     final ComboBox<Integer> channelChoice = new ComboBox<>();
     final ComboBox<UiSettings.BandChoice> bandChoice = new ComboBox<>(FXCollections.observableArrayList(UiSettings.BandChoice.values()));
     final CheckBox weightingBox = new CheckBox("A-weighting (IEC 61672-1)");
@@ -188,7 +189,11 @@ final class WorkbenchPane extends BorderPane {
         channelChoice.setId("channelChoice");
         Button apply = new Button("Apply");
         apply.setId("applyCalibration");
-        apply.setOnAction(e -> applyCalibration());
+        apply.setOnAction(e -> applyCalibration(false));
+        Button applyAll = new Button("Apply to all");
+        applyAll.setId("applyCalibrationAll");
+        applyAll.setTooltip(new Tooltip("Use this calibration for every capture in the list (same divider and load)"));
+        applyAll.setOnAction(e -> applyCalibration(true));
         calibrationError.setId("calibrationError");
         calibrationError.setWrapText(true);
         calibrationError.setStyle("-fx-text-fill: #a0281e;");
@@ -206,7 +211,11 @@ final class WorkbenchPane extends BorderPane {
             CaptureEntry e = selected();
             if (!updatingControls && e != null && b != null && b - 1 != e.channel) { e.channel = b - 1; analyzeSelected(); }
         });
-        VBox cal = new VBox(6, g, apply, calibrationError);
+        captureWarnings.setId("captureWarnings");
+        captureWarnings.setWrapText(true);
+        captureWarnings.setMaxWidth(250);
+        captureWarnings.setStyle("-fx-text-fill: #7a5a00;");
+        VBox cal = new VBox(6, g, new HBox(6, apply, applyAll), calibrationError, captureWarnings);
         TitledPane calPane = new TitledPane("Calibration of the selected capture", cal);
         calPane.setCollapsible(false);
         VBox side = new VBox(6, new HBox(6, new Label("Captures"), spacer(), openButton), captureList, importError, calPane);
@@ -348,8 +357,10 @@ final class WorkbenchPane extends BorderPane {
         if (files != null) openPaths(files.stream().map(File::toPath).toList());
     }
 
-    /** Opens files, and the capture files inside folders; each failure stays beside its file. */
-    void openPaths(List<Path> paths) {
+    void openPaths(List<Path> paths) { openPaths(paths, Calibration.NONE); }
+
+    /** Opens files, and the capture files inside folders, with a calibration; each failure stays beside its file. */
+    void openPaths(List<Path> paths, Calibration calibration) {
         List<Path> files = new ArrayList<>();
         for (Path p : paths) {
             if (Files.isDirectory(p)) {
@@ -364,7 +375,11 @@ final class WorkbenchPane extends BorderPane {
         }
         if (files.isEmpty()) return;
         List<CaptureEntry> entries = new ArrayList<>();
-        for (Path f : files) entries.add(new CaptureEntry(String.valueOf(f.getFileName()), Optional.of(f)));
+        for (Path f : files) {
+            CaptureEntry e = new CaptureEntry(String.valueOf(f.getFileName()), Optional.of(f));
+            e.calibration = calibration;
+            entries.add(e);
+        }
         captureList.getItems().addAll(entries);
         Task<List<Object>> t = new Task<>() {
             @Override protected List<Object> call() {
@@ -374,7 +389,7 @@ final class WorkbenchPane extends BorderPane {
                     updateMessage("Opening " + entries.get(i).name + "…");
                     updateProgress(i, entries.size());
                     try {
-                        out.add(backend.open(entries.get(i).path.get(), Calibration.NONE));
+                        out.add(backend.open(entries.get(i).path.get(), entries.get(i).calibration));
                     } catch (Exception e) {
                         out.add(oneLine(e));
                     }
@@ -428,6 +443,7 @@ final class WorkbenchPane extends BorderPane {
         updatingControls = true;
         try {
             importError.setText(e != null && e.failed() ? e.name + ": " + e.error : "");
+            captureWarnings.setText(e != null && e.capture != null ? String.join("\n", e.capture.warnings()) : "");
             calibrationError.setText("");
             if (e == null) { showNothing(); return; }
             fullScaleField.setText(text(e.calibration.fullScaleVolts()));
@@ -456,9 +472,9 @@ final class WorkbenchPane extends BorderPane {
         return d == Math.rint(d) && Math.abs(d) < 1e12 ? Long.toString((long) d) : Double.toString(d);
     }
 
-    private void applyCalibration() {
-        CaptureEntry e = selected();
-        if (e == null) return;
+    private void applyCalibration(boolean toAll) {
+        CaptureEntry sel = selected();
+        if (sel == null) return;
         Calibration cal;
         try {
             cal = new Calibration(Calibration.parseField("Full scale", fullScaleField.getText()),
@@ -468,16 +484,30 @@ final class WorkbenchPane extends BorderPane {
             return;
         }
         calibrationError.setText("");
-        e.calibration = cal;
-        if (e.path.isPresent()) {
-            Calibration c = cal;
-            Task<Capture> t = new Task<>() {
-                @Override protected Capture call() throws Exception { return backend.open(e.path.get(), c); }
-            };
-            t.setOnSucceeded(x -> { e.capture = t.getValue(); e.error = ""; captureList.refresh(); analyzeSelected(); });
-            t.setOnFailed(x -> { calibrationError.setText(oneLine(t.getException())); });
-            run(t, "Reopening " + e.name);
-        } else analyzeSelected();
+        List<CaptureEntry> targets = toAll ? List.copyOf(captureList.getItems()) : List.of(sel);
+        for (CaptureEntry e : targets) { e.calibration = cal; e.data = null; }
+        List<CaptureEntry> files = targets.stream().filter(e -> e.path.isPresent()).toList();
+        if (files.isEmpty()) { analyzeSelected(); if (toAll) analyzeAllForSweep(); return; }
+        Task<List<Object>> t = new Task<>() {
+            @Override protected List<Object> call() {
+                List<Object> out = new ArrayList<>();
+                for (CaptureEntry e : files) {
+                    try { out.add(backend.open(e.path.get(), cal)); } catch (Exception ex) { out.add(oneLine(ex)); }
+                }
+                return out;
+            }
+        };
+        t.setOnSucceeded(x -> {
+            for (int i = 0; i < files.size(); i++) {
+                CaptureEntry e = files.get(i);
+                if (t.getValue().get(i) instanceof Capture c) { e.capture = c; e.error = ""; }
+                else { e.capture = null; e.error = (String) t.getValue().get(i); }
+            }
+            captureList.refresh();
+            onSelect(selected());
+            analyzeAllForSweep();
+        });
+        run(t, "Reopening with the new calibration");
     }
 
     private void changeSettings(UiSettings s) {

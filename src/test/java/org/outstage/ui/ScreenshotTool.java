@@ -56,7 +56,7 @@ public final class ScreenshotTool {
         });
         var session = WorkbenchLauncher.sampleSession();
         if (session.isPresent()) {
-            fx(() -> { pane.openPaths(List.of(session.get())); return null; });
+            fx(() -> { pane.openPaths(List.of(session.get()), Workbench.SAMPLE_SESSION); return null; });
         } else {
             fx(() -> {
                 for (Capture c : generated()) pane.addCapture(c);
@@ -113,7 +113,7 @@ public final class ScreenshotTool {
         var items = pane.captureList.getItems();
         for (int i = 0; i < items.size(); i++) {
             String n = items.get(i).name.toLowerCase(java.util.Locale.ROOT);
-            if (!items.get(i).failed() && (n.contains("05vpk") || n.contains("crossover") || n.contains("low-bias") || n.contains("underbias"))) return i;
+            if (!items.get(i).failed() && (n.contains("bias-03mv") || n.contains("05vpk") || n.contains("crossover") || n.contains("low-bias") || n.contains("underbias"))) return i;
         }
         for (int i = 0; i < items.size(); i++) if (!items.get(i).failed()) return i;
         return 0;
