@@ -24,15 +24,15 @@ final class ModelStageAdapter implements StageModelAdapter {
     @Override
     public List<Parameter> parameters(String topology) {
         return List.of(
-                new Parameter("vq_mv", "Bias, drop across one Re", "mV", StageParameters.DEFAULT_VQ_VOLTS * 1e3,
+                new Parameter("vq_mv", "Vq (across one Re)", "mV", StageParameters.DEFAULT_VQ_VOLTS * 1e3,
                         "quiescent voltage across one emitter resistor (Vq = Iq·Re)"),
-                new Parameter("re", "Emitter resistor Re", "Ω", StageParameters.DEFAULT_EMITTER_OHMS, "per output device"),
+                new Parameter("re", "Re", "Ω", StageParameters.DEFAULT_EMITTER_OHMS, "per output device"),
                 new Parameter("load", "Load", "Ω", StageParameters.DEFAULT_LOAD_OHMS, "dummy load"),
                 new Parameter("rails", "Rails", "±V", StageParameters.DEFAULT_RAIL_VOLTS, "supply rails"),
-                new Parameter("beta_driver", "Driver current gain β", "", StageParameters.DEFAULT_BETA_DRIVER, "ignored for a plain pair"),
-                new Parameter("beta_output", "Output current gain β", "", StageParameters.DEFAULT_BETA_OUTPUT, "output devices"),
-                new Parameter("temperature_c", "Junction temperature", "°C", StageParameters.DEFAULT_TEMPERATURE_CELSIUS, "all devices"),
-                new Parameter("span_v", "Output span (peak)", "V", 10, "the curve covers about ± this output"));
+                new Parameter("beta_driver", "β driver", "", StageParameters.DEFAULT_BETA_DRIVER, "ignored for a plain pair"),
+                new Parameter("beta_output", "β output", "", StageParameters.DEFAULT_BETA_OUTPUT, "output devices"),
+                new Parameter("temperature_c", "Temperature", "°C", StageParameters.DEFAULT_TEMPERATURE_CELSIUS, "all devices"),
+                new Parameter("span_v", "Output span", "V", 10, "the curve covers about ± this output"));
     }
 
     @Override

@@ -92,6 +92,7 @@ final class TransferPanel {
     void set(String key, double value) {
         values.put(key, value);
         edited.add(key);
+        sheet.getItems().setAll(FXCollections.observableArrayList(sheet.getItems()));
         onChange.run();
     }
 
@@ -110,6 +111,7 @@ final class TransferPanel {
         if (measuredCurve.isPresent() && values.containsKey(SPAN_KEY) && !edited.contains(SPAN_KEY)) {
             double peak = 0;
             for (double o : measuredCurve.get().outputVolts()) if (Double.isFinite(o)) peak = Math.max(peak, Math.abs(o));
+            peak = new java.math.BigDecimal(peak).round(new java.math.MathContext(3)).doubleValue();
             if (peak > 0 && !Double.valueOf(peak).equals(values.get(SPAN_KEY))) {
                 values.put(SPAN_KEY, peak);
                 ObservableList<PropertySheet.Item> items = FXCollections.observableArrayList(sheet.getItems());

@@ -160,7 +160,8 @@ final class WorkbenchPane extends BorderPane {
 
     private Node captureSide() {
         captureList.setId("captureList");
-        captureList.getSelectionModel().setSelectionMode(SelectionMode.SINGLE);
+        captureList.getSelectionModel().setSelectionMode(SelectionMode.MULTIPLE);
+        captureList.getSelectionModel().getSelectedItems().addListener((javafx.collections.ListChangeListener<CaptureEntry>) c -> refreshSweep());
         captureList.setCellFactory(v -> new ListCell<>() {
             @Override protected void updateItem(CaptureEntry item, boolean empty) {
                 super.updateItem(item, empty);
@@ -234,7 +235,7 @@ final class WorkbenchPane extends BorderPane {
         Tab t2 = tab("spectrumTab", "Spectrum", spectrumChart);
         Tab t3 = tab("harmonicsTab", "Harmonic profile", harmonicsChart);
         SplitPane tr = new SplitPane(transferChart, transferPanel.node());
-        tr.setDividerPositions(0.68);
+        tr.setDividerPositions(0.6);
         Tab t4 = tab("transferTab", "Transfer and model", tr);
         Tab t5 = tab("sweepTab", "Level sweep", sweepChart);
         views.getTabs().addAll(t1, t2, t3, t4, t5);
@@ -462,7 +463,7 @@ final class WorkbenchPane extends BorderPane {
         }
         if (e.failed()) { show(ViewData.failed(e.name, "Could not open " + e.name + ": " + e.error)); return; }
         if (e.capture == null) { showNothing(); statusText.setText("Opening " + e.name + "…"); return; }
-        if (e.data != null) show(e.data);
+        if (e.data != null) { show(e.data); return; }   // results are dropped when settings or calibration change
         analyzeSelected();
     }
 
@@ -638,19 +639,31 @@ final class WorkbenchPane extends BorderPane {
         transferPanel.show(transferChart, e == null || e.data == null ? Optional.empty() : e.data.measuredCurve());
     }
 
-    private void refreshSweep() {
-        List<ViewData.SweepPoint> pts = new ArrayList<>();
-        for (CaptureEntry e : captureList.getItems())
-            if (e.data != null) e.data.sweepPoint().ifPresent(pts::add);
-        pts.sort(Comparator.comparingDouble(ViewData.SweepPoint::powerWatts));
+    /** The level sweep over the selected captures (two or more selected), otherwise over all opened captures. */
+    void refreshSweep() {
+        List<CaptureEntry> chosen = captureList.getSelectionModel().getSelectedItems().size() >= 2
+                ? List.copyOf(captureList.getSelectionModel().getSelectedItems()) : List.copyOf(captureList.getItems());
+        List<org.outstage.analysis.stage.LevelPoint> pts = new ArrayList<>();
+        for (CaptureEntry e : chosen)
+            if (e.data != null) e.data.sweepPoint().ifPresent(p -> pts.add(p.point()));
         if (pts.size() < 2) {
             sweepChart.setMessage("The level sweep needs two or more captures at rising level, in volts, with a load set ("
-                    + pts.size() + " so far).");
+                    + pts.size() + " so far). Select the captures of one series with Ctrl-click.");
             return;
         }
-        double[] p = new double[pts.size()], a = new double[pts.size()], b = new double[pts.size()];
-        for (int i = 0; i < p.length; i++) { p[i] = pts.get(i).powerWatts(); a[i] = pts.get(i).thd(); b[i] = pts.get(i).thdN(); }
-        sweepChart.setSpec(Charts.levelSweep("THD and THD+N against output power", p, a, b, 0.01));
+        org.outstage.analysis.stage.LevelSweepResult r;
+        try {
+            r = org.outstage.analysis.stage.LevelSweep.analyze(pts);
+        } catch (IllegalArgumentException ex) {
+            sweepChart.setMessage("Not one level series: " + oneLine(ex) + ". Select the captures of one series with Ctrl-click.");
+            return;
+        }
+        List<org.outstage.analysis.stage.LevelPoint> sorted = r.points();
+        double[] p = new double[sorted.size()], a = new double[sorted.size()], b = new double[sorted.size()];
+        for (int i = 0; i < p.length; i++) { p[i] = sorted.get(i).powerWatts(); a[i] = sorted.get(i).thdRatio(); b[i] = sorted.get(i).thdNRatio(); }
+        String rated = r.atOnePercent().powerWatts().isPresent()
+                ? " — 1 % THD at " + AnalyzerBackend.num(r.atOnePercent().powerWatts().getAsDouble()) + " W" : "";
+        sweepChart.setSpec(Charts.levelSweep("THD and THD+N against output power" + rated, p, a, b, 0.01));
     }
 
     private void copyFigures() {

@@ -77,9 +77,24 @@ public final class ScreenshotTool {
         waitIdle(pane);
         fx(() -> { if (!pane.captureList.getItems().isEmpty()) pane.captureList.getSelectionModel().select(pickShowcase(pane)); return null; });
         waitIdle(pane);
+        // the model at the bias the showcase capture was made with (3 mV across Re), to compare shapes
+        fx(() -> { if (pane.transferPanel.values().containsKey("vq_mv")) pane.transferPanel.set("vq_mv", 3); return null; });
         String[][] shots = {{"waveformTab", "waveform-residual.png"}, {"spectrumTab", "spectrum.png"}, {"harmonicsTab", "harmonic-profile.png"},
                 {"transferTab", "transfer-model.png"}, {"sweepTab", "level-sweep.png"}};
         for (String[] s : shots) {
+            if (s[0].equals("sweepTab")) {
+                // the level sweep over the level series only (the bias and X-Y captures are other experiments)
+                fx(() -> {
+                    var items = pane.captureList.getItems();
+                    pane.captureList.getSelectionModel().clearSelection();
+                    int focus = -1;
+                    for (int i = 0; i < items.size(); i++)
+                        if (items.get(i).name.contains("-level-") || items.get(i).name.startsWith("demo-amp")) { pane.captureList.getSelectionModel().select(i); if (focus < 0) focus = i; }
+                    if (focus >= 0) pane.captureList.getSelectionModel().select(focus);
+                    return null;
+                });
+                waitIdle(pane);
+            }
             fx(() -> {
                 Tab t = pane.views.getTabs().stream().filter(x -> x.getId().equals(s[0])).findFirst().orElseThrow();
                 pane.views.getSelectionModel().select(t);
