@@ -113,7 +113,8 @@ public final class ScreenshotTool {
             VBox b = new VBox(12, head, text);
             b.setStyle("-fx-padding: 18; -fx-background-color: white;");
             Stage st = new Stage();
-            st.setScene(new Scene(b, 640, 520));
+            b.setPrefWidth(640);
+            st.setScene(new Scene(b));
             st.show();
             return b;
         });
