@@ -143,6 +143,11 @@ final class AnalyzerBackend implements Backend {
         rows.add(new FigureRow("levelValue", "Level (rms)", num(m.fundamental().rms()), u, levelNote));
         m.powerWatts().ifPresent(p -> rows.add(new FigureRow("powerValue", "Power", num(p.fundamentalWatts()), "W",
                 "into " + num(p.loadOhms()) + " Ω")));
+        if (!u.equals("V"))
+            rows.add(new FigureRow("calibrationValue", "Calibration", "none", "",
+                    "levels in FS; enter the full-scale volts for dBV and power"));
+        else if (m.powerWatts().isEmpty())
+            rows.add(new FigureRow("calibrationValue", "Power", "—", "", "enter the load to measure power"));
         rows.add(new FigureRow("thdValue", "THD", pct(m.thd().percent()), "%",
                 num(m.thd().db()) + " dB; H2–H" + m.settings().harmonics()));
         Measurement.ThdN t = m.thdN();
