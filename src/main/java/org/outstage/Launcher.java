@@ -4,13 +4,29 @@ import org.outstage.cli.OutstageCommand;
 
 /**
  * Main class of the application jar. It does not extend a JavaFX class, so the command-line path never
- * loads JavaFX; the workbench is started by the {@code gui} command (and by no arguments when a display
- * exists) through {@code org.outstage.ui.Workbench}.
+ * loads JavaFX. With no arguments it runs the main job on the bundled sample session: the workbench when a
+ * display exists ({@code gui}), otherwise the analysis printed and the report written ({@code bench}); if
+ * the workbench cannot start, it falls back to the latter.
  */
 public final class Launcher {
     private Launcher() {}
 
     public static void main(String[] args) {
+        if (args.length == 0) {
+            if (hasDisplay()) {
+                int code = OutstageCommand.run(new String[] {"gui"});
+                if (code == OutstageCommand.EXIT_OK) System.exit(code);
+                System.err.println("outstage: analysing the sample session on the command line instead");
+            }
+            System.exit(OutstageCommand.run(new String[] {"bench"}));
+        }
         System.exit(OutstageCommand.run(args));
+    }
+
+    /** Whether an X11 or Wayland display is set (and java.awt.headless is not forced). */
+    static boolean hasDisplay() {
+        if (Boolean.getBoolean("java.awt.headless")) return false;
+        String x = System.getenv("DISPLAY"), w = System.getenv("WAYLAND_DISPLAY");
+        return (x != null && !x.isBlank()) || (w != null && !w.isBlank());
     }
 }

@@ -54,6 +54,8 @@ public final class Analyzer {
     static final double MIN_CYCLES = 1.5;
     /** A line must stand this far (power ratio) above the noise in its own main lobe. */
     static final double MIN_LINE_TO_NOISE = 100;
+    /** A harmonic counts as resolved at this power ratio (10 dB) above the noise in its own bins. */
+    static final double RESOLVED_ABOVE_NOISE = 10;
     static final Window WINDOW = Window.BLACKMAN_HARRIS_7;
 
     private static final double LOG_1_5 = 10 * Math.log10(1.5);   // 1.7609 dB, IEEE 1241 / Kester MT-001
@@ -265,10 +267,14 @@ public final class Analyzer {
             List<Measurement.Harmonic> harmonics = new ArrayList<>();
             double sumH = 0;
             for (int h = 2; h <= top; h++) {
-                double ph = ps.linePower(h * f);
+                double raw = ps.linePower(h * f);
+                int[] lh = ps.lobe(h * f);
+                double underLine = density * (lh[1] - lh[0] + 1);   // the noise expected in the lobe's bins
+                boolean resolved = raw >= RESOLVED_ABOVE_NOISE * underLine;
+                double ph = resolved ? raw - underLine : raw;
                 double ratio = Math.sqrt(ph / p1);
                 double rel = wrapDeg(Math.toDegrees(ps.linePhase(h * f) - h * phi1));
-                harmonics.add(new Measurement.Harmonic(h, h * f, Math.sqrt(ph), ratio, Levels.ratioToDb(ratio), rel));
+                harmonics.add(new Measurement.Harmonic(h, h * f, Math.sqrt(ph), ratio, Levels.ratioToDb(ratio), rel, resolved));
                 sumH += ph;
             }
             double noiseFloorPower = density * bandG2;
@@ -298,13 +304,6 @@ public final class Analyzer {
             int top = maxOrder(f, 0);
             List<Measurement.Harmonic> harmonics = new ArrayList<>();
             double sumH = 0, ndU = 0, ndW = 0;
-            for (int h = 2; h <= Math.min(top, hf.orders()); h++) {
-                double ph = hf.amplitude[h] * hf.amplitude[h] / 2;
-                double ratio = Math.sqrt(ph / p1);
-                double rel = wrapDeg(Math.toDegrees(hf.phaseMid[h] - h * phi1Mid));
-                harmonics.add(new Measurement.Harmonic(h, h * f, Math.sqrt(ph), ratio, Levels.ratioToDb(ratio), rel));
-                sumH += ph;
-            }
             for (int h = 2; h <= hf.orders(); h++) {
                 double fh = h * f;
                 if (fh < lowHz || fh > highHz) continue;
@@ -340,6 +339,15 @@ public final class Analyzer {
             ndU += resU;
             ndW += resW;
             double density = nb > 0 ? Stats.median(noiseBins, nb) * Stats.medianToMean(1) : 0;
+            for (int h = 2; h <= Math.min(top, hf.orders()); h++) {
+                double ph = hf.amplitude[h] * hf.amplitude[h] / 2;
+                double ratio = Math.sqrt(ph / p1);
+                double rel = wrapDeg(Math.toDegrees(hf.phaseMid[h] - h * phi1Mid));
+                // the least-squares estimate of a line's power carries about one bin of the residual's noise
+                boolean resolved = ph >= RESOLVED_ABOVE_NOISE * density;
+                harmonics.add(new Measurement.Harmonic(h, h * f, Math.sqrt(ph), ratio, Levels.ratioToDb(ratio), rel, resolved));
+                sumH += ph;
+            }
             double mean = hf.dc;
             // total mean square without DC: fitted lines plus what is left over (free of the partial-cycle error)
             double ms = resAll;

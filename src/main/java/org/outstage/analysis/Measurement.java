@@ -116,14 +116,18 @@ public record Measurement(String captureName, int channel, double sampleRateHz, 
      *
      * @param order       k (2…N)
      * @param frequencyHz k × fundamental frequency
-     * @param rms         rms level
+     * @param rms         rms level, with the estimated noise under the line subtracted when {@code resolved};
+     *                    otherwise the uncorrected figure, an upper bound (the line does not stand clear of the noise)
      * @param ratio       rms / fundamental rms
      * @param dbc         20·lg(ratio), dB relative to the carrier (fundamental)
      * @param phaseDeg    φ_k − k·φ_1 in degrees, wrapped to (−180, 180], where φ_k is the phase of the
      *                    cosine of harmonic k at the first sample. This does not depend on where the
      *                    record starts (a time shift τ adds kωτ to both terms).
+     * @param resolved    whether the line stands at least 10 dB above the noise estimated in the same bins
+     *                    (its main lobe, or one bin of the fit residual for short records); when false, the
+     *                    level is an upper bound and the phase is not meaningful
      */
-    public record Harmonic(int order, double frequencyHz, double rms, double ratio, double dbc, double phaseDeg) {}
+    public record Harmonic(int order, double frequencyHz, double rms, double ratio, double dbc, double phaseDeg, boolean resolved) {}
 
     /** A plain ratio with percent and dB views. */
     public record Ratio(double ratio) {

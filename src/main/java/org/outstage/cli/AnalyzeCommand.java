@@ -2,10 +2,7 @@ package org.outstage.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.io.Writer;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
@@ -158,16 +155,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
             ss = ss.withResidualBand(b.lowHz(), hi);
         }
         Residual res = StageAnalyzer.residual(samples, m.sampleRateHz(), m.sineFit(), ss);
-        Path target = residual.toAbsolutePath();
-        Path dir = target.getParent();
-        if (dir != null) Files.createDirectories(dir);
-        Path tmp = Files.createTempFile(dir, target.getFileName().toString(), ".part");
-        try (Writer w = Files.newBufferedWriter(tmp)) {
-            res.writeCsv(w, samples, m.sineFit());
-        } catch (IOException | RuntimeException e) {
-            Files.deleteIfExists(tmp);
-            throw e;
-        }
-        Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        double[] out = samples;
+        org.outstage.report.AtomicFile.write(residual, w -> res.writeCsv(w, out, m.sineFit()));
     }
 }

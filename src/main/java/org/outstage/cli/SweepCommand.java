@@ -65,13 +65,7 @@ public final class SweepCommand implements Callable<Integer> {
     }
 
     static Map<String, Object> toJson(LevelSweepResult r) {
-        List<Object> pts = new ArrayList<>();
-        for (LevelPoint p : r.points())
-            pts.add(Json.obj("file", p.fileName(), "power_w", p.powerWatts(), "thd_percent", 100 * p.thdRatio(),
-                    "thd_n_percent", 100 * p.thdNRatio(), "frequency_hz", p.frequencyHz()));
-        return Json.obj("load_ohms", r.points().get(0).loadOhms(), "points", pts,
-                "power_at_1pct_thd_w", r.atOnePercent().powerWatts(), "power_at_10pct_thd_w", r.atTenPercent().powerWatts(),
-                "messages", List.of(r.atOnePercent().message(), r.atTenPercent().message()));
+        return org.outstage.report.SweepJson.of(r);
     }
 
     static String text(LevelSweepResult r) {

@@ -35,8 +35,11 @@ public final class FigureTable {
                 sig(p.fundamentalWatts()), num(p.loadOhms()), sig(p.totalWatts()))));
         if (!m.harmonics().isEmpty()) {
             sb.append("  harmonics dBc");
-            for (Measurement.Harmonic h : m.harmonics()) sb.append(String.format(Locale.ROOT, "  H%d %.1f", h.order(), h.dbc()));
+            for (Measurement.Harmonic h : m.harmonics())
+                sb.append(String.format(Locale.ROOT, "  H%d %s%.1f", h.order(), h.resolved() ? "" : "<", h.dbc()));
             sb.append(System.lineSeparator());
+            if (m.harmonics().stream().anyMatch(h -> !h.resolved()))
+                sb.append("                (<: not above the noise in its bins; the figure is an upper bound)").append(System.lineSeparator());
         }
         StageDiagnosis d = m.stage();
         if (d instanceof StageDiagnosis.Measured s) {

@@ -51,7 +51,7 @@ public final class MeasurementJson {
         List<Object> hs = new ArrayList<>();
         for (Measurement.Harmonic h : m.harmonics())
             hs.add(Json.obj("order", h.order(), "frequency_hz", h.frequencyHz(), "rms", h.rms(), "ratio", h.ratio(),
-                    "dbc", h.dbc(), "phase_deg", h.phaseDeg()));
+                    "dbc", h.dbc(), "phase_deg", h.phaseDeg(), "resolved", h.resolved()));
         c.put("harmonics", hs);
         c.put("crossover", crossover(m.stage()));
         c.put("clipping", clipping(m.stage()));

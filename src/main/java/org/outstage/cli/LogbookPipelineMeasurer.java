@@ -1,0 +1,52 @@
+package org.outstage.cli;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.OptionalInt;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.capture.Capture;
+import org.outstage.json.Json;
+import org.outstage.report.MeasurementJson;
+import org.outstage.verify.KeyFigures;
+
+/**
+ * The real measurer: {@link Measuring} (capture reader, {@code Analyzer} with its output-stage diagnosis),
+ * the key figures copied from the {@link Measurement}, and the measurement serialised by
+ * {@link MeasurementJson} (the same JSON as {@code analyze --json}). Nothing is recomputed here.
+ */
+final class LogbookPipelineMeasurer implements LogbookMeasurer {
+    @Override
+    public List<Measured> measure(Path file, AnalyzeOptions options, OptionalInt channel) {
+        Capture cap = Measuring.open(file, options);
+        List<Measurement> ms = Measuring.measure(cap, options.settings(), channel, options.reference(), file.toString());
+        List<Measured> out = new ArrayList<>();
+        List<String> skipped = new ArrayList<>();
+        for (Measurement m : ms) {
+            if (!m.measured()) {
+                String why = file + ", channel " + m.channel() + ": not measured: " + m.notMeasuredReason().get();
+                if (channel.isPresent()) throw new BadInputException(why);
+                skipped.add(why);
+                continue;
+            }
+            List<String> warnings = new ArrayList<>(cap.warnings());
+            warnings.addAll(skipped);
+            out.add(new Measured(m.channel(), cap.channelCount(), figures(m), Json.write(MeasurementJson.capture(file.toString(), m, cap.warnings())),
+                    warnings));
+        }
+        if (out.isEmpty()) throw new BadInputException(skipped.isEmpty() ? file + ": no channel to measure" : skipped.get(0));
+        return out;
+    }
+
+    static KeyFigures figures(Measurement m) {
+        KeyFigures f = KeyFigures.basic(m.fundamental().frequencyHz(), m.fundamental().rms(), m.unit(), m.thd().ratio(), m.thdN().ratio());
+        if (m.powerWatts().isPresent()) f = f.withPower(m.powerWatts().get().fundamentalWatts(), m.powerWatts().get().loadOhms());
+        if (m.stage() instanceof StageDiagnosis.Measured d) {
+            if (Double.isFinite(d.residual().rmsVolts())) f = f.withResidualRms(d.residual().rmsVolts());
+            if (Double.isFinite(d.crossover().gainAtZero())) f = f.withCrossover(d.crossover().gainAtZero(), d.crossover().verdict().label());
+            if (d.clipping().asymmetryPercent().isPresent()) f = f.withClipAsymmetry(d.clipping().asymmetryPercent().getAsDouble() / 100);
+        }
+        return f;
+    }
+}

@@ -1,0 +1,189 @@
+package org.outstage.verify;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.OptionalDouble;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+
+/**
+ * Reads a spec profile (docs/spec-format.md). One statement per line, {@code #} starts a comment:
+ * <pre>
+ * name DA-60
+ * rated-power 60 W
+ * rated-load 8 ohm
+ * thd   &lt;= 0.05 %  at 1 kHz, 1 W, 8 ohm
+ * power &gt;= 55 W    at 1 kHz, 1 % thd, 8 ohm
+ * </pre>
+ * Every error names the file and the line.
+ */
+public final class SpecParser {
+    private SpecParser() {}
+
+    private static final Pattern NUMBER_UNIT = Pattern.compile("^([-+]?\\d+(?:\\.\\d+)?(?:[eE][-+]?\\d+)?)\\s*(.*)$");
+
+    public static SpecProfile read(Path file) {
+        String text;
+        try {
+            text = Files.readString(file, StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw new IllegalArgumentException(file + ": cannot read the spec (" + e.getMessage() + ")");
+        }
+        return parse(text, file.toString());
+    }
+
+    public static SpecProfile parse(String text, String source) {
+        String name = null;
+        OptionalDouble ratedPower = OptionalDouble.empty();
+        OptionalDouble ratedLoad = OptionalDouble.empty();
+        double freqTol = 0.05;
+        double powerTol = 0.10;
+        List<String[]> limitLines = new ArrayList<>();
+        String[] lines = text.split("\r?\n", -1);
+        for (int i = 0; i < lines.length; i++) {
+            int no = i + 1;
+            String line = lines[i].replaceFirst("#.*", "").strip();
+            if (line.isEmpty()) continue;
+            String[] kw = line.split("\\s+", 2);
+            String key = kw[0].toLowerCase(Locale.ROOT);
+            String rest = kw.length > 1 ? kw[1].strip() : "";
+            switch (key) {
+                case "name" -> {
+                    if (rest.isEmpty()) throw error(source, no, "name needs a value");
+                    name = rest;
+                }
+                case "rated-power" -> ratedPower = OptionalDouble.of(quantity(source, no, rest, "W"));
+                case "rated-load" -> ratedLoad = OptionalDouble.of(quantity(source, no, rest, "ohm"));
+                case "match-frequency" -> freqTol = quantity(source, no, rest, "%") / 100;
+                case "match-power" -> powerTol = quantity(source, no, rest, "%") / 100;
+                default -> {
+                    if (Quantity.byKeyword(key) == null) {
+                        throw error(source, no, "unknown statement '" + kw[0] + "' (expected name, rated-power, rated-load, match-frequency,"
+                                + " match-power, or a limit: thd, thd+n, power, clip-asymmetry, noise, balance)");
+                    }
+                    limitLines.add(new String[] {Integer.toString(no), line});
+                }
+            }
+        }
+        List<Limit> limits = new ArrayList<>();
+        for (String[] l : limitLines) limits.add(limit(source, Integer.parseInt(l[0]), l[1], ratedPower, ratedLoad));
+        if (limits.isEmpty()) throw new IllegalArgumentException(source + ": the spec has no limits");
+        return new SpecProfile(source, name == null ? Path.of(source).getFileName().toString() : name, ratedPower, ratedLoad, freqTol,
+                powerTol, limits);
+    }
+
+    private static IllegalArgumentException error(String source, int line, String msg) {
+        return new IllegalArgumentException(source + ", line " + line + ": " + msg);
+    }
+
+    /** "60 W" → 60 with the unit checked (ohm also accepts Ω). */
+    private static double quantity(String source, int no, String text, String unit) {
+        Matcher m = NUMBER_UNIT.matcher(text.strip());
+        if (!m.matches()) throw error(source, no, "expected a number and " + unit + ", got '" + text + "'");
+        String u = m.group(2).strip();
+        boolean ok = u.equalsIgnoreCase(unit) || (unit.equals("ohm") && (u.equals("Ω") || u.equalsIgnoreCase("ohms")));
+        if (!ok) throw error(source, no, "expected the unit " + unit + ", got '" + u + "'");
+        double v = Double.parseDouble(m.group(1));
+        if (!(v > 0)) throw error(source, no, text + " must be > 0");
+        return v;
+    }
+
+    private static Limit limit(String source, int no, String line, OptionalDouble ratedPower, OptionalDouble ratedLoad) {
+        String head = line;
+        String cond = "";
+        int at = indexOfWord(line, "at");
+        if (at >= 0) {
+            head = line.substring(0, at).strip();
+            cond = line.substring(at + 2).strip();
+            if (cond.isEmpty()) throw error(source, no, "'at' needs conditions, e.g. 'at 1 kHz, 1 W, 8 ohm'");
+        }
+        String[] parts = head.split("\\s+", 3);
+        if (parts.length < 3) throw error(source, no, "expected QUANTITY <= or >= VALUE UNIT, got '" + head + "'");
+        Quantity q = Quantity.byKeyword(parts[0]);
+        boolean atMost;
+        if (parts[1].equals("<=") || parts[1].equals("≤")) atMost = true;
+        else if (parts[1].equals(">=") || parts[1].equals("≥")) atMost = false;
+        else throw error(source, no, "expected <= or >= after " + parts[0] + ", got '" + parts[1] + "'");
+        Matcher m = NUMBER_UNIT.matcher(parts[2].strip());
+        if (!m.matches()) throw error(source, no, "expected a number and a unit, got '" + parts[2] + "'");
+        double v = Double.parseDouble(m.group(1));
+        String unit = m.group(2).strip().replace("uV", "µV");
+        double bound;
+        switch (q) {
+            case THD, THD_N, CLIP_ASYMMETRY -> {
+                if (unit.equals("%")) bound = v / 100;
+                else if (unit.equals("dB") && q != Quantity.CLIP_ASYMMETRY) bound = Math.pow(10, v / 20);
+                else throw error(source, no, q.keyword() + " takes % " + (q == Quantity.CLIP_ASYMMETRY ? "" : "or dB ") + "(got '" + unit + "')");
+            }
+            case POWER -> {
+                if (unit.equals("W")) bound = v;
+                else if (unit.equals("mW")) bound = v / 1000;
+                else throw error(source, no, "power takes W (got '" + unit + "')");
+                unit = "W";
+            }
+            case NOISE -> {
+                bound = switch (unit) {
+                    case "V" -> v;
+                    case "mV" -> v / 1e3;
+                    case "µV" -> v / 1e6;
+                    default -> throw error(source, no, "noise takes V, mV or µV (got '" + unit + "')");
+                };
+            }
+            case BALANCE -> {
+                if (!unit.equals("dB")) throw error(source, no, "balance takes dB (got '" + unit + "')");
+                bound = v;
+            }
+            default -> throw new IllegalStateException(q.toString());
+        }
+        if (!(bound > 0) || !Double.isFinite(bound)) throw error(source, no, "the bound must be > 0");
+        OptionalDouble f = OptionalDouble.empty();
+        OptionalDouble p = OptionalDouble.empty();
+        OptionalDouble r = OptionalDouble.empty();
+        OptionalDouble thd = OptionalDouble.empty();
+        if (!cond.isEmpty()) {
+            for (String c : cond.split(",")) {
+                String t = c.strip();
+                if (t.equalsIgnoreCase("rated power") || t.equalsIgnoreCase("rated")) {
+                    if (ratedPower.isEmpty()) throw error(source, no, "'rated power' needs a rated-power line before the limits");
+                    p = ratedPower;
+                    continue;
+                }
+                if (t.equalsIgnoreCase("rated load")) {
+                    if (ratedLoad.isEmpty()) throw error(source, no, "'rated load' needs a rated-load line");
+                    r = ratedLoad;
+                    continue;
+                }
+                Matcher cm = NUMBER_UNIT.matcher(t);
+                if (!cm.matches()) throw error(source, no, "cannot read the condition '" + t + "'");
+                double x = Double.parseDouble(cm.group(1));
+                if (!(x > 0)) throw error(source, no, "the condition '" + t + "' must be > 0");
+                String u = cm.group(2).strip();
+                switch (u.toLowerCase(Locale.ROOT)) {
+                    case "hz" -> f = OptionalDouble.of(x);
+                    case "khz" -> f = OptionalDouble.of(x * 1000);
+                    case "w" -> p = OptionalDouble.of(x);
+                    case "mw" -> p = OptionalDouble.of(x / 1000);
+                    case "ohm", "ohms", "ω" -> r = OptionalDouble.of(x);
+                    case "% thd" -> {
+                        if (q != Quantity.POWER) throw error(source, no, "'% thd' is a condition of the power limit only");
+                        thd = OptionalDouble.of(x / 100);
+                    }
+                    default -> throw error(source, no, "unknown condition unit in '" + t + "' (Hz, kHz, W, mW, ohm, % thd, rated power)");
+                }
+            }
+        }
+        if (q == Quantity.POWER && thd.isEmpty()) throw error(source, no, "power needs the THD it is read at, e.g. 'at 1 kHz, 1 % thd, 8 ohm'");
+        if (q == Quantity.POWER && p.isPresent()) throw error(source, no, "power is what is measured; it cannot also be a condition");
+        return new Limit(no, q, atMost, bound, unit, f, p, r, thd, line);
+    }
+
+    private static int indexOfWord(String line, String word) {
+        Matcher m = Pattern.compile("(?i)(^|\\s)" + word + "(\\s|$)").matcher(line);
+        return m.find() ? m.start() + m.group(1).length() : -1;
+    }
+}

@@ -1,0 +1,187 @@
+package org.outstage.logbook;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.security.MessageDigest;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.ResultSet;
+import java.sql.Statement;
+import java.util.ArrayList;
+import java.util.HexFormat;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+class LogbookTest {
+    @TempDir Path dir;
+
+    @Test
+    void stepsAndMeasurements_roundTripThroughSqlite_equal() {
+        Random rnd = new Random(42);
+        Path db = dir.resolve("lb.db");
+        List<BiasStep> written = new ArrayList<>();
+        List<MeasurementRecord> extra = new ArrayList<>();
+        long id;
+        try (Logbook lb = Logbook.open(db)) {
+            id = lb.startSession(Fixtures.unit(), SessionKind.BIAS_ADJUSTMENT, Fixtures.T0, "first try");
+            for (int i = 0; i < 12; i++) written.add(lb.addBiasStep(id, Fixtures.step(rnd, i, Optional.empty())));
+            for (int i = 0; i < 3; i++) {
+                MeasurementRecord m = Fixtures.measurement(rnd, Optional.empty(), Fixtures.T0.plusSeconds(1000 + i));
+                lb.addMeasurement(id, m);
+                extra.add(m);
+            }
+        }
+        try (Logbook lb = Logbook.open(db)) {
+            assertEquals(written, lb.biasSteps(id));
+            assertEquals(StepPoint.of(written), lb.stepSeries(id), "the light series carries the same figures");
+            assertEquals(extra, lb.measurements(id));
+            assertEquals(Fixtures.unit(), lb.unit("DA-60 #7").orElseThrow());
+            Session s = lb.session(id).orElseThrow();
+            assertEquals(SessionKind.BIAS_ADJUSTMENT, s.kind());
+            assertEquals(Fixtures.T0, s.startedAt());
+            assertTrue(s.open());
+            for (int i = 0; i < written.size(); i++) assertEquals(i + 1, written.get(i).seq());
+        }
+    }
+
+    @Test
+    void storedCapture_isContentAddressed_andSurvivesTheOriginal() throws Exception {
+        Path original = dir.resolve("take_bias-20mV.wav");
+        byte[] bytes = new byte[5000];
+        new Random(7).nextBytes(bytes);
+        Files.write(original, bytes);
+        try (Logbook lb = Logbook.open(dir.resolve("lb.db"))) {
+            CaptureRef ref = lb.storeCapture(original);
+            // oracle: the JDK's SHA-256 of the same bytes
+            assertEquals(HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(bytes)), ref.sha256());
+            assertEquals(5000, ref.sizeBytes());
+            Files.delete(original);
+            Path stored = lb.capturePath(ref).orElseThrow();
+            assertArrayEquals(bytes, Files.readAllBytes(stored));
+            Path again = dir.resolve("renamed.wav");
+            Files.write(again, bytes);
+            assertEquals(ref.sha256(), lb.storeCapture(again).sha256(), "same content gives the same hash");
+            try (var files = Files.list(lb.capturesDir())) {
+                assertEquals(1, files.count(), "no temp files left, one copy per content");
+            }
+        }
+    }
+
+    @Test
+    void textFile_isRefused_andLeftUntouched() throws Exception {
+        Path f = dir.resolve("notes.db");
+        Files.writeString(f, "not a database at all\n");
+        byte[] before = Files.readAllBytes(f);
+        NotALogbookException e = assertThrows(NotALogbookException.class, () -> Logbook.open(f));
+        assertTrue(e.getMessage().contains(f.toString()) && e.getMessage().contains("not an SQLite database"), e.getMessage());
+        assertArrayEquals(before, Files.readAllBytes(f));
+        assertTrue(Files.notExists(dir.resolve("notes.db-wal")));
+    }
+
+    @Test
+    void foreignSqliteDatabase_isRefused_andLeftUntouched() throws Exception {
+        Path f = dir.resolve("other.sqlite");
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement()) {
+            s.executeUpdate("CREATE TABLE recipes (id INTEGER PRIMARY KEY, name TEXT)");
+        }
+        byte[] before = Files.readAllBytes(f);
+        NotALogbookException e = assertThrows(NotALogbookException.class, () -> Logbook.open(f));
+        assertTrue(e.getMessage().contains("tables of another program"), e.getMessage());
+        assertArrayEquals(before, Files.readAllBytes(f));
+
+        Path g = dir.resolve("app.sqlite");
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + g); Statement s = c.createStatement()) {
+            s.executeUpdate("PRAGMA application_id = 1234");
+        }
+        e = assertThrows(NotALogbookException.class, () -> Logbook.open(g));
+        assertTrue(e.getMessage().contains("another application"), e.getMessage());
+    }
+
+    @Test
+    void newerSchema_isRefused() throws Exception {
+        Path f = dir.resolve("future.db");
+        Logbook.open(f).close();
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement()) {
+            s.executeUpdate("PRAGMA user_version = " + (Migrations.latest() + 1));
+        }
+        NotALogbookException e = assertThrows(NotALogbookException.class, () -> Logbook.open(f));
+        assertTrue(e.getMessage().contains("newer Outstage"), e.getMessage());
+    }
+
+    @Test
+    void oldSchema_isMigratedForward_keepingRows() throws Exception {
+        Path f = dir.resolve("old.db");
+        long id;
+        // build a version-1 logbook: open applies everything, so start from an empty file and stop at 1
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement()) {
+            for (String sql : Migrations.STEPS.get(0)) s.executeUpdate(sql);
+            s.executeUpdate("PRAGMA user_version = 1");
+            s.executeUpdate("PRAGMA application_id = " + Migrations.APPLICATION_ID);
+            s.executeUpdate("INSERT INTO units(name) VALUES ('DA-60 #1')");
+            s.executeUpdate("INSERT INTO sessions(unit_id, kind, started_at) VALUES (1, 'evaluation', '2026-01-01T00:00:00Z')");
+        }
+        try (Logbook lb = Logbook.open(f)) {
+            assertEquals(Migrations.latest(), lb.schemaVersion());
+            id = lb.sessions().get(0).id();
+            assertEquals("DA-60 #1", lb.session(id).orElseThrow().unitName());
+        }
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement();
+             ResultSet rs = s.executeQuery("SELECT count(*) FROM sqlite_master WHERE name = 'sessions_by_unit'")) {
+            rs.next();
+            assertEquals(1, rs.getInt(1), "migration 2 applied");
+        }
+    }
+
+    @Test
+    void pragmas_walForeignKeysApplicationId() throws Exception {
+        Path f = dir.resolve("p.db");
+        Logbook.open(f).close();
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement()) {
+            try (ResultSet rs = s.executeQuery("PRAGMA journal_mode")) {
+                rs.next();
+                assertEquals("wal", rs.getString(1));
+            }
+            try (ResultSet rs = s.executeQuery("PRAGMA application_id")) {
+                rs.next();
+                assertEquals(0x4F555453, rs.getInt(1));
+            }
+        }
+        try (Logbook lb = Logbook.open(f)) {
+            // foreign keys are enforced: a step in a session that does not exist is refused
+            assertThrows(IllegalArgumentException.class, () -> lb.addBiasStep(99, Fixtures.step(new Random(1), 0, Optional.empty())));
+            assertThrows(LogbookException.class, () -> lb.write(c -> {
+                try (Statement s = c.createStatement()) {
+                    return s.executeUpdate("INSERT INTO sessions(unit_id, kind, started_at) VALUES (77, 'evaluation', 'x')");
+                }
+            }));
+        }
+    }
+
+    @Test
+    void endedSession_refusesNewSteps() {
+        try (Logbook lb = Logbook.open(dir.resolve("e.db"))) {
+            long id = lb.startSession(UnitUnderTest.named("DA-60 #2"), SessionKind.BIAS_ADJUSTMENT, Fixtures.T0, "");
+            lb.endSession(id, Fixtures.T0.plusSeconds(60));
+            IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                    () -> lb.addBiasStep(id, Fixtures.step(new Random(3), 0, Optional.empty())));
+            assertTrue(e.getMessage().contains("ended"), e.getMessage());
+        }
+    }
+
+    @Test
+    void defaultPath_followsEnvironment() {
+        Path home = Path.of("/home/bench");
+        assertEquals(Path.of("/x/lb.db"), Logbook.defaultPath(Map.of("OUTSTAGE_LOGBOOK", "/x/lb.db"), home));
+        assertEquals(Path.of("/data/outstage/logbook.db"), Logbook.defaultPath(Map.of("XDG_DATA_HOME", "/data"), home));
+        assertEquals(Path.of("/home/bench/.local/share/outstage/logbook.db"), Logbook.defaultPath(Map.of(), home));
+    }
+}
