@@ -49,6 +49,7 @@ final class TransferPanel {
         topologyChoice.setId("topologyChoice");
         sheet.setId("modelSheet");
         sheet.setModeSwitcherVisible(false);
+        sheet.setPropertyEditorFactory(LiveNumberEditor::new);
         sheet.setSearchBoxVisible(false);
         modelMessage.setId("modelMessage");
         modelMessage.setWrapText(true);
@@ -154,6 +155,55 @@ final class TransferPanel {
             return;
         }
         if (chart.spec().isPresent() && chart.spec().get().title().equals(spec.title())) chart.updateSpec(spec); else chart.setSpec(spec);
+    }
+
+    /**
+     * Sheet editor for a number that hands every valid value to the item as it is typed (the stock numeric
+     * editor commits only when the field loses focus), so the overlay follows the keyboard. Text that is not
+     * a number is left in the field, marked, and not applied.
+     */
+    static final class LiveNumberEditor implements org.controlsfx.property.editor.PropertyEditor<Object> {
+        private final javafx.scene.control.TextField field = new javafx.scene.control.TextField();
+        private final PropertySheet.Item item;
+        private boolean setting;
+
+        LiveNumberEditor(PropertySheet.Item item) {
+            this.item = item;
+            field.setPrefColumnCount(7);
+            field.textProperty().addListener((o, a, b) -> {
+                if (setting) return;
+                try {
+                    double v = Double.parseDouble(b.trim().replace(',', '.'));
+                    field.setStyle("");
+                    if (Double.isFinite(v)) item.setValue(v);
+                } catch (NumberFormatException e) {
+                    field.setStyle("-fx-text-fill: #a0281e;");
+                }
+            });
+        }
+
+        @Override public javafx.scene.Node getEditor() { return field; }
+        @Override public Object getValue() { return item.getValue(); }
+
+        @Override
+        public void setValue(Object value) {
+            setting = true;
+            try {
+                String t = value instanceof Number n ? format(n.doubleValue()) : String.valueOf(value);
+                if (!field.getText().equals(t)) {
+                    try {
+                        if (value instanceof Number n && Double.parseDouble(field.getText().trim().replace(',', '.')) == n.doubleValue()) return;
+                    } catch (NumberFormatException keep) { /* replace the text */ }
+                    field.setText(t);
+                }
+            } finally {
+                setting = false;
+            }
+        }
+
+        static String format(double v) {
+            return v == Math.rint(v) && Math.abs(v) < 1e9 ? Long.toString((long) v) : Double.toString(v);
+        }
     }
 
     /** A PropertySheet row bound to one model parameter. */
