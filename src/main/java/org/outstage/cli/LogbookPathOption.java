@@ -2,6 +2,7 @@ package org.outstage.cli;
 
 import java.nio.file.Path;
 import org.outstage.logbook.Logbook;
+import org.outstage.logbook.LogbookException;
 import org.outstage.logbook.NotALogbookException;
 import picocli.CommandLine.Option;
 
@@ -15,12 +16,19 @@ public final class LogbookPathOption {
         return logbook != null ? logbook : Logbook.defaultPath(System.getenv(), Path.of(System.getProperty("user.home")));
     }
 
-    /** Opens the logbook; a file that is not a logbook is bad input (exit 2). */
+    /**
+     * Opens the logbook. A file that is not a logbook, or a place where none can be made (a folder, no
+     * permission), is bad input (exit 2) with the logbook's one-line message.
+     */
     Logbook open() {
+        Path p = path();
+        if (java.nio.file.Files.isDirectory(p)) throw new BadInputException(p + " is a folder; give the logbook file, e.g. " + p.resolve("logbook.db"));
         try {
-            return Logbook.open(path());
+            return Logbook.open(p);
         } catch (NotALogbookException e) {
             throw new BadInputException(e.getMessage());
+        } catch (LogbookException e) {
+            throw new BadInputException("cannot open the logbook: " + e.getMessage());
         }
     }
 }

@@ -59,6 +59,12 @@ public final class SessionExportCommand implements Callable<Integer> {
         Path tmp = Files.createTempFile(abs.getParent(), "." + abs.getFileName(), ".tmp");
         try {
             Files.writeString(tmp, text, StandardCharsets.UTF_8);
+            try {
+                // a temp file is created owner-only; a report or export is an ordinary file
+                Files.setPosixFilePermissions(tmp, java.nio.file.attribute.PosixFilePermissions.fromString("rw-r--r--"));
+            } catch (UnsupportedOperationException notPosix) {
+                // other file systems keep their defaults
+            }
             Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
         } finally {
             Files.deleteIfExists(tmp);

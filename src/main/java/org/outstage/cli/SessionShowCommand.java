@@ -10,6 +10,11 @@ import org.outstage.logbook.DriftAnalysis;
 import org.outstage.logbook.DriftReport;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.SessionData;
+import org.outstage.logbook.StepPoint;
+import org.outstage.report.HtmlSessionReport;
+import org.outstage.report.ReportCharts;
+import java.time.Instant;
+import java.util.List;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -28,12 +33,25 @@ public final class SessionShowCommand implements Callable<Integer> {
     @Option(names = "--json", description = "Print JSON: {\"steps\": [...], \"recommendation\": {...}, \"drift\": {...}}.")
     boolean json;
 
+    @Option(names = "--report", paramLabel = "FILE.html", description = "Also write the session as a self-contained HTML page with trend charts.")
+    java.nio.file.Path report;
+
     @Override
     public Integer call() {
         SessionData d;
         try (Logbook lb = logbook.open()) {
             if (lb.session(sessionId).isEmpty()) throw new BadInputException("no session " + sessionId + " in logbook " + lb.path());
             d = lb.sessionData(sessionId);
+        }
+        if (report != null) {
+            BiasAdvice a = BiasAdvisor.recommend(d.steps());
+            DriftReport dr = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.READING);
+            List<String> charts = ReportCharts.forBiasSession(StepPoint.of(d.steps()), a, BiasAdvisor.DEFAULT_TOLERANCE);
+            try {
+                SessionExportCommand.writeAtomically(report, HtmlSessionReport.render(d, a, dr, charts, Instant.now(), SessionSupport.programVersion()));
+            } catch (java.io.IOException e) {
+                throw new BadInputException(report + ": cannot write (" + e.getMessage() + ")");
+            }
         }
         PrintWriter out = spec.commandLine().getOut();
         if (json) {
@@ -49,6 +67,8 @@ public final class SessionShowCommand implements Callable<Integer> {
                 for (String w : a.warnings()) out.println("warning: " + w);
                 DriftReport dr = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.READING);
                 out.println("drift: " + dr.text());
+                DriftReport dg = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.GAIN_AT_ZERO);
+                out.println("drift of gain at zero: " + dg.text());
             }
         }
         out.flush();

@@ -111,10 +111,11 @@ final class SessionSupport {
         for (BiasStep s : d.steps()) steps.add(stepJson(s));
         BiasAdvice advice = BiasAdvisor.recommend(d.steps());
         DriftReport drift = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.READING);
+        DriftReport driftGain = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.GAIN_AT_ZERO);
         return Json.obj("session_id", d.session().id(), "unit", d.unit().name(), "kind", d.session().kind().label(),
                 "started_at", d.session().startedAt().toString(), "ended_at", d.session().endedAt().map(Instant::toString),
                 "notes", d.session().notes(), "steps", steps, "measurements", d.measurements().size(),
-                "recommendation", adviceJson(advice), "drift", driftJson(drift));
+                "recommendation", adviceJson(advice), "drift", driftJson(drift), "drift_gain_at_zero", driftJson(driftGain));
     }
 
     static String stepLine(BiasStep s) {

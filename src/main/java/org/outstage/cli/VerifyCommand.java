@@ -18,6 +18,7 @@ import org.outstage.logbook.Session;
 import org.outstage.logbook.SessionKind;
 import org.outstage.logbook.UnitUnderTest;
 import org.outstage.report.HtmlReport;
+import org.outstage.report.ReportCharts;
 import org.outstage.report.ReportDocument;
 import org.outstage.report.ReportJson;
 import org.outstage.verify.LimitResult;
@@ -106,7 +107,8 @@ public final class VerifyCommand implements Callable<Integer> {
                 u = lb.unit(u.name()).orElse(u);
             }
         }
-        ReportDocument doc = new ReportDocument(u, session, result, channels, List.of(), Instant.now(), SessionSupport.programVersion());
+        List<String> charts = report != null ? ReportCharts.forVerification(result, channels) : List.of();
+        ReportDocument doc = new ReportDocument(u, session, result, channels, charts, Instant.now(), SessionSupport.programVersion());
         if (report != null) SessionExportCommand.writeAtomically(report, HtmlReport.render(doc));
         if (reportJson != null) SessionExportCommand.writeAtomically(reportJson, Json.pretty(ReportJson.of(doc)) + "\n");
 

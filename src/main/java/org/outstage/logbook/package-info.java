@@ -1,2 +1,9 @@
-/** SQLite logbook: units under test, sessions, stored captures, measurements, bias steps; numbered migrations. */
+/**
+ * SQLite logbook: units under test, sessions, stored captures (content-addressed by SHA-256 beside the
+ * database), measurements with their provenance, bias steps; numbered migrations. Entry point
+ * {@link org.outstage.logbook.Logbook}; exports in {@link org.outstage.logbook.SessionExport}; the bias advice
+ * ({@link org.outstage.logbook.BiasAdvisor}) and drift ({@link org.outstage.logbook.DriftAnalysis}) read a
+ * session's steps. Knows nothing of the analysis internals: the caller hands in the measurement as JSON text
+ * and the indexed {@link org.outstage.verify.KeyFigures}.
+ */
 package org.outstage.logbook;

@@ -43,7 +43,8 @@ public final class HtmlReport {
 
     public static String render(ReportDocument d) {
         StringBuilder h = new StringBuilder(16_384);
-        String title = "Verification of " + d.unit().name() + " against " + d.result().spec().name();
+        String title = d.unit().name().equals(d.result().spec().name()) ? "Verification of " + d.unit().name()
+                : "Verification of " + d.unit().name() + " against " + d.result().spec().name();
         h.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
         h.append("<title>").append(esc(title)).append("</title>\n<style>\n").append(CSS).append("</style>\n</head>\n<body>\n");
         h.append("<h1>").append(esc(title)).append("</h1>\n");

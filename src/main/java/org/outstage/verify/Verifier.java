@@ -25,13 +25,16 @@ import java.util.OptionalDouble;
  *     threshold, interpolated linearly in log THD against log power (common practice: THD rises steeply and
  *     near-exponentially into clipping). Not measured when no pair brackets it.</li>
  * <li>clip-asymmetry: the largest |asymmetry| among captures that clip.</li>
- * <li>noise: the residual RMS of captures without a test tone (fundamental RMS below twice the residual RMS),
- *     calibrated in volts; the largest counts.</li>
+ * <li>noise: captures without a test tone (the fitted line, usually hum, below 10 mV RMS), calibrated in volts;
+ *     noise = √(line² + residual²), the output RMS without DC (hum counts as noise); the largest counts.</li>
  * <li>balance: |20·log10(rms1/rms2)| between channels 1 and 2 of one capture; the largest counts.</li>
  * </ul>
  */
 public final class Verifier {
     private Verifier() {}
+
+    /** A capture whose strongest line is below this (10 mV RMS) carries no test tone: it is a noise capture (our rule). */
+    static final double NOISE_TONE_LIMIT_VOLTS = 0.01;
 
     public static VerificationResult verify(SpecProfile spec, List<MeasuredChannel> channels) {
         List<LimitResult> out = new ArrayList<>();
@@ -108,21 +111,26 @@ public final class Verifier {
             }
             case NOISE -> {
                 MeasuredChannel worst = null;
+                double worstV = -1;
                 String uncal = null;
                 for (MeasuredChannel c : m) {
                     KeyFigures f = c.figures();
-                    if (f.residualRms().isEmpty() || f.fundamentalRms() >= 2 * f.residualRms().getAsDouble()) continue;
+                    if (f.residualRms().isEmpty() || f.fundamentalRms() >= NOISE_TONE_LIMIT_VOLTS) continue;
                     if (!f.unit().equals("V")) {
                         uncal = where(c);
                         continue;
                     }
-                    if (worst == null || f.residualRms().getAsDouble() > worst.figures().residualRms().getAsDouble()) worst = c;
+                    double v = Math.hypot(f.fundamentalRms(), f.residualRms().getAsDouble());
+                    if (v > worstV) {
+                        worstV = v;
+                        worst = c;
+                    }
                 }
                 if (worst == null) {
                     return notMeasured(l, uncal != null ? "the noise capture " + uncal + " is not calibrated in volts (give --fs-volts)"
-                            : "no capture without a test tone (input shorted)");
+                            : "no capture without a test tone (input shorted, strongest line below 10 mV)");
                 }
-                return result(l, worst.figures().residualRms().getAsDouble(), where(worst));
+                return result(l, worstV, where(worst));
             }
             case BALANCE -> {
                 Map<String, double[]> byCapture = new LinkedHashMap<>();

@@ -53,6 +53,12 @@ public class LogbookBench {
 
     @Setup(Level.Trial)
     public void setUp() throws Exception {
+        // JLargeArrays' default pool has non-daemon threads that keep a forked JVM alive (toolchain.md P7)
+        pl.edu.icm.jlargearrays.ConcurrencyUtils.setThreadPool(java.util.concurrent.Executors.newCachedThreadPool(r -> {
+            Thread t = new Thread(r, "fft");
+            t.setDaemon(true);
+            return t;
+        }));
         dir = Files.createTempDirectory("logbook-bench");
         // 2 s, 48 kHz, 24-bit: a 997 Hz sine at 0.5 FS with a small crossover bump and a -60 dBc third harmonic
         int fs = 48_000;

@@ -71,6 +71,11 @@ class SessionCommandTest {
         assertEquals(18.75, (Double) rec.get("bias_mv_low"), 1e-9);
         assertEquals(25 + 5 * (0.002 / 0.003), (Double) rec.get("bias_mv_high"), 1e-9);
         assertTrue(((String) rec.get("advice")).contains("less bias"), rec.toString());
+        Path page = dir.resolve("session.html");
+        assertEquals(0, run("session", "show", Long.toString(id), "--logbook", db, "--report", page.toString()), err);
+        String html = Files.readString(page);
+        assertTrue(html.contains("<svg") && html.contains("Gain at zero against the bias reading") && html.contains("@media print"), html);
+        assertTrue(html.contains("DA-60 #3") && html.contains("thermal runaway"));
         // the stored capture holds provenance
         try (Logbook lb = Logbook.open(Path.of(db))) {
             var m = lb.biasSteps(id).get(0).measurement().orElseThrow();
@@ -128,6 +133,12 @@ class SessionCommandTest {
         }
         assertEquals(0, run("session", "list", "--logbook", b, "--json"), err);
         assertTrue(out.contains("DA-60 #4"));
+    }
+
+    @Test
+    void logbookPathIsAFolder_exit2_oneLine() {
+        assertEquals(2, run("session", "list", "--logbook", dir.toString()));
+        assertTrue(err.contains("is a folder") && err.lines().count() == 1, err);
     }
 
     @Test

@@ -86,7 +86,9 @@ class VerifyCommandTest {
         assertEquals(20 * Math.log10(2.83 / 2.80), (Double) balance.get("measured"), 1e-9);
         String page = Files.readString(html);
         assertTrue(page.startsWith("<!DOCTYPE html>") && page.contains("@media print") && page.contains("thermal runaway"), page);
-        assertFalse(page.contains("<script") || page.contains("http://") || page.contains("https://"), "self-contained");
+        assertFalse(page.contains("<script") || page.contains("<link") || page.contains("src=\"http") || page.contains("href=\"http")
+                || page.contains("@import"), "self-contained");
+        assertTrue(page.contains("<svg") && page.contains("Distortion against output power"), "level chart from the 1, 60 and 70 W captures");
         try (Logbook lb = Logbook.open(Path.of(db))) {
             var s = lb.sessions().get(0);
             assertEquals(SessionKind.VERIFICATION, s.kind());

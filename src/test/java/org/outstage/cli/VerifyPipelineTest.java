@@ -55,6 +55,13 @@ class VerifyPipelineTest {
         double[] right = left.clone();
         for (int i = 0; i < right.length; i++) right[i] *= Math.pow(10, -0.2 / 20);
         args.add(wav("stereo.wav", left, right).toString());
+        // input shorted: 0.4 mV rms of 50 Hz hum and 150 µV rms of white noise (seeded)
+        double[] quiet = new double[FS];
+        java.util.Random rnd = new java.util.Random(50);
+        for (int i = 0; i < FS; i++) {
+            quiet[i] = (150e-6 * rnd.nextGaussian() + 0.4e-3 * Math.sqrt(2) * Math.sin(2 * Math.PI * 50 * i / FS)) / FS_VOLTS;
+        }
+        args.add(wav("shorted.wav", quiet).toString());
         StringWriter o = new StringWriter();
         StringWriter e = new StringWriter();
         int code = OutstageCommand.commandLine(new PrintWriter(o), new PrintWriter(e)).execute(args.toArray(String[]::new));
@@ -72,6 +79,9 @@ class VerifyPipelineTest {
         assertEquals("pass", limits.get(3).get("verdict"));
         assertEquals("not-measured", limits.get(4).get("verdict"), "nothing clips");
         assertEquals(0.2, (Double) limits.get(6).get("measured"), 1e-3, "balance 0.2 dB");
+        // hum and noise add in power (Parseval): sqrt(0.4^2 + 0.15^2) = 0.4272 mV; the seeded noise's own RMS varies by ~1 %
+        assertEquals(Math.hypot(0.4, 0.15), (Double) limits.get(5).get("measured"), 0.005, "noise in mV");
+        assertEquals("pass", limits.get(5).get("verdict"));
         assertEquals("fail", r.get("outcome"));
         assertTrue(e.toString().isEmpty() || !e.toString().contains("Exception"), e.toString());
     }

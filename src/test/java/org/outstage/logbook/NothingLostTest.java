@@ -126,4 +126,35 @@ class NothingLostTest {
             assertEquals("ok", lb.integrityCheck());
         }
     }
+
+    @Test
+    void twoWriterProcessesOnOneSession_noLostRows_noLockedError() throws Exception {
+        Path db = dir.resolve("procs.db");
+        long sid;
+        try (Logbook lb = Logbook.open(db)) {
+            sid = lb.startSession(UnitUnderTest.named("DA-60 P"), SessionKind.BIAS_ADJUSTMENT, Fixtures.T0, "");
+        }
+        int n = 40;
+        List<Process> ps = new ArrayList<>();
+        List<Path> errs = new ArrayList<>();
+        for (int k = 0; k < 2; k++) {
+            Path err = dir.resolve("err" + k + ".txt");
+            errs.add(err);
+            ps.add(new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-XX:TieredStopAtLevel=1",
+                    "-cp", System.getProperty("java.class.path"), KillWriterMain.class.getName(), db.toString(), Long.toString(sid),
+                    Long.toString(100 + k), Integer.toString(n))
+                    .redirectOutput(ProcessBuilder.Redirect.DISCARD).redirectError(err.toFile()).start());
+        }
+        for (Process p : ps) {
+            assertTrue(p.waitFor(60, TimeUnit.SECONDS), "writer finished");
+            assertEquals(0, p.exitValue());
+        }
+        for (Path e : errs) assertEquals("", Files.readString(e), "nothing on stderr (no 'database is locked')");
+        try (Logbook lb = Logbook.open(db)) {
+            List<BiasStep> steps = lb.biasSteps(sid);
+            assertEquals(2 * n, steps.size());
+            for (int i = 0; i < steps.size(); i++) assertEquals(i + 1, steps.get(i).seq());
+            assertEquals("ok", lb.integrityCheck());
+        }
+    }
 }

@@ -73,8 +73,9 @@ class VerifierTest {
         KeyFigures tone = at(1000, 2.8, 1e-4, 8).withResidualRms(1e-3);
         LimitResult r = only("noise <= 1 mV", List.of(new MeasuredChannel("short.wav", 1, silent), new MeasuredChannel("t.wav", 1, tone)));
         assertEquals(Verdict.PASS, r.verdict());
-        assertEquals(4e-4, r.measured().getAsDouble());
-        assertEquals(0.6, r.margin().getAsDouble(), 1e-12);
+        // hum line and residual add in power (Parseval): sqrt(0.1^2 + 0.4^2) mV = 0.41231 mV
+        assertEquals(Math.sqrt(1e-8 + 16e-8), r.measured().getAsDouble(), 1e-15);
+        assertEquals(1 - Math.sqrt(0.01 + 0.16), r.margin().getAsDouble(), 1e-12);
         LimitResult u = only("noise <= 1 mV", List.of(new MeasuredChannel("short.wav", 1, silentFs)));
         assertEquals(Verdict.NOT_MEASURED, u.verdict());
         assertTrue(u.evidence().contains("--fs-volts"), u.evidence());

@@ -3,12 +3,12 @@ package org.outstage.analysis.stage;
 /**
  * Band-limited fractional delay by a Kaiser-windowed sinc interpolator (T. I. Laakso et al., "Splitting the
  * unit delay", IEEE Signal Processing Magazine 13(1), 1996, §III windowed-sinc design; Kaiser window with
- * β = 10, 2·24 taps, coefficients normalised to unit DC gain). Samples within {@link #HALF_WIDTH} of either end
+ * β = 9, 2·16 taps, coefficients normalised to unit DC gain). Samples within {@link #HALF_WIDTH} of either end
  * are not fully supported and are left at what the truncated kernel gives; callers drop them.
  */
 final class FractionalDelay {
-    static final int HALF_WIDTH = 24;
-    private static final double BETA = 10;
+    static final int HALF_WIDTH = 16;
+    private static final double BETA = 9;
 
     private FractionalDelay() {}
 

@@ -19,7 +19,7 @@ import org.outstage.analysis.SineFit;
  *   <li><b>square wave</b>: at least 95 % of the samples lie within 5 % of the peak-to-peak range of the two
  *       plateau levels (medians of the upper and lower halves) and each plateau holds at least 20 %. A sine
  *       spends only 29 % of its time within 5 % of its extremes; a sine clipped so hard that 95 % of it sits on
- *       the rails (clip level below about 8 % of the drive) is treated as a square: no stage figure means
+ *       the rails (clip level below about 9 % of the drive) is treated as a square: no stage figure means
  *       anything there;</li>
  *   <li><b>no dominant tone</b>: the strongest line and its harmonics hold under half of the AC power
  *       (Hann window, ±6 bins per line) — noise, or a tone buried in it;</li>
@@ -29,7 +29,7 @@ import org.outstage.analysis.SineFit;
  *       30 dB above the median spectral level, so that noise is not read as a tone; harmonics up to the 50th
  *       are not second tones.</li>
  * </ol>
- * At most the first 2^17 samples are used for the spectral rules and 65 536 evenly spread samples for the
+ * At most the first 2^17 samples are used for the spectral rules and 16 384 evenly spread samples for the
  * plateau rule. Pure and thread-safe.
  */
 public final class SignalCheck {
@@ -90,7 +90,7 @@ public final class SignalCheck {
     private static Optional<String> shape(double[] x, double fs) {
         // plateau rule
         int n = x.length;
-        int take = Math.min(n, 65536);
+        int take = Math.min(n, 16384);
         double[] sub = new double[take];
         for (int i = 0; i < take; i++) sub[i] = x[(int) ((long) i * n / take)];
         Arrays.sort(sub);
@@ -151,9 +151,7 @@ public final class SignalCheck {
         }
         double f0 = k0f * fs / m;
         if (k2 > 0) {
-            double[] sorted = Arrays.copyOfRange(p, guard + 1, half);
-            Arrays.sort(sorted);
-            double median = sorted[sorted.length / 2];
+            double median = select(Arrays.copyOfRange(p, guard + 1, half), (half - guard - 1) / 2);
             double ratio = Math.sqrt(p[k2] / p[k0]);
             if (ratio >= 0.1 && p[k2] >= 1000 * median)
                 return Optional.of(String.format(Locale.ROOT, TWO_TONES + ": a line at %.4g Hz, %.1f dB relative to the %.4g Hz tone, is not one of its harmonics",
@@ -163,5 +161,23 @@ public final class SignalCheck {
             return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
                     f0, 100 * inLines / total));
         return Optional.empty();
+    }
+
+    /** k-th smallest value (0-based) by quickselect (Hoare), reordering {@code a}. */
+    static double select(double[] a, int k) {
+        int lo = 0, hi = a.length - 1;
+        while (lo < hi) {
+            double pivot = a[(lo + hi) >>> 1];
+            int i = lo, j = hi;
+            while (i <= j) {
+                while (a[i] < pivot) i++;
+                while (a[j] > pivot) j--;
+                if (i <= j) { double t = a[i]; a[i] = a[j]; a[j] = t; i++; j--; }
+            }
+            if (k <= j) hi = j;
+            else if (k >= i) lo = i;
+            else return a[k];
+        }
+        return a[k];
     }
 }

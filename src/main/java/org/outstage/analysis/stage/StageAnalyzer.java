@@ -55,8 +55,8 @@ public final class StageAnalyzer {
         double[] x = new double[n];
         boolean[] rising = new boolean[n];
         ideal(fit, sampleRateHz, n, x, rising);
-        Residual res = residualFrom(samples, x, fit.dcOffset(), sampleRateHz, s);
-        return finish(x, rising, samples, fit.amplitudePeak(), sampleRateHz, s, res, false, Optional.empty());
+        ResidualFigures rf = residualFigures(samples, x, fit, sampleRateHz, s);
+        return engine(x, rising, samples, fit.amplitudePeak(), sampleRateHz, s, rf, false, Optional.empty());
     }
 
     /**
@@ -88,7 +88,8 @@ public final class StageAnalyzer {
         double[] ideal = new double[n];
         boolean[] rising0 = new boolean[n];
         ideal(outputFit, sampleRateHz, n, ideal, rising0);
-        Residual res = residualFrom(output, ideal, outputFit.dcOffset(), sampleRateHz, s);
+        ResidualFigures rf = residualFigures(output, ideal, outputFit, sampleRateHz, s);
+        ideal = null;
 
         // aligned, gain-scaled reference: u[k] = gain·(ref(k − D) − dc_ref)
         double[] u = FractionalDelay.delay(reference, refFit.dcOffset(), al.delaySamples());
@@ -98,16 +99,16 @@ public final class StageAnalyzer {
         double[] xs = new double[len], ys = new double[len];
         boolean[] rising = new boolean[len];
         double peak = 0;
-        double w = 2 * Math.PI * refFit.frequencyHz() / sampleRateHz;
         for (int i = 0; i < len; i++) {
             int k = i + skip;
             xs[i] = al.gain() * u[k];
             ys[i] = output[k];
             peak = Math.max(peak, Math.abs(xs[i]));
-            double dRef = -Math.sin(w * (k - al.delaySamples()) + refFit.phaseRadians());
-            rising[i] = dRef * al.gain() > 0;
+            // the aligned reference has the phase of the output's fitted fundamental (that is how the delay and
+            // the sign of the gain were found), so it rises when that fundamental rises
+            rising[i] = rising0[k];
         }
-        return finish(xs, rising, ys, peak * (1 + 1e-12), sampleRateHz, s, res, true, Optional.of(al));
+        return engine(xs, rising, ys, peak * (1 + 1e-12), sampleRateHz, s, rf, true, Optional.of(al));
     }
 
     /** The residual waveform (capture minus fitted fundamental and DC, band-limited as set). */
@@ -146,23 +147,41 @@ public final class StageAnalyzer {
         return r <= -Math.PI ? r + 2 * Math.PI : r;
     }
 
-    private static StageDiagnosis finish(double[] x, boolean[] rising, double[] y, double peak, double fs, StageSettings s,
-                                         Residual res, boolean fromRef, Optional<ReferenceAlignment> al) {
-        // residual energy near the zero crossings of the ideal output (on the output's own time base)
-        double[] r = res.view();
-        double lim = s.nearZeroFraction() * peak, eNear = 0, eAll = 0;
-        int cNear = 0;
-        int off = (r.length - x.length) / 2;
-        for (int i = 0; i < x.length; i++) {
-            double v = r[i + off];
-            eAll += v * v;
-            if (Math.abs(x[i]) < lim) { eNear += v * v; cNear++; }
+    /** Residual summary plus the share of its energy (and of the time) where |ideal| &lt; nearZeroFraction·peak. */
+    private record ResidualFigures(Residual.Summary summary, double nearShare, double nearTime) {}
+
+    private static ResidualFigures residualFigures(double[] y, double[] x, SineFit fit, double fs, StageSettings s) {
+        int n = y.length;
+        double lim = s.nearZeroFraction() * fit.amplitudePeak();
+        double ss = 0, pk = 0, eNear = 0;
+        int at = 0, cNear = 0;
+        if (s.residualHighPassHz() > 0 || s.residualLowPassHz() > 0) {
+            Residual full = residualFrom(y, x, fit.dcOffset(), fs, s);
+            double[] r = full.view();
+            for (int i = 0; i < n; i++) {
+                double r2 = r[i] * r[i];
+                ss += r2;
+                if (Math.abs(x[i]) < lim) { eNear += r2; cNear++; }
+            }
+            return new ResidualFigures(full.summary(), ss > 0 ? eNear / ss : 0, (double) cNear / n);
         }
-        double share = eAll > 0 ? eNear / eAll : 0;
+        // unfiltered: the residual's figures in one pass, without materialising it
+        double dc = fit.dcOffset();
+        for (int i = 0; i < n; i++) {
+            double r = y[i] - x[i] - dc, r2 = r * r;
+            ss += r2;
+            if (Math.abs(r) > pk) { pk = Math.abs(r); at = i; }
+            if (Math.abs(x[i]) < lim) { eNear += r2; cNear++; }
+        }
+        return new ResidualFigures(new Residual.Summary(Math.sqrt(ss / n), pk, at / fs, 0, 0), ss > 0 ? eNear / ss : 0,
+                (double) cNear / n);
+    }
+
+    private static StageDiagnosis engine(double[] x, boolean[] rising, double[] y, double peak, double fs, StageSettings s,
+                                         ResidualFigures rf, boolean fromRef, Optional<ReferenceAlignment> al) {
         try {
-            TransferEngine.Result t = TransferEngine.analyze(x, rising, y, peak, fs, s, fromRef, share,
-                    (double) cNear / x.length, s.unit());
-            return new StageDiagnosis.Measured(res.summary(), t.transfer(), t.crossover(), t.clipping(), al);
+            TransferEngine.Result t = TransferEngine.analyze(x, rising, y, peak, fs, s, fromRef, rf.nearShare(), rf.nearTime(), s.unit());
+            return new StageDiagnosis.Measured(rf.summary(), t.transfer(), t.crossover(), t.clipping(), al);
         } catch (IllegalArgumentException e) {
             return new StageDiagnosis.NotMeasured(e.getMessage());
         }

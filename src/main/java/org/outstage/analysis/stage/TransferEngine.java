@@ -35,11 +35,11 @@ final class TransferEngine {
     }
 
     /**
-     * Smallest positive step between distinct values of (up to 65 536 evenly spread) samples: the resolution of
+     * Smallest positive step between distinct values of (up to 8192 evenly spread) samples: the resolution of
      * an integer-coded capture (8-bit scope: range/256), or a tiny number for a continuous one.
      */
     static double quantisationStep(double[] y) {
-        int n = y.length, take = Math.min(n, 65536);
+        int n = y.length, take = Math.min(n, 8192);
         double[] v = new double[take];
         for (int i = 0; i < take; i++) v[i] = y[(int) ((long) i * n / take)];
         Arrays.sort(v);

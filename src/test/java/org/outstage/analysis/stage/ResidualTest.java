@@ -78,4 +78,18 @@ class ResidualTest {
         assertEquals(y[100], Double.parseDouble(row[1]), 0);
         assertEquals(Double.parseDouble(row[1]) - Double.parseDouble(row[2]), Double.parseDouble(row[3]), 1e-12);
     }
+
+    /** The diagnosis's residual summary is the residual's own (same figures with and without a band). */
+    @Test
+    void diagnosisSummary_equalsResidualSummary() {
+        double[] y = StageFixtures.noisy(StageFixtures.drive(N, FS, F, 5, 0.1, v -> StageFixtures.deadZone(v, 0.05)), 1e-4, 9);
+        SineFit fit = SineFitter.fit(y, FS);
+        for (StageSettings s : new StageSettings[] {StageSettings.defaults(), StageSettings.defaults().withResidualBand(100, 20000)}) {
+            Residual.Summary want = StageAnalyzer.residual(y, FS, fit, s).summary();
+            StageDiagnosis.Measured m = (StageDiagnosis.Measured) StageAnalyzer.diagnose(y, FS, fit, s);
+            assertEquals(want.rmsVolts(), m.residual().rmsVolts(), 1e-12 * want.rmsVolts());
+            assertEquals(want.peakVolts(), m.residual().peakVolts(), 1e-12 * want.peakVolts());
+            assertEquals(want.peakTimeSeconds(), m.residual().peakTimeSeconds(), 0);
+        }
+    }
 }
