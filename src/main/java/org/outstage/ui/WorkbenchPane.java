@@ -170,7 +170,10 @@ final class WorkbenchPane extends BorderPane {
                 setTooltip(!empty && item != null && item.failed() ? new Tooltip(item.error) : null);
             }
         });
-        captureList.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> onSelect(b));
+        captureList.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> {
+            if (a != null && a != b && a.data != null) a.data = a.data.light();   // keep charts only for the capture on screen
+            onSelect(b);
+        });
         captureList.setPrefWidth(250);
         VBox.setVgrow(captureList, Priority.ALWAYS);
         Button openButton = new Button("Open…");
@@ -463,7 +466,8 @@ final class WorkbenchPane extends BorderPane {
         }
         if (e.failed()) { show(ViewData.failed(e.name, "Could not open " + e.name + ": " + e.error)); return; }
         if (e.capture == null) { showNothing(); statusText.setText("Opening " + e.name + "…"); return; }
-        if (e.data != null) { show(e.data); return; }   // results are dropped when settings or calibration change
+        if (e.data != null) show(e.data);   // results are dropped when settings or calibration change
+        if (e.data != null && e.data.full()) return;
         analyzeSelected();
     }
 
@@ -561,8 +565,9 @@ final class WorkbenchPane extends BorderPane {
                 } catch (RuntimeException ex) {
                     continue;
                 }
+                ViewData light = d.light();
                 javafx.application.Platform.runLater(() -> {
-                    if (e.data == null && settings.equals(s)) { e.data = d; refreshSweep(); }
+                    if (e.data == null && settings.equals(s)) { e.data = selected() == e ? d : light; refreshSweep(); }
                 });
             }
         }, "outstage-sweep");
