@@ -253,6 +253,26 @@ class WorkbenchTest {
     }
 
     @Test
+    void referenceChannel_transferViewShowsTheXyCurveOfTheAnalysis(FxRobot robot) throws Exception {
+        Path xy = Path.of("sample-captures", "da60-xy-gen-ch1-amp-ch2-10mV-20W.wav");
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isRegularFile(xy), "sample X-Y capture present");
+        robot.interact(() -> pane.openPaths(List.of(xy), Workbench.SAMPLE_SESSION));
+        idle();
+        robot.interact(() -> pane.channelChoice.setValue(2));
+        idle();
+        robot.interact(() -> pane.referenceChoice.setValue("1"));
+        idle();
+        assertEquals(java.util.OptionalInt.of(0), lastSettings.referenceChannel());
+        Capture c = org.outstage.capture.CaptureReader.open(xy, org.outstage.capture.CaptureOptions.none().withFullScaleVolts(40));
+        Measurement m = Analyzer.analyze(c, 1, AnalyzerBackend.settingsFor(lastSettings, Workbench.SAMPLE_SESSION));
+        TransferCurve curve = org.outstage.plot.MeasurementCharts.measuredCurve(m).orElseThrow();
+        assertTrue(m.stage() instanceof org.outstage.analysis.stage.StageDiagnosis.Measured d && d.transfer().fromReference());
+        Series shown = pane.transferChart.spec().orElseThrow().series().get(0);
+        assertEquals(Series.Role.MEASURED, shown.role());
+        assertArrayEquals(Charts.gainDeviationPercent(curve)[1], shown.y(), 0.0);
+    }
+
+    @Test
     void badCalibrationText_messageInPlace(FxRobot robot) throws Exception {
         robot.interact(() -> pane.addCapture(sine("s")));
         idle();
