@@ -278,11 +278,12 @@ public final class ChartCanvas extends Region {
         gc.setFill(Color.web(Palette.MARKER));
         gc.setTextAlign(TextAlignment.CENTER);
         gc.setFont(SMALL_FONT);
+        List<double[]> labelled = new ArrayList<>();
         for (Marker m : spec.markers()) {
             double x = vp.px(m.x()), y = vp.py(m.y());
             if (!Double.isFinite(x) || !Double.isFinite(y)) continue;
             gc.fillPolygon(new double[] {x, x - 4, x + 4}, new double[] {y - 3, y - 10, y - 10}, 3);
-            gc.fillText(m.label(), x, y - 13);
+            if (ChartLayout.labelFits(labelled, x, y - 13)) gc.fillText(m.label(), x, y - 13);
         }
         gc.restore();
         gc.setLineDashes();
