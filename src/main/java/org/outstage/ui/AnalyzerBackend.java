@@ -133,7 +133,8 @@ final class AnalyzerBackend implements Backend {
         rows.add(new FigureRow("sinadValue", "SINAD", num(m.sinadDb()), "dB", "ENOB " + num(m.enob()) + " bits"));
         rows.add(new FigureRow("dcValue", "DC offset", num(m.dcOffset()), u, ""));
         for (Measurement.Harmonic h : m.harmonics())
-            rows.add(new FigureRow("h" + h.order() + "Value", "H" + h.order(), num(h.dbc()), "dBc", pct(Levels.ratioToPercent(h.ratio())) + " %"));
+            rows.add(new FigureRow("h" + h.order() + "Value", "H" + h.order(), (h.resolved() ? "" : "< ") + num(h.dbc()), "dBc",
+                    pct(Levels.ratioToPercent(h.ratio())) + " %" + (h.resolved() ? "" : "; not above the noise (an upper bound)")));
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
                     d.crossover().explanation()));
