@@ -128,7 +128,7 @@ final class AnalyzerBackend implements Backend {
         String band = Levels.formatHz(t.lowHz()) + "–" + Levels.formatHz(t.highHz()) + (t.weighting() == Weighting.A ? ", A-wtd" : "");
         rows.add(new FigureRow("thdnValue", "THD+N", pct(t.percent()), "%",
                 "floor " + pct(Levels.ratioToPercent(m.floor().ratio())) + " %" + (t.atFloor() ? " (at the floor)" : "") + "; " + band));
-        rows.add(new FigureRow("floorValue", "Measurement floor", pct(Levels.ratioToPercent(m.floor().ratio())), "%",
+        rows.add(new FigureRow("floorValue", "Floor", pct(Levels.ratioToPercent(m.floor().ratio())), "%",
                 m.floor().kind().name().toLowerCase(Locale.ROOT).replace('_', ' ')));
         rows.add(new FigureRow("sinadValue", "SINAD", num(m.sinadDb()), "dB", "ENOB " + num(m.enob()) + " bits"));
         rows.add(new FigureRow("dcValue", "DC offset", num(m.dcOffset()), u, ""));
