@@ -30,4 +30,14 @@ public final class ChartLayout {
     public static int tickTarget(double pixels, boolean horizontal) {
         return (int) Math.max(2, Math.min(12, pixels / (horizontal ? 90 : 45)));
     }
+
+    /**
+     * Whether a marker label centred at (x, y) stays clear of the labels already placed (about 22 × 12 px
+     * each); if so it is added to {@code placed}. Crowded markers keep their triangle and lose the label.
+     */
+    public static boolean labelFits(java.util.List<double[]> placed, double x, double y) {
+        for (double[] p : placed) if (Math.abs(p[0] - x) < 22 && Math.abs(p[1] - y) < 12) return false;
+        placed.add(new double[] {x, y});
+        return true;
+    }
 }

@@ -39,7 +39,7 @@ public final class MeasurementCharts {
     }
 
     /** Shift from dB re fundamental to {@link #spectrumUnit}: the fundamental's level in dBV, or in dBFS (rms·√2 = peak re full scale). */
-    static double spectrumShiftDb(Measurement m) {
+    public static double spectrumShiftDb(Measurement m) {
         return m.unit().equals("V") ? Levels.ratioToDb(m.fundamental().rms()) : Levels.ratioToDb(m.fundamental().rms() * Math.sqrt(2));
     }
 

@@ -59,7 +59,7 @@ public final class Ticks {
         int d0 = (int) Math.floor(Math.log10(r.min()) + 1e-9);
         int d1 = (int) Math.ceil(Math.log10(r.max()) - 1e-9);
         int decades = d1 - d0;
-        boolean labelMinor = decades <= 2;
+        boolean labelMinor = decades <= 3;
         for (int d = d0; d <= d1; d++) {
             double dec = Math.pow(10, d);
             for (int m = 1; m <= 9; m++) {

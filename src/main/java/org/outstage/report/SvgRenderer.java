@@ -106,10 +106,12 @@ public final class SvgRenderer {
             sb.append("<text x=\"").append(f(l + 6)).append("\" y=\"").append(f(y - 4)).append("\" stroke=\"none\" fill=\"")
                     .append(Palette.colour(hl.role(), 0)).append("\">").append(esc(hl.label())).append("</text>\n");
         }
+        List<double[]> labelled = new java.util.ArrayList<>();
         for (Marker m : spec.markers()) {
             double x = vp.px(m.x()), y = vp.py(m.y());
             if (!Double.isFinite(x) || !Double.isFinite(y)) continue;
             sb.append("<path d=\"M").append(f(x)).append(' ').append(f(y - 3)).append("l-4 -7h8z\" fill=\"").append(Palette.MARKER).append("\" stroke=\"none\"/>\n");
+            if (!ChartLayout.labelFits(labelled, x, y - 13)) continue;
             sb.append("<text x=\"").append(f(x)).append("\" y=\"").append(f(y - 13)).append("\" text-anchor=\"middle\" stroke=\"none\" fill=\"")
                     .append(Palette.MARKER).append("\" font-size=\"11\">").append(esc(m.label())).append("</text>\n");
         }

@@ -5,7 +5,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
-import java.util.OptionalDouble;
 import java.util.OptionalInt;
 import java.util.function.BooleanSupplier;
 import java.util.function.DoubleConsumer;
@@ -23,14 +22,13 @@ import org.outstage.analysis.stage.StageSettings;
 import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureOptions;
 import org.outstage.capture.CaptureReader;
-import org.outstage.plot.Charts;
-import org.outstage.plot.Range;
+import org.outstage.plot.MeasurementCharts;
 import org.outstage.plot.Ticks;
 
 /**
  * The workbench's backend on the real pipeline: {@link CaptureReader} opens files, {@link Analyzer} measures,
  * {@link StageAnalyzer} gives the residual waveform. Figures are formatted from the {@link Measurement}
- * as they are; the only arithmetic here converts the spectrum's dB re fundamental to dBV or dBFS for the axis.
+ * as they are; the charts are {@link MeasurementCharts}' descriptions, the same the HTML report draws.
  */
 final class AnalyzerBackend implements Backend {
 
@@ -84,44 +82,21 @@ final class AnalyzerBackend implements Backend {
         if (cancelled.getAsBoolean()) return ViewData.failed(name, "cancelled");
         String part = span < capture.frameCount() ? " (first " + num(span / capture.sampleRateHz()) + " s of "
                 + num(capture.durationSeconds()) + " s)" : "";
-        Panel wave = Panel.of(Charts.waveform(name + " — waveform" + part, x, m.sampleRateHz(), 0, unit, Optional.of(m.sineFit())));
+        // the chart descriptions are the ones the HTML report draws (plot.MeasurementCharts)
+        Panel wave = Panel.of(MeasurementCharts.waveform(name, m, x, part));
         progress.accept(0.75);
         Panel res;
         try {
             Residual r = StageAnalyzer.residual(x, m.sampleRateHz(), m.sineFit(), StageSettings.defaults().withUnit(unit));
-            res = Panel.of(Charts.residual(name + " — residual", r.samples(), m.sampleRateHz(), 0, unit,
-                    m.fundamental().amplitudePeak(), m.fundamental().frequencyHz()));
+            res = Panel.of(MeasurementCharts.residual(name, m, r.samples()));
         } catch (IllegalArgumentException e) {
             res = Panel.message("No residual: " + WorkbenchPane.oneLine(e));
         }
         progress.accept(0.9);
-        // spectrum: dB re fundamental from the analysis, shifted to dBV (volts) or dBFS (full scale, re a full-scale sine)
-        Measurement.Spectrum sp = m.spectrum();
-        double shift;
-        String dbUnit;
-        if (unit.equals("V")) { shift = Levels.ratioToDb(m.fundamental().rms()); dbUnit = "dBV"; }
-        else { shift = Levels.ratioToDb(m.fundamental().rms() * Math.sqrt(2)); dbUnit = "dBFS"; }
-        double[] lv = sp.levelDb();
-        for (int i = 0; i < lv.length; i++) lv[i] += shift;
-        int k = m.harmonics().size();
-        int[] orders = new int[k];
-        double[] hf = new double[k], hl = new double[k];
-        for (int i = 0; i < k; i++) {
-            Measurement.Harmonic h = m.harmonics().get(i);
-            orders[i] = h.order();
-            hf[i] = h.frequencyHz();
-            hl[i] = h.dbc() + shift;
-        }
-        Panel spectrum = sp.size() == 0 ? Panel.message("No spectrum for this record")
-                : Panel.of(Charts.spectrum(name + " — spectrum" + (sp.blocks() > 1 ? " (" + sp.blocks() + " blocks averaged)" : ""), sp.frequencyHz(), lv, dbUnit,
-                Charts.harmonicMarkers(orders, hf, hl), Optional.of(new Range(m.thdN().lowHz(), m.thdN().highHz())),
-                Double.isFinite(sp.noiseFloorDb()) ? OptionalDouble.of(sp.noiseFloorDb() + shift) : OptionalDouble.empty()));
-        double[] dbc = new double[k];
-        for (int i = 0; i < k; i++) dbc[i] = m.harmonics().get(i).dbc();
-        Panel harmonics = k == 0 ? Panel.message("No harmonics inside the band for this fundamental")
-                : Panel.of(Charts.harmonicProfile(name + " — harmonic profile", orders, dbc));
-        Optional<org.outstage.analysis.TransferCurve> curve = m.stage() instanceof StageDiagnosis.Measured d
-                ? Optional.of(d.transfer().curve()) : Optional.empty();
+        Panel spectrum = MeasurementCharts.spectrum(name, m).map(Panel::of).orElseGet(() -> Panel.message("No spectrum for this record"));
+        Panel harmonics = MeasurementCharts.harmonicProfile(name, m).map(Panel::of)
+                .orElseGet(() -> Panel.message("No harmonics inside the band for this fundamental"));
+        Optional<org.outstage.analysis.TransferCurve> curve = MeasurementCharts.measuredCurve(m);
         Optional<ViewData.SweepPoint> sweep = Optional.empty();
         if (m.powerWatts().isPresent() && m.thd().ratio() > 0 && m.thdN().ratio() > 0) {
             Measurement.Power p = m.powerWatts().get();
@@ -138,23 +113,28 @@ final class AnalyzerBackend implements Backend {
         List<FigureRow> rows = new ArrayList<>();
         String u = m.unit();
         rows.add(new FigureRow("frequencyValue", "Fundamental", num(m.fundamental().frequencyHz()), "Hz", ""));
-        String levelNote = u.equals("V") ? num(Levels.ratioToDb(m.fundamental().rms())) + " dBV"
-                : num(Levels.ratioToDb(m.fundamental().rms() * Math.sqrt(2))) + " dBFS";
+        String levelNote = num(MeasurementCharts.spectrumShiftDb(m)) + " " + MeasurementCharts.spectrumUnit(m);
         rows.add(new FigureRow("levelValue", "Level (rms)", num(m.fundamental().rms()), u, levelNote));
         m.powerWatts().ifPresent(p -> rows.add(new FigureRow("powerValue", "Power", num(p.fundamentalWatts()), "W",
                 "into " + num(p.loadOhms()) + " Ω")));
+        if (!u.equals("V"))
+            rows.add(new FigureRow("calibrationValue", "Calibration", "none", "",
+                    "levels in FS; enter the full-scale volts for dBV and power"));
+        else if (m.powerWatts().isEmpty())
+            rows.add(new FigureRow("calibrationValue", "Power", "—", "", "enter the load to measure power"));
         rows.add(new FigureRow("thdValue", "THD", pct(m.thd().percent()), "%",
                 num(m.thd().db()) + " dB; H2–H" + m.settings().harmonics()));
         Measurement.ThdN t = m.thdN();
         String band = Levels.formatHz(t.lowHz()) + "–" + Levels.formatHz(t.highHz()) + (t.weighting() == Weighting.A ? ", A-wtd" : "");
         rows.add(new FigureRow("thdnValue", "THD+N", pct(t.percent()), "%",
                 "floor " + pct(Levels.ratioToPercent(m.floor().ratio())) + " %" + (t.atFloor() ? " (at the floor)" : "") + "; " + band));
-        rows.add(new FigureRow("floorValue", "Measurement floor", pct(Levels.ratioToPercent(m.floor().ratio())), "%",
+        rows.add(new FigureRow("floorValue", "Floor", pct(Levels.ratioToPercent(m.floor().ratio())), "%",
                 m.floor().kind().name().toLowerCase(Locale.ROOT).replace('_', ' ')));
         rows.add(new FigureRow("sinadValue", "SINAD", num(m.sinadDb()), "dB", "ENOB " + num(m.enob()) + " bits"));
         rows.add(new FigureRow("dcValue", "DC offset", num(m.dcOffset()), u, ""));
         for (Measurement.Harmonic h : m.harmonics())
-            rows.add(new FigureRow("h" + h.order() + "Value", "H" + h.order(), num(h.dbc()), "dBc", pct(Levels.ratioToPercent(h.ratio())) + " %"));
+            rows.add(new FigureRow("h" + h.order() + "Value", "H" + h.order(), (h.resolved() ? "" : "< ") + num(h.dbc()), "dBc",
+                    pct(Levels.ratioToPercent(h.ratio())) + " %" + (h.resolved() ? "" : "; not above the noise (an upper bound)")));
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
                     d.crossover().explanation()));

@@ -95,18 +95,42 @@ public final class ChartCanvas extends Region {
         canvas.setOnMouseClicked(e -> { if (e.getClickCount() == 2) resetZoom(); });
     }
 
+    /**
+     * A chart made ready to draw: series arrays copied and checked once. Building it costs a pass over the
+     * data, so the workbench builds it on its worker thread ({@link #prepare}) and hands it to the FX thread.
+     */
+    public static final class PreparedChart {
+        final ChartSpec spec;
+        final List<Prepared> series;
+
+        private PreparedChart(ChartSpec spec, List<Prepared> series) { this.spec = spec; this.series = series; }
+
+        public ChartSpec spec() { return spec; }
+    }
+
+    /** Prepares {@code s} for drawing; thread-safe, meant for a worker thread. */
+    public static PreparedChart prepare(ChartSpec s) {
+        List<Prepared> list = new ArrayList<>();
+        int[] roleCount = new int[Series.Role.values().length];
+        for (Series se : s.series()) {
+            double[] x = se.x();
+            list.add(new Prepared(se, x, se.y(), Decimator.isNonDecreasing(x), Palette.colour(se.role(), roleCount[se.role().ordinal()]++)));
+        }
+        return new PreparedChart(s, List.copyOf(list));
+    }
+
     /** Shows {@code s}; the view returns to the spec's own ranges. */
     public void setSpec(ChartSpec s) {
-        this.spec = s;
+        if (s == null) { setMessage(""); return; }
+        setPrepared(prepare(s));
+    }
+
+    /** Shows a chart prepared on another thread; the view returns to the spec's own ranges. */
+    public void setPrepared(PreparedChart c) {
+        this.spec = c.spec;
         this.message = "";
         prepared.clear();
-        if (s != null) {
-            int[] roleCount = new int[Series.Role.values().length];
-            for (Series se : s.series()) {
-                double[] x = se.x();
-                prepared.add(new Prepared(se, x, se.y(), Decimator.isNonDecreasing(x), Palette.colour(se.role(), roleCount[se.role().ordinal()]++)));
-            }
-        }
+        prepared.addAll(c.series);
         viewX = null;
         viewY = null;
         redraw();
@@ -254,11 +278,12 @@ public final class ChartCanvas extends Region {
         gc.setFill(Color.web(Palette.MARKER));
         gc.setTextAlign(TextAlignment.CENTER);
         gc.setFont(SMALL_FONT);
+        List<double[]> labelled = new ArrayList<>();
         for (Marker m : spec.markers()) {
             double x = vp.px(m.x()), y = vp.py(m.y());
             if (!Double.isFinite(x) || !Double.isFinite(y)) continue;
             gc.fillPolygon(new double[] {x, x - 4, x + 4}, new double[] {y - 3, y - 10, y - 10}, 3);
-            gc.fillText(m.label(), x, y - 13);
+            if (ChartLayout.labelFits(labelled, x, y - 13)) gc.fillText(m.label(), x, y - 13);
         }
         gc.restore();
         gc.setLineDashes();

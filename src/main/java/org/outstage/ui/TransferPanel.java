@@ -32,11 +32,15 @@ final class TransferPanel {
     final PropertySheet sheet = new PropertySheet();
     final Label modelMessage = new Label();
     private final Map<String, Double> values = new LinkedHashMap<>();
+    private final java.util.Set<String> edited = new java.util.HashSet<>();
     private Runnable onChange = () -> {};
     private final AtomicLong generation = new AtomicLong();
     private volatile TransferCurve lastPrediction;
     private ChartCanvas target;
     private Optional<TransferCurve> measured = Optional.empty();
+
+    /** Parameter key of the output span, which follows the measured curve until edited. */
+    static final String SPAN_KEY = "span_v";
 
     TransferPanel(Optional<StageModelAdapter> model) {
         this.model = model;
@@ -45,6 +49,7 @@ final class TransferPanel {
         topologyChoice.setId("topologyChoice");
         sheet.setId("modelSheet");
         sheet.setModeSwitcherVisible(false);
+        sheet.setPropertyEditorFactory(LiveNumberEditor::new);
         sheet.setSearchBoxVisible(false);
         modelMessage.setId("modelMessage");
         modelMessage.setWrapText(true);
@@ -87,6 +92,8 @@ final class TransferPanel {
     /** Sets a parameter as the sheet's editor would, and recomputes. */
     void set(String key, double value) {
         values.put(key, value);
+        edited.add(key);
+        sheet.getItems().setAll(FXCollections.observableArrayList(sheet.getItems()));
         onChange.run();
     }
 
@@ -101,6 +108,17 @@ final class TransferPanel {
             return;
         }
         String topology = topologyChoice.getValue();
+        // the model's output span follows the measured swing until the user sets it
+        if (measuredCurve.isPresent() && values.containsKey(SPAN_KEY) && !edited.contains(SPAN_KEY)) {
+            double peak = 0;
+            for (double o : measuredCurve.get().outputVolts()) if (Double.isFinite(o)) peak = Math.max(peak, Math.abs(o));
+            peak = new java.math.BigDecimal(peak).round(new java.math.MathContext(3)).doubleValue();
+            if (peak > 0 && !Double.valueOf(peak).equals(values.get(SPAN_KEY))) {
+                values.put(SPAN_KEY, peak);
+                ObservableList<PropertySheet.Item> items = FXCollections.observableArrayList(sheet.getItems());
+                sheet.getItems().setAll(items);
+            }
+        }
         Map<String, Double> v = Map.copyOf(values);
         long gen = generation.incrementAndGet();
         Thread th = new Thread(() -> {
@@ -139,6 +157,55 @@ final class TransferPanel {
         if (chart.spec().isPresent() && chart.spec().get().title().equals(spec.title())) chart.updateSpec(spec); else chart.setSpec(spec);
     }
 
+    /**
+     * Sheet editor for a number that hands every valid value to the item as it is typed (the stock numeric
+     * editor commits only when the field loses focus), so the overlay follows the keyboard. Text that is not
+     * a number is left in the field, marked, and not applied.
+     */
+    static final class LiveNumberEditor implements org.controlsfx.property.editor.PropertyEditor<Object> {
+        private final javafx.scene.control.TextField field = new javafx.scene.control.TextField();
+        private final PropertySheet.Item item;
+        private boolean setting;
+
+        LiveNumberEditor(PropertySheet.Item item) {
+            this.item = item;
+            field.setPrefColumnCount(7);
+            field.textProperty().addListener((o, a, b) -> {
+                if (setting) return;
+                try {
+                    double v = Double.parseDouble(b.trim().replace(',', '.'));
+                    field.setStyle("");
+                    if (Double.isFinite(v)) item.setValue(v);
+                } catch (NumberFormatException e) {
+                    field.setStyle("-fx-text-fill: #a0281e;");
+                }
+            });
+        }
+
+        @Override public javafx.scene.Node getEditor() { return field; }
+        @Override public Object getValue() { return item.getValue(); }
+
+        @Override
+        public void setValue(Object value) {
+            setting = true;
+            try {
+                String t = value instanceof Number n ? format(n.doubleValue()) : String.valueOf(value);
+                if (!field.getText().equals(t)) {
+                    try {
+                        if (value instanceof Number n && Double.parseDouble(field.getText().trim().replace(',', '.')) == n.doubleValue()) return;
+                    } catch (NumberFormatException keep) { /* replace the text */ }
+                    field.setText(t);
+                }
+            } finally {
+                setting = false;
+            }
+        }
+
+        static String format(double v) {
+            return v == Math.rint(v) && Math.abs(v) < 1e9 ? Long.toString((long) v) : Double.toString(v);
+        }
+    }
+
     /** A PropertySheet row bound to one model parameter. */
     private final class Item implements PropertySheet.Item {
         private final StageModelAdapter.Parameter p;
@@ -154,7 +221,9 @@ final class TransferPanel {
         @Override
         public void setValue(Object value) {
             if (value instanceof Number n && Double.isFinite(n.doubleValue())) {
+                if (java.util.Objects.equals(values.get(p.key()), n.doubleValue())) return;
                 values.put(p.key(), n.doubleValue());
+                edited.add(p.key());
                 onChange.run();
             }
         }

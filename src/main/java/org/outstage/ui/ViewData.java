@@ -37,6 +37,20 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
         return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, Optional.empty(), Optional.empty());
     }
 
+    /**
+     * The same result without its charts (figures, transfer curve and sweep point kept), for captures that are
+     * not on screen: a waveform view holds up to 2^20 samples in several arrays, too much to keep for every file.
+     */
+    ViewData light() {
+        Panel p = Panel.message(LIGHT);
+        return new ViewData(captureName, figures, notMeasured, p, p, p, p, measuredCurve, sweepPoint);
+    }
+
+    /** Whether the charts are here (not a {@link #light} copy). */
+    boolean full() { return !(waveform.prepared().isEmpty() && waveform.message() == LIGHT); }
+
+    private static final String LIGHT = "Analysing…";
+
     Optional<FigureRow> figure(String id) {
         return figures.stream().filter(f -> f.id().equals(id)).findFirst();
     }

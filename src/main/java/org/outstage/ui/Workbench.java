@@ -23,7 +23,17 @@ public final class Workbench extends Application {
     static Backend defaultBackend() { return new AnalyzerBackend(); }
 
     /** The stage model in this build, if any. */
-    static Optional<StageModelAdapter> defaultModel() { return Optional.empty(); }
+    static Optional<StageModelAdapter> defaultModel() { return Optional.of(new ModelStageAdapter()); }
+
+    /**
+     * Calibration of the bundled sample session: the invented bench of tools/GenerateSampleCaptures.java
+     * records through a 1:20 divider with full scale at 40 V peak, into an 8 Ω load.
+     */
+    static final Calibration SAMPLE_SESSION = new Calibration(java.util.OptionalDouble.of(40), java.util.OptionalDouble.empty(),
+            java.util.OptionalDouble.of(8));
+
+    /** Raw parameter that marks the bundled sample session (added by {@link WorkbenchLauncher}). */
+    static final String SAMPLE_FLAG = "--outstage-sample-session";
 
     /** Builds the window content (also used by tests and the screenshot tool). */
     static WorkbenchPane createPane() {
@@ -37,8 +47,10 @@ public final class Workbench extends Application {
         stage.setTitle("Outstage workbench");
         stage.setScene(scene);
         stage.show();
-        List<Path> files = getParameters().getRaw().stream().map(Path::of).toList();
-        if (!files.isEmpty()) pane.openPaths(files);
+        List<String> raw = getParameters().getRaw();
+        boolean sample = raw.contains(SAMPLE_FLAG);
+        List<Path> files = raw.stream().filter(a -> !a.equals(SAMPLE_FLAG)).map(Path::of).toList();
+        if (!files.isEmpty()) pane.openPaths(files, sample ? SAMPLE_SESSION : Calibration.NONE);
         if (!Cautions.dismissed(Cautions.dismissalFile())) showCautions(stage, true);
     }
 

@@ -16,7 +16,7 @@ public final class WorkbenchLauncher {
     /** Starts the workbench and returns when its window closes. */
     public static void launch(String[] files) {
         String[] args = files;
-        if (files.length == 0) args = sampleSession().map(p -> new String[] {p.toString()}).orElse(new String[0]);
+        if (files.length == 0) args = sampleSession().map(p -> new String[] {p.toString(), Workbench.SAMPLE_FLAG}).orElse(new String[0]);
         Application.launch(Workbench.class, Arrays.copyOf(args, args.length));
     }
 

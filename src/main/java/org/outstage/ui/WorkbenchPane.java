@@ -78,6 +78,7 @@ final class WorkbenchPane extends BorderPane {
     final TextField probeField = new TextField();
     final TextField loadField = new TextField();
     final Label calibrationError = new Label();
+    final Label captureWarnings = new Label();
     final ComboBox<Integer> channelChoice = new ComboBox<>();
     final ComboBox<UiSettings.BandChoice> bandChoice = new ComboBox<>(FXCollections.observableArrayList(UiSettings.BandChoice.values()));
     final CheckBox weightingBox = new CheckBox("A-weighting (IEC 61672-1)");
@@ -159,7 +160,8 @@ final class WorkbenchPane extends BorderPane {
 
     private Node captureSide() {
         captureList.setId("captureList");
-        captureList.getSelectionModel().setSelectionMode(SelectionMode.SINGLE);
+        captureList.getSelectionModel().setSelectionMode(SelectionMode.MULTIPLE);
+        captureList.getSelectionModel().getSelectedItems().addListener((javafx.collections.ListChangeListener<CaptureEntry>) c -> refreshSweep());
         captureList.setCellFactory(v -> new ListCell<>() {
             @Override protected void updateItem(CaptureEntry item, boolean empty) {
                 super.updateItem(item, empty);
@@ -168,7 +170,10 @@ final class WorkbenchPane extends BorderPane {
                 setTooltip(!empty && item != null && item.failed() ? new Tooltip(item.error) : null);
             }
         });
-        captureList.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> onSelect(b));
+        captureList.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> {
+            if (a != null && a != b && a.data != null) a.data = a.data.light();   // keep charts only for the capture on screen
+            onSelect(b);
+        });
         captureList.setPrefWidth(250);
         VBox.setVgrow(captureList, Priority.ALWAYS);
         Button openButton = new Button("Open…");
@@ -188,7 +193,11 @@ final class WorkbenchPane extends BorderPane {
         channelChoice.setId("channelChoice");
         Button apply = new Button("Apply");
         apply.setId("applyCalibration");
-        apply.setOnAction(e -> applyCalibration());
+        apply.setOnAction(e -> applyCalibration(false));
+        Button applyAll = new Button("Apply to all");
+        applyAll.setId("applyCalibrationAll");
+        applyAll.setTooltip(new Tooltip("Use this calibration for every capture in the list (same divider and load)"));
+        applyAll.setOnAction(e -> applyCalibration(true));
         calibrationError.setId("calibrationError");
         calibrationError.setWrapText(true);
         calibrationError.setStyle("-fx-text-fill: #a0281e;");
@@ -206,7 +215,11 @@ final class WorkbenchPane extends BorderPane {
             CaptureEntry e = selected();
             if (!updatingControls && e != null && b != null && b - 1 != e.channel) { e.channel = b - 1; analyzeSelected(); }
         });
-        VBox cal = new VBox(6, g, apply, calibrationError);
+        captureWarnings.setId("captureWarnings");
+        captureWarnings.setWrapText(true);
+        captureWarnings.setMaxWidth(250);
+        captureWarnings.setStyle("-fx-text-fill: #7a5a00;");
+        VBox cal = new VBox(6, g, new HBox(6, apply, applyAll), calibrationError, captureWarnings);
         TitledPane calPane = new TitledPane("Calibration of the selected capture", cal);
         calPane.setCollapsible(false);
         VBox side = new VBox(6, new HBox(6, new Label("Captures"), spacer(), openButton), captureList, importError, calPane);
@@ -225,7 +238,7 @@ final class WorkbenchPane extends BorderPane {
         Tab t2 = tab("spectrumTab", "Spectrum", spectrumChart);
         Tab t3 = tab("harmonicsTab", "Harmonic profile", harmonicsChart);
         SplitPane tr = new SplitPane(transferChart, transferPanel.node());
-        tr.setDividerPositions(0.68);
+        tr.setDividerPositions(0.6);
         Tab t4 = tab("transferTab", "Transfer and model", tr);
         Tab t5 = tab("sweepTab", "Level sweep", sweepChart);
         views.getTabs().addAll(t1, t2, t3, t4, t5);
@@ -348,8 +361,10 @@ final class WorkbenchPane extends BorderPane {
         if (files != null) openPaths(files.stream().map(File::toPath).toList());
     }
 
-    /** Opens files, and the capture files inside folders; each failure stays beside its file. */
-    void openPaths(List<Path> paths) {
+    void openPaths(List<Path> paths) { openPaths(paths, Calibration.NONE); }
+
+    /** Opens files, and the capture files inside folders, with a calibration; each failure stays beside its file. */
+    void openPaths(List<Path> paths, Calibration calibration) {
         List<Path> files = new ArrayList<>();
         for (Path p : paths) {
             if (Files.isDirectory(p)) {
@@ -364,7 +379,11 @@ final class WorkbenchPane extends BorderPane {
         }
         if (files.isEmpty()) return;
         List<CaptureEntry> entries = new ArrayList<>();
-        for (Path f : files) entries.add(new CaptureEntry(String.valueOf(f.getFileName()), Optional.of(f)));
+        for (Path f : files) {
+            CaptureEntry e = new CaptureEntry(String.valueOf(f.getFileName()), Optional.of(f));
+            e.calibration = calibration;
+            entries.add(e);
+        }
         captureList.getItems().addAll(entries);
         Task<List<Object>> t = new Task<>() {
             @Override protected List<Object> call() {
@@ -374,7 +393,7 @@ final class WorkbenchPane extends BorderPane {
                     updateMessage("Opening " + entries.get(i).name + "…");
                     updateProgress(i, entries.size());
                     try {
-                        out.add(backend.open(entries.get(i).path.get(), Calibration.NONE));
+                        out.add(backend.open(entries.get(i).path.get(), entries.get(i).calibration));
                     } catch (Exception e) {
                         out.add(oneLine(e));
                     }
@@ -428,6 +447,7 @@ final class WorkbenchPane extends BorderPane {
         updatingControls = true;
         try {
             importError.setText(e != null && e.failed() ? e.name + ": " + e.error : "");
+            captureWarnings.setText(e != null && e.capture != null ? String.join("\n", e.capture.warnings()) : "");
             calibrationError.setText("");
             if (e == null) { showNothing(); return; }
             fullScaleField.setText(text(e.calibration.fullScaleVolts()));
@@ -446,7 +466,8 @@ final class WorkbenchPane extends BorderPane {
         }
         if (e.failed()) { show(ViewData.failed(e.name, "Could not open " + e.name + ": " + e.error)); return; }
         if (e.capture == null) { showNothing(); statusText.setText("Opening " + e.name + "…"); return; }
-        if (e.data != null) show(e.data);
+        if (e.data != null) show(e.data);   // results are dropped when settings or calibration change
+        if (e.data != null && e.data.full()) return;
         analyzeSelected();
     }
 
@@ -456,9 +477,9 @@ final class WorkbenchPane extends BorderPane {
         return d == Math.rint(d) && Math.abs(d) < 1e12 ? Long.toString((long) d) : Double.toString(d);
     }
 
-    private void applyCalibration() {
-        CaptureEntry e = selected();
-        if (e == null) return;
+    private void applyCalibration(boolean toAll) {
+        CaptureEntry sel = selected();
+        if (sel == null) return;
         Calibration cal;
         try {
             cal = new Calibration(Calibration.parseField("Full scale", fullScaleField.getText()),
@@ -468,16 +489,30 @@ final class WorkbenchPane extends BorderPane {
             return;
         }
         calibrationError.setText("");
-        e.calibration = cal;
-        if (e.path.isPresent()) {
-            Calibration c = cal;
-            Task<Capture> t = new Task<>() {
-                @Override protected Capture call() throws Exception { return backend.open(e.path.get(), c); }
-            };
-            t.setOnSucceeded(x -> { e.capture = t.getValue(); e.error = ""; captureList.refresh(); analyzeSelected(); });
-            t.setOnFailed(x -> { calibrationError.setText(oneLine(t.getException())); });
-            run(t, "Reopening " + e.name);
-        } else analyzeSelected();
+        List<CaptureEntry> targets = toAll ? List.copyOf(captureList.getItems()) : List.of(sel);
+        for (CaptureEntry e : targets) { e.calibration = cal; e.data = null; }
+        List<CaptureEntry> files = targets.stream().filter(e -> e.path.isPresent()).toList();
+        if (files.isEmpty()) { analyzeSelected(); if (toAll) analyzeAllForSweep(); return; }
+        Task<List<Object>> t = new Task<>() {
+            @Override protected List<Object> call() {
+                List<Object> out = new ArrayList<>();
+                for (CaptureEntry e : files) {
+                    try { out.add(backend.open(e.path.get(), cal)); } catch (Exception ex) { out.add(oneLine(ex)); }
+                }
+                return out;
+            }
+        };
+        t.setOnSucceeded(x -> {
+            for (int i = 0; i < files.size(); i++) {
+                CaptureEntry e = files.get(i);
+                if (t.getValue().get(i) instanceof Capture c) { e.capture = c; e.error = ""; }
+                else { e.capture = null; e.error = (String) t.getValue().get(i); }
+            }
+            captureList.refresh();
+            onSelect(selected());
+            analyzeAllForSweep();
+        });
+        run(t, "Reopening with the new calibration");
     }
 
     private void changeSettings(UiSettings s) {
@@ -530,8 +565,9 @@ final class WorkbenchPane extends BorderPane {
                 } catch (RuntimeException ex) {
                     continue;
                 }
+                ViewData light = d.light();
                 javafx.application.Platform.runLater(() -> {
-                    if (e.data == null && settings.equals(s)) { e.data = d; refreshSweep(); }
+                    if (e.data == null && settings.equals(s)) { e.data = selected() == e ? d : light; refreshSweep(); }
                 });
             }
         }, "outstage-sweep");
@@ -608,19 +644,31 @@ final class WorkbenchPane extends BorderPane {
         transferPanel.show(transferChart, e == null || e.data == null ? Optional.empty() : e.data.measuredCurve());
     }
 
-    private void refreshSweep() {
-        List<ViewData.SweepPoint> pts = new ArrayList<>();
-        for (CaptureEntry e : captureList.getItems())
-            if (e.data != null) e.data.sweepPoint().ifPresent(pts::add);
-        pts.sort(Comparator.comparingDouble(ViewData.SweepPoint::powerWatts));
+    /** The level sweep over the selected captures (two or more selected), otherwise over all opened captures. */
+    void refreshSweep() {
+        List<CaptureEntry> chosen = captureList.getSelectionModel().getSelectedItems().size() >= 2
+                ? List.copyOf(captureList.getSelectionModel().getSelectedItems()) : List.copyOf(captureList.getItems());
+        List<org.outstage.analysis.stage.LevelPoint> pts = new ArrayList<>();
+        for (CaptureEntry e : chosen)
+            if (e.data != null) e.data.sweepPoint().ifPresent(p -> pts.add(p.point()));
         if (pts.size() < 2) {
             sweepChart.setMessage("The level sweep needs two or more captures at rising level, in volts, with a load set ("
-                    + pts.size() + " so far).");
+                    + pts.size() + " so far). Select the captures of one series with Ctrl-click.");
             return;
         }
-        double[] p = new double[pts.size()], a = new double[pts.size()], b = new double[pts.size()];
-        for (int i = 0; i < p.length; i++) { p[i] = pts.get(i).powerWatts(); a[i] = pts.get(i).thd(); b[i] = pts.get(i).thdN(); }
-        sweepChart.setSpec(Charts.levelSweep("THD and THD+N against output power", p, a, b, 0.01));
+        org.outstage.analysis.stage.LevelSweepResult r;
+        try {
+            r = org.outstage.analysis.stage.LevelSweep.analyze(pts);
+        } catch (IllegalArgumentException ex) {
+            sweepChart.setMessage("Not one level series: " + oneLine(ex) + ". Select the captures of one series with Ctrl-click.");
+            return;
+        }
+        List<org.outstage.analysis.stage.LevelPoint> sorted = r.points();
+        double[] p = new double[sorted.size()], a = new double[sorted.size()], b = new double[sorted.size()];
+        for (int i = 0; i < p.length; i++) { p[i] = sorted.get(i).powerWatts(); a[i] = sorted.get(i).thdRatio(); b[i] = sorted.get(i).thdNRatio(); }
+        String rated = r.atOnePercent().powerWatts().isPresent()
+                ? " — 1 % THD at " + AnalyzerBackend.num(r.atOnePercent().powerWatts().getAsDouble()) + " W" : "";
+        sweepChart.setSpec(Charts.levelSweep("THD and THD+N against output power" + rated, p, a, b, 0.01));
     }
 
     private void copyFigures() {

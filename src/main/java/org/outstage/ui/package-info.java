@@ -1,2 +1,8 @@
-/** JavaFX workbench; the only package that imports javafx. */
+/**
+ * JavaFX workbench; the only package that imports javafx (and ControlsFX). {@link org.outstage.ui.Workbench}
+ * is the Application, {@link org.outstage.ui.WorkbenchLauncher} the plain entry point used by the {@code gui}
+ * command, {@link org.outstage.ui.ChartCanvas} our canvas renderer of {@code plot} chart descriptions (min/max
+ * reduction per pixel column, zoom, pan, readout). Views show what the analysis and the model return; files
+ * are opened and analysed in background tasks. See docs/workbench.md.
+ */
 package org.outstage.ui;

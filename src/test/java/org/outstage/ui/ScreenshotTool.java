@@ -56,7 +56,7 @@ public final class ScreenshotTool {
         });
         var session = WorkbenchLauncher.sampleSession();
         if (session.isPresent()) {
-            fx(() -> { pane.openPaths(List.of(session.get())); return null; });
+            fx(() -> { pane.openPaths(List.of(session.get()), Workbench.SAMPLE_SESSION); return null; });
         } else {
             fx(() -> {
                 for (Capture c : generated()) pane.addCapture(c);
@@ -77,9 +77,24 @@ public final class ScreenshotTool {
         waitIdle(pane);
         fx(() -> { if (!pane.captureList.getItems().isEmpty()) pane.captureList.getSelectionModel().select(pickShowcase(pane)); return null; });
         waitIdle(pane);
+        // the model at the bias the showcase capture was made with (3 mV across Re), to compare shapes
+        fx(() -> { if (pane.transferPanel.values().containsKey("vq_mv")) pane.transferPanel.set("vq_mv", 3); return null; });
         String[][] shots = {{"waveformTab", "waveform-residual.png"}, {"spectrumTab", "spectrum.png"}, {"harmonicsTab", "harmonic-profile.png"},
                 {"transferTab", "transfer-model.png"}, {"sweepTab", "level-sweep.png"}};
         for (String[] s : shots) {
+            if (s[0].equals("sweepTab")) {
+                // the level sweep over the level series only (the bias and X-Y captures are other experiments)
+                fx(() -> {
+                    var items = pane.captureList.getItems();
+                    pane.captureList.getSelectionModel().clearSelection();
+                    int focus = -1;
+                    for (int i = 0; i < items.size(); i++)
+                        if (items.get(i).name.contains("-level-") || items.get(i).name.startsWith("demo-amp")) { pane.captureList.getSelectionModel().select(i); if (focus < 0) focus = i; }
+                    if (focus >= 0) pane.captureList.getSelectionModel().select(focus);
+                    return null;
+                });
+                waitIdle(pane);
+            }
             fx(() -> {
                 Tab t = pane.views.getTabs().stream().filter(x -> x.getId().equals(s[0])).findFirst().orElseThrow();
                 pane.views.getSelectionModel().select(t);
@@ -98,7 +113,8 @@ public final class ScreenshotTool {
             VBox b = new VBox(12, head, text);
             b.setStyle("-fx-padding: 18; -fx-background-color: white;");
             Stage st = new Stage();
-            st.setScene(new Scene(b, 640, 520));
+            b.setPrefWidth(640);
+            st.setScene(new Scene(b));
             st.show();
             return b;
         });
@@ -113,7 +129,7 @@ public final class ScreenshotTool {
         var items = pane.captureList.getItems();
         for (int i = 0; i < items.size(); i++) {
             String n = items.get(i).name.toLowerCase(java.util.Locale.ROOT);
-            if (!items.get(i).failed() && (n.contains("05vpk") || n.contains("crossover") || n.contains("low-bias") || n.contains("underbias"))) return i;
+            if (!items.get(i).failed() && (n.contains("bias-03mv") || n.contains("05vpk") || n.contains("crossover") || n.contains("low-bias") || n.contains("underbias"))) return i;
         }
         for (int i = 0; i < items.size(); i++) if (!items.get(i).failed()) return i;
         return 0;

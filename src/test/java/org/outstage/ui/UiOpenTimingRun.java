@@ -67,6 +67,52 @@ class UiOpenTimingRun {
         System.out.println("open-to-render median of " + runs + ": " + s[runs / 2] + " ms (min " + s[0] + ", max " + s[runs - 1] + ")");
     }
 
+    /**
+     * A 10-minute 96 kHz 24-bit WAV (57.6 M samples, written in 10 s pieces): the time to the first complete
+     * render, and the longest delay of the FX thread meanwhile, probed every 20 ms (the window must keep
+     * responding). Only with {@code -Doutstage.bench.long=true}.
+     */
+    @Test
+    @EnabledIfSystemProperty(named = "outstage.bench.long", matches = "true")
+    void openTenMinuteCapture() throws Exception {
+        Path dir = Files.createTempDirectory("outstage-long");
+        Path wav = dir.resolve("ten-minutes.wav");
+        double fs = 96_000;
+        int n = (int) (600 * fs);
+        double[] x = new double[n];
+        java.util.Random r = new java.util.Random(9);
+        for (int i = 0; i < n; i++) {
+            double s = 0.7 * Math.sin(2 * Math.PI * 1000 * i / fs);
+            x[i] = s - 0.002 * Math.tanh(s / 0.002) + 1e-5 * r.nextGaussian();
+        }
+        WavWriter.write(wav, 96_000, WavWriter.Encoding.PCM_24, false, x);
+        x = null;
+        try { Platform.startup(() -> {}); } catch (IllegalStateException running) { /* started */ }
+        Platform.setImplicitExit(false);
+        WorkbenchPane pane = ScreenshotTool.fx(() -> {
+            WorkbenchPane p = Workbench.createPane();
+            Stage st = new Stage();
+            st.setScene(new Scene(p, 1280, 800));
+            st.show();
+            return p;
+        });
+        Thread.sleep(300);
+        long t0 = System.nanoTime();
+        ScreenshotTool.fx(() -> { pane.openPaths(List.of(wav)); return null; });
+        long worst = 0;
+        while (true) {
+            long a = System.nanoTime();
+            boolean done = ScreenshotTool.fx(() -> pane.selected() != null && pane.selected().data != null && pane.selected().data == shownData(pane));
+            worst = Math.max(worst, System.nanoTime() - a);
+            if (done) break;
+            Thread.sleep(20);
+        }
+        long ms = TimeUnit.NANOSECONDS.toMillis(System.nanoTime() - t0);
+        System.out.println("open 10 min 96 kHz 24-bit WAV to figures shown: " + ms + " ms; longest FX-thread response meanwhile: "
+                + TimeUnit.NANOSECONDS.toMillis(worst) + " ms");
+        Files.deleteIfExists(wav);
+    }
+
     /** The data the views show: the waveform chart's spec comes from the selected entry's last result. */
     private static ViewData shownData(WorkbenchPane pane) {
         return pane.waveformChart.spec().isPresent() && !pane.busy() ? pane.selected().data : null;

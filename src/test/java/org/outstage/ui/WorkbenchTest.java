@@ -214,6 +214,65 @@ class WorkbenchTest {
     }
 
     @Test
+    void sampleSession_opensCalibrated_figuresAndSweepEqualTheAnalysis(FxRobot robot) throws Exception {
+        Path dir = Path.of("sample-captures");
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isDirectory(dir), "sample-captures/ is part of the repository");
+        robot.interact(() -> pane.openPaths(List.of(dir), Workbench.SAMPLE_SESSION));
+        idle();
+        long files;
+        try (var st = Files.list(dir)) { files = st.filter(WorkbenchPane::isCaptureName).count(); }
+        assertEquals(files, pane.captureList.getItems().size());
+        assertTrue(pane.captureList.getItems().stream().noneMatch(CaptureEntry::failed),
+                () -> pane.captureList.getItems().stream().filter(CaptureEntry::failed).map(CaptureEntry::toString).toList().toString());
+        // one level capture: the figures equal the analysis of the same file with the same calibration
+        int idx = -1;
+        for (int i = 0; i < pane.captureList.getItems().size(); i++) if (pane.captureList.getItems().get(i).name.equals("da60-level-040W.wav")) idx = i;
+        int sel = idx;
+        robot.interact(() -> pane.captureList.getSelectionModel().clearAndSelect(sel));
+        idle();
+        Capture c = org.outstage.capture.CaptureReader.open(dir.resolve("da60-level-040W.wav"),
+                org.outstage.capture.CaptureOptions.none().withFullScaleVolts(40));
+        Measurement m = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(UiSettings.DEFAULT, Workbench.SAMPLE_SESSION));
+        assertEquals(AnalyzerBackend.pct(m.thd().percent()) + " %", shown(robot, "thdValue"));
+        assertEquals(AnalyzerBackend.num(m.powerWatts().orElseThrow().fundamentalWatts()) + " W", shown(robot, "powerValue"));
+        // the level sweep over the level series: its title carries the analysis's power at 1 % THD
+        WaitForAsyncUtils.waitFor(60, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() ->
+                pane.captureList.getItems().stream().allMatch(e -> e.data != null)).get());
+        robot.interact(() -> {
+            var items = pane.captureList.getItems();
+            for (int i = 0; i < items.size(); i++) if (items.get(i).name.contains("-level-")) pane.captureList.getSelectionModel().select(i);
+        });
+        WaitForAsyncUtils.waitForFxEvents();
+        List<org.outstage.analysis.stage.LevelPoint> pts = new java.util.ArrayList<>();
+        for (CaptureEntry e : pane.captureList.getItems())
+            if (e.name.contains("-level-")) pts.add(e.data.sweepPoint().orElseThrow().point());
+        var r = org.outstage.analysis.stage.LevelSweep.analyze(pts);
+        String title = pane.sweepChart.spec().orElseThrow().title();
+        assertEquals("THD and THD+N against output power — 1 % THD at " + AnalyzerBackend.num(r.atOnePercent().powerWatts().orElseThrow()) + " W", title);
+        assertEquals(pts.size(), pane.sweepChart.spec().get().series().get(0).size());
+    }
+
+    @Test
+    void referenceChannel_transferViewShowsTheXyCurveOfTheAnalysis(FxRobot robot) throws Exception {
+        Path xy = Path.of("sample-captures", "da60-xy-gen-ch1-amp-ch2-10mV-20W.wav");
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isRegularFile(xy), "sample X-Y capture present");
+        robot.interact(() -> pane.openPaths(List.of(xy), Workbench.SAMPLE_SESSION));
+        idle();
+        robot.interact(() -> pane.channelChoice.setValue(2));
+        idle();
+        robot.interact(() -> pane.referenceChoice.setValue("1"));
+        idle();
+        assertEquals(java.util.OptionalInt.of(0), lastSettings.referenceChannel());
+        Capture c = org.outstage.capture.CaptureReader.open(xy, org.outstage.capture.CaptureOptions.none().withFullScaleVolts(40));
+        Measurement m = Analyzer.analyze(c, 1, AnalyzerBackend.settingsFor(lastSettings, Workbench.SAMPLE_SESSION));
+        TransferCurve curve = org.outstage.plot.MeasurementCharts.measuredCurve(m).orElseThrow();
+        assertTrue(m.stage() instanceof org.outstage.analysis.stage.StageDiagnosis.Measured d && d.transfer().fromReference());
+        Series shown = pane.transferChart.spec().orElseThrow().series().get(0);
+        assertEquals(Series.Role.MEASURED, shown.role());
+        assertArrayEquals(Charts.gainDeviationPercent(curve)[1], shown.y(), 0.0);
+    }
+
+    @Test
     void badCalibrationText_messageInPlace(FxRobot robot) throws Exception {
         robot.interact(() -> pane.addCapture(sine("s")));
         idle();
