@@ -24,7 +24,7 @@ final class ModelStageAdapter implements StageModelAdapter {
     @Override
     public List<Parameter> parameters(String topology) {
         return List.of(
-                new Parameter("vq_mv", "Vq (across one Re)", "mV", StageParameters.DEFAULT_VQ_VOLTS * 1e3,
+                new Parameter("vq_mv", "Vq per Re", "mV", StageParameters.DEFAULT_VQ_VOLTS * 1e3,
                         "quiescent voltage across one emitter resistor (Vq = Iq·Re)"),
                 new Parameter("re", "Re", "Ω", StageParameters.DEFAULT_EMITTER_OHMS, "per output device"),
                 new Parameter("load", "Load", "Ω", StageParameters.DEFAULT_LOAD_OHMS, "dummy load"),

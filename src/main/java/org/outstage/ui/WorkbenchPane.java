@@ -238,7 +238,7 @@ final class WorkbenchPane extends BorderPane {
         Tab t2 = tab("spectrumTab", "Spectrum", spectrumChart);
         Tab t3 = tab("harmonicsTab", "Harmonic profile", harmonicsChart);
         SplitPane tr = new SplitPane(transferChart, transferPanel.node());
-        tr.setDividerPositions(0.6);
+        tr.setDividerPositions(0.55);
         Tab t4 = tab("transferTab", "Transfer and model", tr);
         Tab t5 = tab("sweepTab", "Level sweep", sweepChart);
         views.getTabs().addAll(t1, t2, t3, t4, t5);
