@@ -35,15 +35,18 @@ public record ReportDocument(UnitUnderTest unit, Optional<Session> session, Veri
 
     /** The safety notes every report carries (our wording of the bench cautions). */
     public static final List<String> CAUTIONS = List.of(
-            "Amplifiers hold mains voltage inside and rail voltages that can exceed ±60 V; filter capacitors stay charged after"
-                    + " the power is off. Discharge them and keep one hand away from the chassis.",
-            "Heatsinks run hot, and output devices can fail short and take the load or the speaker with them.",
-            "An amplifier output can destroy a soundcard input: put an attenuator in between and check the level before you connect.",
-            "A bridged (BTL) output has no side at ground: a grounded instrument on it short-circuits the amplifier.",
-            "Setting the bias can start thermal runaway: begin low, power the amplifier through a current-limited or bulb-limited"
-                    + " supply, and watch the temperature.",
-            "These figures describe the captures that were measured; they do not certify that the amplifier is safe."
-                    + " Follow local electrical codes and qualified service practice.");
+            "Amplifiers carry mains voltage inside, and their supply rails can exceed ±60 V. Filter capacitors stay charged after "
+                    + "the plug is pulled: discharge them and measure before you touch.",
+            "Heatsinks and output devices get hot enough to burn. Output transistors can fail short and take the load, the "
+                    + "emitter resistors or the speaker with them.",
+            "A soundcard input is destroyed by a power amplifier's output. Always connect through an attenuator (divider) and "
+                    + "check the level before it reaches the card.",
+            "A bridged output has no side at ground. A grounded instrument (scope, soundcard) across it short-circuits the "
+                    + "amplifier.",
+            "Setting the bias can start thermal runaway. Start from the lowest setting, use a current-limited or bulb-limited "
+                    + "supply, raise the current slowly and watch the temperature.",
+            "Follow local electrical codes and qualified service practice. Outstage reports measured figures; they do not "
+                    + "certify that an amplifier is safe.");
 
     /** Overall outcome: "pass" (every limit passed), "fail" (any failed), or "incomplete" (none failed, some not measured). */
     public String outcome() {

@@ -218,17 +218,6 @@ public final class SvgRenderer {
         return String.format(Locale.ROOT, "%.2f", r);
     }
 
-    static String esc(String s) {
-        StringBuilder b = new StringBuilder(s.length());
-        for (char c : s.toCharArray()) {
-            switch (c) {
-                case '<' -> b.append("&lt;");
-                case '>' -> b.append("&gt;");
-                case '&' -> b.append("&amp;");
-                case '"' -> b.append("&quot;");
-                default -> b.append(c);
-            }
-        }
-        return b.toString();
-    }
+    /** XML text and attribute escaping (the same rules as the HTML report). */
+    static String esc(String s) { return HtmlReport.esc(s); }
 }
