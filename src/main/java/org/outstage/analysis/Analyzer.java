@@ -68,6 +68,8 @@ public final class Analyzer {
      *
      * @throws IllegalArgumentException if the channel does not exist
      * @throws java.io.UncheckedIOException if the capture's samples cannot be read
+     * @throws java.util.concurrent.CancellationException if the calling thread is interrupted while a long record
+     *         is being read block by block (the workbench's Cancel)
      */
     public static Measurement analyze(Capture capture, int channelIndex, AnalysisSettings settings) {
         Require.notNull("capture", capture);

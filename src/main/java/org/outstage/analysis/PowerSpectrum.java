@@ -68,6 +68,9 @@ final class PowerSpectrum {
             total += filled;
             boolean full = filled == length;
             while (full) {
+                // a caller that gives up (the workbench's Cancel interrupts its worker) stops a long record between blocks
+                if (Thread.currentThread().isInterrupted())
+                    throw new java.util.concurrent.CancellationException("analysis of " + capture.name() + " interrupted");
                 for (int i = 0; i < length; i++) work[i] = (buf[i] - offset) * w[i];
                 fft.realForward(work);
                 if (first == null) first = work.clone();

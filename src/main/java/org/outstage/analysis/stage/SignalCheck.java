@@ -3,8 +3,8 @@ package org.outstage.analysis.stage;
 import java.util.Arrays;
 import java.util.Locale;
 import java.util.Optional;
-import org.jtransforms.fft.DoubleFFT_1D;
 import org.outstage.Require;
+import org.outstage.analysis.Fft;
 import org.outstage.analysis.SineFit;
 import org.outstage.analysis.Stats;
 
@@ -119,7 +119,7 @@ public final class SignalCheck {
         mean /= m;
         double[] buf = new double[m];
         for (int i = 0; i < m; i++) buf[i] = (x[i] - mean) * (0.5 - 0.5 * Math.cos(2 * Math.PI * i / m));
-        new DoubleFFT_1D(m).realForward(buf);
+        Fft.of(m).realForward(buf);
         int half = m / 2;
         double[] p = new double[half];
         for (int k = 1; k < half; k++) p[k] = buf[2 * k] * buf[2 * k] + buf[2 * k + 1] * buf[2 * k + 1];
