@@ -74,6 +74,9 @@ public final class MeasurementJson {
         o.put("gain_at_zero", x.gainAtZero());
         o.put("gain_at_zero_std_error", x.gainAtZeroStdError());
         o.put("verdict", x.verdict().label());
+        o.put("verdict_ratio", x.verdictRatio());
+        o.put("verdict_ratio_std_error", x.verdictRatioStdError());
+        o.put("large_current_asymptote", x.asymptoticGain());
         o.put("confidence", x.confidence());
         o.put("notch_width", x.notchWidthVolts());
         o.put("notch_depth", x.notchDepthVolts());

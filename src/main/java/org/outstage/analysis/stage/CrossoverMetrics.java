@@ -19,6 +19,15 @@ package org.outstage.analysis.stage;
  * underbiased if r + kσ &lt; 1 − band; overbiased if r − kσ &gt; 1 + band; near-optimal if |r − 1| + kσ ≤ band;
  * otherwise, or when hysteresis or clipping of the outer swing is present, unclear.
  *
+ * <p><b>Level.</b> At a modest level the outer swing has not reached the large-current gain (VT/I still adds to
+ * the emitter resistance), so r reads high at a given bias and a well-biased stage looks gm-doubled. When the
+ * outer gain rises measurably from 50 % to 90 % of peak, the verdict reads r∞ = g(0)·a instead, with a from
+ * 1/g = a + b/|v| (one device conducting, exponential law: 1/g = (RL + Re)/RL + VT/|v|) — the gain at zero
+ * against the large-current asymptote, which at Oliver's condition (Iq·Re = VT) is exactly 1 at every level.
+ * Worked values for Re = 0.22 Ω, RL = 8 Ω: r∞ = 0.9868 at 0.5× the Oliver current, 0.9956 at 0.75×, 1.0000 at
+ * 1×, 1.0045 at 1.5×, 1.0067 at 2× (from g(0) = RL/(RL + (Re + VT/Iq)/2) and 1/a = RL/(RL + Re)), so the ±0.3 %
+ * band spans about 0.8× to 1.3× the Oliver current. {@code gainAtZero} keeps its stated definition.
+ *
  * @param gainAtZero              r = gain at zero / outer mean gain (ratio)
  * @param gainAtZeroStdError      σ of r from the propagated bin standard errors
  * @param incrementalGainAtZero   dOut/dIdeal at zero output (not normalised)
@@ -33,8 +42,15 @@ package org.outstage.analysis.stage;
  * @param confidence              probability (normal model with σ) that r lies in the band of the verdict; for
  *                                {@code UNCLEAR}, that of the most likely band (0 when hysteresis or clipping)
  * @param explanation             one sentence for the user
+ * @param asymptoticGain          the large-current asymptote 1/a of the gain, from 1/g = a + b/|v| through the local
+ *                                gains at 50 % and 90 % of peak, when the outer gain still rises measurably at this
+ *                                level; NaN when it does not (then the outer mean gain is the reference)
+ * @param verdictRatio            what the verdict reads: gain at zero / asymptotic gain when that exists, otherwise
+ *                                {@code gainAtZero}
+ * @param verdictRatioStdError    σ of {@code verdictRatio}
  */
 public record CrossoverMetrics(double gainAtZero, double gainAtZeroStdError, double incrementalGainAtZero,
                                double outerMeanGain, double notchWidthVolts, double notchDepthVolts,
                                double notchDepthFraction, double nearZeroResidualShare, double nearZeroTimeShare,
-                               BiasVerdict verdict, double confidence, String explanation) {}
+                               BiasVerdict verdict, double confidence, String explanation,
+                               double asymptoticGain, double verdictRatio, double verdictRatioStdError) {}

@@ -166,8 +166,19 @@ final class TransferEngine {
         double flat = gOut / gIn - 1;
         double flatSe = 0.5 * Math.sqrt(p5.slopeVar + n5.slopeVar + p9.slopeVar + n9.slopeVar) / Math.abs(gIn);
         boolean outerFalling = flat + s.verdictSigmas() * flatSe < -OUTER_FALL_LIMIT;
-        CrossoverMetrics crossover = verdict(r, rSe, g0, outer, notchWidth, depth, peak, nearZeroResidualShare,
-                nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
+        // large-current asymptote: with one device carrying the load, g(v) = RL/(RL + Re + VT·RL/|v|) (exponential law),
+        // so 1/g = a + b/|v| and the gain tends to 1/a as the current grows. At a modest level the outer swing has not
+        // reached it (VT/I still adds), and g(0)/outer reads high; the verdict uses g(0)·a instead when the outer gain
+        // rises measurably (b > 0 beyond the noise). At Oliver's condition g(0) equals that asymptote exactly.
+        double v1 = 0.5 * peak, v2 = 0.5 * (upPos + upNeg);
+        double a = (v2 / gOut - v1 / gIn) / (v2 - v1);
+        double gInVar = 0.25 * (p5.slopeVar + n5.slopeVar), gOutVar = 0.25 * (p9.slopeVar + n9.slopeVar);
+        double aVar = (Math.pow(v2 / (gOut * gOut), 2) * gOutVar + Math.pow(v1 / (gIn * gIn), 2) * gInVar) / ((v2 - v1) * (v2 - v1));
+        boolean outerRising = flat - s.verdictSigmas() * flatSe > 0 && a > 0;
+        double rInf = outerRising ? g0 * a : r;
+        double rInfSe = outerRising ? Math.sqrt(z.slopeVar * a * a + g0 * g0 * aVar) : rSe;
+        CrossoverMetrics crossover = verdict(r, rSe, outerRising ? 1 / a : Double.NaN, rInf, rInfSe, g0, outer, notchWidth, depth, peak,
+                nearZeroResidualShare, nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
                 quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, s);
         return new Result(transfer, clipping, crossover);
     }
@@ -405,7 +416,8 @@ final class TransferEngine {
         return right - left;
     }
 
-    private static CrossoverMetrics verdict(double r, double rSe, double g0, double outer, double notchWidth, double depth,
+    private static CrossoverMetrics verdict(double rDefined, double rDefinedSe, double asymptote, double r, double rSe, double g0,
+                                            double outer, double notchWidth, double depth,
                                             double peak, double nzShare, double nzTime, Hysteresis hyst, boolean outerClipped,
                                             double outerFall, double coarseStep, StageSettings s) {
         double band = s.nearOptimalBand(), k = s.verdictSigmas();
@@ -415,7 +427,10 @@ final class TransferEngine {
         BiasVerdict v;
         double conf;
         String why;
-        String rTxt = String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.4f of the large-signal gain", r, rSe);
+        String rTxt = Double.isNaN(asymptote)
+                ? String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-signal gain", r, rSe)
+                : String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-current asymptote (%.4f of the outer-swing gain, which is still rising at this level)",
+                        r, rSe, rDefined);
         if (hyst.detected()) {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "rising and falling halves of the transfer curve differ (memory): the curve is not static, " + rTxt;
@@ -443,7 +458,8 @@ final class TransferEngine {
             v = BiasVerdict.UNCLEAR; conf = Math.max(pNear, Math.max(pUnder, pOver));
             why = rTxt + ": the uncertainty straddles a threshold; average more cycles or reduce the noise";
         }
-        return new CrossoverMetrics(r, rSe, g0, outer, notchWidth, depth, depth / peak, nzShare, nzTime, v, conf, why);
+        return new CrossoverMetrics(rDefined, rDefinedSe, g0, outer, notchWidth, depth, depth / peak, nzShare, nzTime, v, conf, why,
+                asymptote, r, rSe);
     }
 
     /** P(Z ≤ z/σ) for a standard normal Z; a step when σ = 0. */

@@ -62,6 +62,34 @@ class StageAnalyzerTest {
     }
 
     /**
+     * Level independence of the verdict. At Oliver's condition (Iq·Re = VT; Oliver, HP Journal 1971, from memory —
+     * references.md §7) the small-signal gain at zero, RL/(RL + (Re + VT/Iq)/2), equals the large-current asymptote
+     * RL/(RL + Re) exactly, at every level. The stated gain_at_zero (against the outer-swing mean) reads higher at
+     * lower levels, where VT/I still adds over the outer swing; the verdict's ratio against the asymptote must not.
+     */
+    @Test
+    void oliverBiasedPair_verdictRatioIsOneAtEveryLevel_whileGainAtZeroDrifts() {
+        StageFixtures.Pair pair = StageFixtures.Pair.of(StageFixtures.oliverAmps());
+        double asymptote = 8.0 / (8.0 + 0.22);                       // RL/(RL + Re)
+        double atZero = 8.0 / (8.0 + (0.22 + StageFixtures.VT_300K / StageFixtures.oliverAmps()) / 2);
+        assertEquals(1.0, atZero / asymptote, 1e-12, "Oliver's condition in closed form");
+        double previousDefined = Double.NaN;
+        for (double a : new double[] {30, 18, 9}) {                 // about 56 W, 20 W and 5 W into 8 ohm
+            double[] y = StageFixtures.drive(N, FS, F, a, 0.3, pair::out);
+            StageDiagnosis.Measured m = measured(y);
+            // the one-device law 1/g = a + b/|v| neglects the idle device's current at half the swing: at 9 V peak
+            // (4.8× Iq there) that leaves 0.07 %; the bound is a third of the ±0.3 % near-optimal band
+            assertEquals(1.0, m.crossover().verdictRatio(), 1e-3, "peak " + a + " V: " + m.crossover().explanation());
+            assertTrue(Math.abs(m.crossover().verdictRatio() - 1) < 0.25 * Math.abs(m.crossover().gainAtZero() - 1),
+                    "the asymptote removes most of the level error: " + m.crossover().verdictRatio() + " vs " + m.crossover().gainAtZero());
+            assertEquals(BiasVerdict.NEAR_OPTIMAL, m.crossover().verdict(), m.crossover().explanation());
+            if (!Double.isNaN(previousDefined)) assertTrue(m.crossover().gainAtZero() > previousDefined, "the stated ratio rises as the level falls");
+            previousDefined = m.crossover().gainAtZero();
+        }
+        assertTrue(previousDefined > 1.003, "at 9 V peak the stated ratio alone would read gm-doubling: " + previousDefined);
+    }
+
+    /**
      * Target: gain_at_zero within 1 % of truth at 24-bit quantisation (±40 V full scale) with white noise
      * 100 dB below the signal RMS (Oliver-biased pair, 20 V peak drive).
      */
