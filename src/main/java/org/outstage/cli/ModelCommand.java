@@ -135,6 +135,11 @@ public final class ModelCommand implements Callable<Integer> {
                     thermalTracked.trackedAmpsPerKelvin() * 1e3, thermalTracked.trackedJunctions()));
             if (m.warnings().isEmpty()) o.println("Warnings: none");
             else for (String w : m.warnings()) o.println("Warning: " + w);
+            boolean noRbe = p.topology() instanceof org.outstage.model.Topology.Cfp c ? Double.isInfinite(c.outputBaseEmitterOhms())
+                    : p.topology() instanceof org.outstage.model.Topology.Quasi q && Double.isInfinite(q.outputBaseEmitterOhms());
+            if (noRbe)
+                o.println("Note: without a base-emitter resistor on the output device (--rbe) the CFP's crossover behaves like a plain pair's;"
+                        + " with one (e.g. --rbe 100) the driver carries the small currents and the optimum bias falls (docs/model.md).");
         }
     }
 
