@@ -78,13 +78,6 @@ public final class Charts {
                 List.of(new Series("capture − fitted fundamental", t, residual, Series.Style.LINE, Series.Role.RESIDUAL)));
     }
 
-    /** Residual of {@code samples} against {@code fit}, sample by sample (a plotting aid, not a figure). */
-    public static double[] residualOf(double[] samples, double sampleRateHz, double startSeconds, SineFit fit) {
-        double[] r = new double[samples.length];
-        for (int i = 0; i < samples.length; i++) r[i] = samples[i] - fit.valueAt(startSeconds + i / sampleRateHz);
-        return r;
-    }
-
     /** Harmonic markers H2…HN from measured orders, frequencies and levels (levels on the spectrum's dB scale). */
     public static List<Marker> harmonicMarkers(int[] orders, double[] frequencyHz, double[] levelDb) {
         Require.that(orders.length == frequencyHz.length && orders.length == levelDb.length, "harmonic arrays differ in length");

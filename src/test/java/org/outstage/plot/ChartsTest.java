@@ -31,14 +31,10 @@ class ChartsTest {
     }
 
     @Test
-    void residualOf_pureFittedSineIsZero_andTitleStatesMagnification() {
+    void residualChart_titleStatesMagnification() {
         double fs = 10_000;
-        SineFit fit = new SineFit(50, 1.0, -1.0, 0, 0, 1, true);
-        double[] x = new double[1000];
-        for (int i = 0; i < x.length; i++) x[i] = Math.cos(2 * Math.PI * 50 * i / fs - 1.0) + (i == 500 ? 0.004 : 0);
-        double[] r = Charts.residualOf(x, fs, 0, fit);
-        assertEquals(0.004, r[500], 1e-12);
-        assertEquals(0, r[100], 1e-12);
+        double[] r = new double[1000];
+        r[500] = 0.004;
         // peak ratio 1/0.004 = 250 -> rounded down to 200
         assertTrue(Charts.residual("Residual", r, fs, 0, "V", 1.0, 50).title().endsWith("(magnified ×200)"));
     }
