@@ -1,6 +1,9 @@
 package org.outstage.verify;
 
 import java.util.ArrayList;
+import org.outstage.analysis.stage.LevelPoint;
+import org.outstage.analysis.stage.LevelSweep;
+import org.outstage.analysis.stage.RatedPower;
 import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -163,32 +166,26 @@ public final class Verifier {
     private static LimitResult power(Limit l, List<MeasuredChannel> m) {
         double thr = l.thdThreshold().getAsDouble();
         List<MeasuredChannel> withPower = new ArrayList<>();
-        for (MeasuredChannel c : m) if (c.figures().powerWatts().isPresent() && c.figures().powerWatts().getAsDouble() > 0) withPower.add(c);
+        for (MeasuredChannel c : m) {
+            KeyFigures f = c.figures();
+            if (f.powerWatts().isPresent() && f.powerWatts().getAsDouble() > 0 && f.loadOhms().isPresent() && f.thdRatio() > 0
+                    && f.thdNRatio() > 0 && f.fundamentalHz() > 0) withPower.add(c);
+        }
         if (withPower.size() < 2) {
             return notMeasured(l, "needs captures at rising level with a known load and calibration at " + conditions(l) + " (found "
                     + withPower.size() + ")");
         }
         withPower.sort(Comparator.comparingDouble(c -> c.figures().powerWatts().getAsDouble()));
-        for (int i = 0; i + 1 < withPower.size(); i++) {
-            KeyFigures a = withPower.get(i).figures();
-            KeyFigures b = withPower.get(i + 1).figures();
-            if (a.thdRatio() < thr && b.thdRatio() >= thr && a.thdRatio() > 0) {
-                double la = Math.log(a.thdRatio());
-                double lb = Math.log(b.thdRatio());
-                double pa = Math.log(a.powerWatts().getAsDouble());
-                double pb = Math.log(b.powerWatts().getAsDouble());
-                double p = Math.exp(pa + (pb - pa) * (Math.log(thr) - la) / (lb - la));
-                return result(l, p, "between " + where(withPower.get(i)) + " (" + fmt(a.powerWatts().getAsDouble()) + " W) and "
-                        + where(withPower.get(i + 1)) + " (" + fmt(b.powerWatts().getAsDouble()) + " W)");
-            }
+        // the same distortion-limited power as `sweep` and the bench report (LevelSweep, IEC 60268-3 notion)
+        List<LevelPoint> points = new ArrayList<>();
+        for (MeasuredChannel c : withPower) {
+            KeyFigures f = c.figures();
+            points.add(new LevelPoint(where(c), f.fundamentalHz(), f.loadOhms().getAsDouble(), "verify", 0,
+                    f.powerWatts().getAsDouble(), f.thdRatio(), f.thdNRatio()));
         }
-        KeyFigures top = withPower.get(withPower.size() - 1).figures();
-        KeyFigures low = withPower.get(0).figures();
-        if (top.thdRatio() < thr) {
-            return notMeasured(l, String.format(Locale.ROOT, "THD stays below %s %% up to the highest capture (%s W): raise the level",
-                    fmt(thr * 100), fmt(top.powerWatts().getAsDouble())));
-        }
-        return notMeasured(l, String.format(Locale.ROOT, "THD is already above %s %% at the lowest capture (%s W)", fmt(thr * 100),
-                fmt(low.powerWatts().getAsDouble())));
+        RatedPower rated = LevelSweep.ratedPower(points, thr);
+        if (rated.powerWatts().isPresent()) return result(l, rated.powerWatts().getAsDouble(), rated.message());
+        boolean neverReached = points.get(points.size() - 1).thdRatio() < thr;
+        return notMeasured(l, rated.message() + (neverReached ? ": raise the level" : ": add captures at lower levels"));
     }
 }
