@@ -41,7 +41,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
 
     static KeyFigures figures(Measurement m) {
         KeyFigures f = KeyFigures.basic(m.fundamental().frequencyHz(), m.fundamental().rms(), m.unit(), m.thd().ratio(), m.thdN().ratio());
-        if (m.powerWatts().isPresent()) f = f.withPower(m.powerWatts().get().fundamentalWatts(), m.powerWatts().get().loadOhms());
+        if (m.powerWatts().isPresent()) f = f.withPower(m.powerWatts().get().totalWatts(), m.powerWatts().get().loadOhms());
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             if (Double.isFinite(d.residual().rmsVolts())) f = f.withResidualRms(d.residual().rmsVolts());
             if (Double.isFinite(d.crossover().gainAtZero())) f = f.withCrossover(d.crossover().gainAtZero(), d.crossover().verdict().label());

@@ -83,7 +83,7 @@ public final class FigureTable {
         cells(sb, quote(file), m.channel(), m.unit(), m.sampleRateHz(), m.fundamental().frequencyHz(), m.fundamental().rms(),
                 m.thd().percent(), m.thdN().percent(), m.thdN().lowHz(), m.thdN().highHz(),
                 m.thdN().weighting().name().toLowerCase(Locale.ROOT), m.sinadDb(), m.enob(), m.floor().db(),
-                m.powerWatts().map(p -> (Object) p.fundamentalWatts()).orElse(""),
+                m.powerWatts().map(p -> (Object) p.totalWatts()).orElse(""),
                 s == null ? "" : s.crossover().gainAtZero(), s == null ? "" : s.crossover().verdict().label(),
                 s == null ? "" : s.clipping().detected(),
                 s == null ? "" : s.clipping().positive().map(p -> (Object) p.levelVolts()).orElse(""),

@@ -102,7 +102,7 @@ final class AnalyzerBackend implements Backend {
             Measurement.Power p = m.powerWatts().get();
             sweep = Optional.of(new ViewData.SweepPoint(new LevelPoint(capture.name(), m.fundamental().frequencyHz(), p.loadOhms(),
                     cal.fullScaleVolts().isPresent() ? "full scale " + cal.fullScaleVolts().getAsDouble() + " V" : "volts",
-                    cal.fullScaleVolts().orElse(0), p.fundamentalWatts(), m.thd().ratio(), m.thdN().ratio())));
+                    cal.fullScaleVolts().orElse(0), p.totalWatts(), m.thd().ratio(), m.thdN().ratio())));
         }
         progress.accept(1);
         return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, harmonics, curve, sweep);
@@ -115,7 +115,7 @@ final class AnalyzerBackend implements Backend {
         rows.add(new FigureRow("frequencyValue", "Fundamental", num(m.fundamental().frequencyHz()), "Hz", ""));
         String levelNote = num(MeasurementCharts.spectrumShiftDb(m)) + " " + MeasurementCharts.spectrumUnit(m);
         rows.add(new FigureRow("levelValue", "Level (rms)", num(m.fundamental().rms()), u, levelNote));
-        m.powerWatts().ifPresent(p -> rows.add(new FigureRow("powerValue", "Power", num(p.fundamentalWatts()), "W",
+        m.powerWatts().ifPresent(p -> rows.add(new FigureRow("powerValue", "Power", num(p.totalWatts()), "W",
                 "into " + num(p.loadOhms()) + " Ω")));
         if (!u.equals("V"))
             rows.add(new FigureRow("calibrationValue", "Calibration", "none", "",

@@ -234,7 +234,7 @@ class WorkbenchTest {
                 org.outstage.capture.CaptureOptions.none().withFullScaleVolts(40));
         Measurement m = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(UiSettings.DEFAULT, Workbench.SAMPLE_SESSION));
         assertEquals(AnalyzerBackend.pct(m.thd().percent()) + " %", shown(robot, "thdValue"));
-        assertEquals(AnalyzerBackend.num(m.powerWatts().orElseThrow().fundamentalWatts()) + " W", shown(robot, "powerValue"));
+        assertEquals(AnalyzerBackend.num(m.powerWatts().orElseThrow().totalWatts()) + " W", shown(robot, "powerValue"));
         // the level sweep over the level series: its title carries the analysis's power at 1 % THD
         WaitForAsyncUtils.waitFor(60, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() ->
                 pane.captureList.getItems().stream().allMatch(e -> e.data != null)).get());
