@@ -45,6 +45,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             if (Double.isFinite(d.residual().rmsVolts())) f = f.withResidualRms(d.residual().rmsVolts());
             if (Double.isFinite(d.crossover().gainAtZero())) f = f.withCrossover(d.crossover().gainAtZero(), d.crossover().verdict().label());
+            if (Double.isFinite(d.crossover().verdictRatio())) f = f.withCrossoverRatio(d.crossover().verdictRatio());
             if (d.clipping().asymmetryPercent().isPresent()) f = f.withClipAsymmetry(d.clipping().asymmetryPercent().getAsDouble() / 100);
         }
         return f;

@@ -84,6 +84,7 @@ final class SessionSupport {
                 "heatsink_c", s.heatsinkCelsius(), "ambient_c", s.ambientCelsius(), "channel", s.channel());
         Optional<KeyFigures> f = s.measurement().map(MeasurementRecord::figures);
         o.put("gain_at_zero", f.isPresent() ? f.get().gainAtZero() : OptionalDouble.empty());
+        o.put("crossover_ratio", f.isPresent() ? f.get().crossoverReading() : OptionalDouble.empty());
         o.put("crossover_verdict", f.flatMap(KeyFigures::crossoverVerdict));
         o.put("thd_percent", f.map(k -> k.thdRatio() * 100));
         o.put("thdn_percent", f.map(k -> k.thdNRatio() * 100));

@@ -7,12 +7,15 @@ import java.util.Map;
 import java.util.OptionalDouble;
 import java.util.TreeMap;
 import org.outstage.Require;
+import org.outstage.verify.KeyFigures;
 
 /**
  * Recommends a bias range from the steps of a session.
  *
  * <p>Criterion: the crossover deviation {@code |g0 − 1|}, where {@code g0} is the incremental gain at zero
- * output relative to the large-signal gain (the {@code gain_at_zero} figure). Oliver (HP Journal, Feb 1971)
+ * output relative to the large-signal gain: the ratio the step's crossover verdict read
+ * ({@link KeyFigures#crossoverReading()}: against the large-current asymptote when the outer gain still rises at
+ * the capture's level, else the {@code gain_at_zero} figure). Oliver (HP Journal, Feb 1971)
  * sets the optimum class-AB bias where the small-signal gain at crossover equals the large-signal gain,
  * i.e. {@code g0 = 1}; below it the gain dips (crossover notch), above it rises (gm-doubling). The criterion
  * flattens the gain; it does not promise minimum THD at every level (references.md §7).
@@ -20,7 +23,7 @@ import org.outstage.Require;
  * <p>Method (ours): readings are sorted, equal readings averaged, and {@code g0} is interpolated linearly
  * between steps. The recommended range is the stretch of readings where {@code |g0 − 1| ≤ tolerance}
  * that contains the smallest deviation. Default tolerance 0.003, the near-optimal band of the crossover verdict
- * ({@code org.outstage.analysis.stage.CrossoverMetrics}): for an emitter-follower pair it spans roughly 0.75× to 1.1×
+ * ({@code org.outstage.analysis.stage.CrossoverMetrics}): for an emitter-follower pair it spans roughly 0.8× to 1.3×
  * the Oliver current (derivation in that class), so the advice and the per-capture verdict agree.
  */
 public final class BiasAdvisor {
@@ -55,7 +58,8 @@ public final class BiasAdvisor {
                 otherUnit++;
                 continue;
             }
-            OptionalDouble g = s.figures().isPresent() ? s.figures().get().gainAtZero() : OptionalDouble.empty();
+            // the ratio the step's verdict read (level-corrected, docs/diagnosis.md), so advice and verdict agree
+            OptionalDouble g = s.figures().isPresent() ? s.figures().get().crossoverReading() : OptionalDouble.empty();
             if (g.isEmpty()) continue;
             double[] acc = sums.computeIfAbsent(s.reading().value(), k -> new double[2]);
             acc[0] += g.getAsDouble();

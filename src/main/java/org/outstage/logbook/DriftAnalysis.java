@@ -128,6 +128,6 @@ public final class DriftAnalysis {
 
     private static OptionalDouble value(StepPoint s, Quantity q) {
         if (q == Quantity.READING) return OptionalDouble.of(s.reading().value());
-        return s.figures().isPresent() ? s.figures().get().gainAtZero() : OptionalDouble.empty();
+        return s.figures().isPresent() ? s.figures().get().crossoverReading() : OptionalDouble.empty();
     }
 }

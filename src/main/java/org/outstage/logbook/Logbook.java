@@ -455,8 +455,8 @@ public final class Logbook implements AutoCloseable {
         KeyFigures f = m.figures();
         try (PreparedStatement ins = c.prepareStatement("INSERT INTO measurements(session_id, capture_sha256, capture_name, channel,"
                 + " measured_at, program_version, settings_json, defaulted_json, measurement_json, fundamental_hz, fundamental_rms, unit,"
-                + " thd_ratio, thdn_ratio, residual_rms, power_watts, load_ohms, gain_at_zero, crossover_verdict, clip_asymmetry_ratio)"
-                + " VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", Statement.RETURN_GENERATED_KEYS)) {
+                + " thd_ratio, thdn_ratio, residual_rms, power_watts, load_ohms, gain_at_zero, crossover_verdict, clip_asymmetry_ratio,"
+                + " crossover_ratio) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", Statement.RETURN_GENERATED_KEYS)) {
             ins.setLong(1, sessionId);
             setText(ins, 2, m.capture().map(CaptureRef::sha256));
             setText(ins, 3, m.capture().map(CaptureRef::fileName));
@@ -477,6 +477,7 @@ public final class Logbook implements AutoCloseable {
             setReal(ins, 18, f.gainAtZero());
             setText(ins, 19, f.crossoverVerdict());
             setReal(ins, 20, f.clipAsymmetryRatio());
+            setReal(ins, 21, f.crossoverRatio());
             ins.executeUpdate();
             return generatedKey(ins);
         }
@@ -485,9 +486,9 @@ public final class Logbook implements AutoCloseable {
     private static final String MEASUREMENT_COLUMNS = "m.channel, m.capture_sha256, m.capture_name, c.size_bytes, m.measured_at,"
             + " m.program_version, m.settings_json, m.defaulted_json, m.measurement_json, m.fundamental_hz, m.fundamental_rms, m.unit,"
             + " m.thd_ratio, m.thdn_ratio, m.residual_rms, m.power_watts, m.load_ohms, m.gain_at_zero, m.crossover_verdict,"
-            + " m.clip_asymmetry_ratio";
+            + " m.clip_asymmetry_ratio, m.crossover_ratio";
 
-    /** Reads the 20 measurement columns starting at column {@code k}. */
+    /** Reads the 21 measurement columns starting at column {@code k}. */
     @SuppressWarnings("unchecked")
     private static MeasurementRecord measurement(ResultSet rs, int k) throws SQLException {
         int channel = rs.getInt(k);
@@ -502,7 +503,7 @@ public final class Logbook implements AutoCloseable {
         for (Object o : (List<Object>) Json.parse(rs.getString(k + 7))) defaulted.add(String.valueOf(o));
         KeyFigures f = new KeyFigures(rs.getDouble(k + 9), rs.getDouble(k + 10), rs.getString(k + 11), rs.getDouble(k + 12),
                 rs.getDouble(k + 13), real(rs, k + 14), real(rs, k + 15), real(rs, k + 16), real(rs, k + 17), text(rs, k + 18),
-                real(rs, k + 19));
+                real(rs, k + 19), real(rs, k + 20));
         return new MeasurementRecord(channel, cap, Instant.parse(rs.getString(k + 4)), rs.getString(k + 5), settings, defaulted,
                 rs.getString(k + 8), f);
     }
@@ -541,7 +542,7 @@ public final class Logbook implements AutoCloseable {
             List<StepPoint> out = new ArrayList<>();
             try (PreparedStatement q = c.prepareStatement("SELECT b.seq, b.taken_at, b.reading_value, b.reading_unit, b.heatsink_c,"
                     + " b.ambient_c, b.channel, m.id, m.fundamental_hz, m.fundamental_rms, m.unit, m.thd_ratio, m.thdn_ratio, m.residual_rms,"
-                    + " m.power_watts, m.load_ohms, m.gain_at_zero, m.crossover_verdict, m.clip_asymmetry_ratio FROM bias_steps b"
+                    + " m.power_watts, m.load_ohms, m.gain_at_zero, m.crossover_verdict, m.clip_asymmetry_ratio, m.crossover_ratio FROM bias_steps b"
                     + " LEFT JOIN measurements m ON m.id = b.measurement_id WHERE b.session_id = ? ORDER BY b.seq")) {
                 q.setLong(1, sessionId);
                 try (ResultSet rs = q.executeQuery()) {
@@ -549,7 +550,7 @@ public final class Logbook implements AutoCloseable {
                         rs.getLong(8);
                         Optional<KeyFigures> f = rs.wasNull() ? Optional.empty() : Optional.of(new KeyFigures(rs.getDouble(9), rs.getDouble(10),
                                 rs.getString(11), rs.getDouble(12), rs.getDouble(13), real(rs, 14), real(rs, 15), real(rs, 16), real(rs, 17),
-                                text(rs, 18), real(rs, 19)));
+                                text(rs, 18), real(rs, 19), real(rs, 20)));
                         out.add(new StepPoint(rs.getInt(1), Instant.parse(rs.getString(2)),
                                 new BiasReading(rs.getDouble(3), BiasReading.Unit.parse(rs.getString(4))), real(rs, 5), real(rs, 6),
                                 rs.getInt(7), f));

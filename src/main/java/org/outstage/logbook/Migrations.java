@@ -37,7 +37,12 @@ final class Migrations {
                             + " UNIQUE (session_id, seq))",
                     "CREATE INDEX measurements_by_session ON measurements(session_id)"),
             // 2: sessions listed by unit and time
-            List.of("CREATE INDEX sessions_by_unit ON sessions(unit_id, started_at)"));
+            List.of("CREATE INDEX sessions_by_unit ON sessions(unit_id, started_at)"),
+            // 3: the ratio the crossover verdict reads (gain at zero against the large-current asymptote), taken from the
+            //    stored measurement where it has it
+            List.of("ALTER TABLE measurements ADD COLUMN crossover_ratio REAL",
+                    "UPDATE measurements SET crossover_ratio = json_extract(measurement_json, '$.crossover.verdict_ratio')"
+                            + " WHERE json_valid(measurement_json)"));
 
     static int latest() { return STEPS.size(); }
 }

@@ -43,7 +43,7 @@ public final class SessionExport {
     static final String[] CSV_HEADER = {"row", "seq", "taken_at", "reading", "reading_unit", "heatsink_c", "ambient_c", "step_channel",
             "channel", "capture_sha256", "capture_name", "capture_size_bytes", "measured_at", "program_version", "fundamental_hz",
             "fundamental_rms", "unit", "thd_ratio", "thdn_ratio", "residual_rms", "power_watts", "load_ohms", "gain_at_zero",
-            "crossover_verdict", "clip_asymmetry_ratio", "settings_json", "defaulted_json", "measurement_json"};
+            "crossover_verdict", "clip_asymmetry_ratio", "crossover_ratio", "settings_json", "defaulted_json", "measurement_json"};
 
     // ------------------------------------------------------------------ JSON
 
@@ -74,7 +74,7 @@ public final class SessionExport {
         return Json.obj("fundamental_hz", f.fundamentalHz(), "fundamental_rms", f.fundamentalRms(), "unit", f.unit(),
                 "thd_ratio", f.thdRatio(), "thdn_ratio", f.thdNRatio(), "residual_rms", f.residualRms(), "power_watts", f.powerWatts(),
                 "load_ohms", f.loadOhms(), "gain_at_zero", f.gainAtZero(), "crossover_verdict", f.crossoverVerdict(),
-                "clip_asymmetry_ratio", f.clipAsymmetryRatio());
+                "clip_asymmetry_ratio", f.clipAsymmetryRatio(), "crossover_ratio", f.crossoverRatio());
     }
 
     private static Map<String, Object> measurementJson(MeasurementRecord m) {
@@ -141,7 +141,7 @@ public final class SessionExport {
         Fields f = m.obj("figures");
         KeyFigures kf = new KeyFigures(f.num("fundamental_hz"), f.num("fundamental_rms"), f.str("unit"), f.num("thd_ratio"),
                 f.num("thdn_ratio"), f.optNum("residual_rms"), f.optNum("power_watts"), f.optNum("load_ohms"), f.optNum("gain_at_zero"),
-                f.optStr("crossover_verdict"), f.optNum("clip_asymmetry_ratio"));
+                f.optStr("crossover_verdict"), f.optNum("clip_asymmetry_ratio"), f.optNum("crossover_ratio"));
         Object full = m.raw("measurement");
         String fullText = full instanceof String str ? str : Json.write(full);
         return new MeasurementRecord((int) m.num("channel"), cap, m.instant("measured_at"), m.str("program_version"), settings, defaulted,
@@ -197,6 +197,7 @@ public final class SessionExport {
         cells.add(num(f.gainAtZero()));
         cells.add(f.crossoverVerdict().orElse(""));
         cells.add(num(f.clipAsymmetryRatio()));
+        cells.add(num(f.crossoverRatio()));
         cells.add(Json.write(m.settings()));
         cells.add(Json.write(new ArrayList<>(m.defaulted())));
         cells.add(m.measurementJson());
@@ -292,7 +293,7 @@ public final class SessionExport {
             for (Object o : (List<Object>) Json.parse(r.get("defaulted_json"))) defaulted.add(String.valueOf(o));
             KeyFigures f = new KeyFigures(dbl("fundamental_hz"), dbl("fundamental_rms"), r.get("unit"), dbl("thd_ratio"), dbl("thdn_ratio"),
                     opt("residual_rms"), opt("power_watts"), opt("load_ohms"), opt("gain_at_zero"), optText("crossover_verdict"),
-                    opt("clip_asymmetry_ratio"));
+                    opt("clip_asymmetry_ratio"), opt("crossover_ratio"));
             return new MeasurementRecord(integer("channel"), cap, Instant.parse(r.get("measured_at")), r.get("program_version"), settings,
                     defaulted, r.get("measurement_json"), f);
         }

@@ -21,10 +21,14 @@ import org.outstage.Require;
  * @param gainAtZero           incremental gain at zero output relative to the large-signal gain (1 = flat)
  * @param crossoverVerdict     the crossover diagnosis in words (e.g. "under-biased", "near-optimal", "gm-doubling")
  * @param clipAsymmetryRatio   (|upper clip| − |lower clip|) / mean, as a fraction, when the capture clips
+ * @param crossoverRatio       what the crossover verdict reads: the gain at zero against the large-current asymptote
+ *                             when the outer gain still rises at the capture's level, else {@code gainAtZero}
+ *                             (docs/diagnosis.md); empty for records made before it was kept
  */
 public record KeyFigures(double fundamentalHz, double fundamentalRms, String unit, double thdRatio, double thdNRatio,
                          OptionalDouble residualRms, OptionalDouble powerWatts, OptionalDouble loadOhms,
-                         OptionalDouble gainAtZero, Optional<String> crossoverVerdict, OptionalDouble clipAsymmetryRatio) {
+                         OptionalDouble gainAtZero, Optional<String> crossoverVerdict, OptionalDouble clipAsymmetryRatio,
+                         OptionalDouble crossoverRatio) {
     public KeyFigures {
         Require.nonNegative("fundamentalHz", fundamentalHz);
         Require.nonNegative("fundamentalRms", fundamentalRms);
@@ -42,6 +46,26 @@ public record KeyFigures(double fundamentalHz, double fundamentalRms, String uni
         loadOhms.ifPresent(v -> Require.positive("loadOhms", v));
         gainAtZero.ifPresent(v -> Require.finite("gainAtZero", v));
         clipAsymmetryRatio.ifPresent(v -> Require.finite("clipAsymmetryRatio", v));
+        Objects.requireNonNull(crossoverRatio, "crossoverRatio");
+        crossoverRatio.ifPresent(v -> Require.finite("crossoverRatio", v));
+    }
+
+    /** The figures without a crossover ratio (records made before it was kept). */
+    public KeyFigures(double fundamentalHz, double fundamentalRms, String unit, double thdRatio, double thdNRatio,
+                      OptionalDouble residualRms, OptionalDouble powerWatts, OptionalDouble loadOhms,
+                      OptionalDouble gainAtZero, Optional<String> crossoverVerdict, OptionalDouble clipAsymmetryRatio) {
+        this(fundamentalHz, fundamentalRms, unit, thdRatio, thdNRatio, residualRms, powerWatts, loadOhms, gainAtZero, crossoverVerdict,
+                clipAsymmetryRatio, OptionalDouble.empty());
+    }
+
+    /** The ratio bias advice and drift should read: {@link #crossoverRatio} when kept, otherwise {@link #gainAtZero}. */
+    public OptionalDouble crossoverReading() {
+        return crossoverRatio.isPresent() ? crossoverRatio : gainAtZero;
+    }
+
+    public KeyFigures withCrossoverRatio(double ratio) {
+        return new KeyFigures(fundamentalHz, fundamentalRms, unit, thdRatio, thdNRatio, residualRms, powerWatts, loadOhms,
+                gainAtZero, crossoverVerdict, clipAsymmetryRatio, OptionalDouble.of(ratio));
     }
 
     /** Only the figures every measurement has; the optional ones empty. */
@@ -52,21 +76,21 @@ public record KeyFigures(double fundamentalHz, double fundamentalRms, String uni
 
     public KeyFigures withResidualRms(double v) {
         return new KeyFigures(fundamentalHz, fundamentalRms, unit, thdRatio, thdNRatio, OptionalDouble.of(v), powerWatts, loadOhms,
-                gainAtZero, crossoverVerdict, clipAsymmetryRatio);
+                gainAtZero, crossoverVerdict, clipAsymmetryRatio, crossoverRatio);
     }
 
     public KeyFigures withPower(double watts, double ohms) {
         return new KeyFigures(fundamentalHz, fundamentalRms, unit, thdRatio, thdNRatio, residualRms, OptionalDouble.of(watts),
-                OptionalDouble.of(ohms), gainAtZero, crossoverVerdict, clipAsymmetryRatio);
+                OptionalDouble.of(ohms), gainAtZero, crossoverVerdict, clipAsymmetryRatio, crossoverRatio);
     }
 
     public KeyFigures withCrossover(double gain, String verdict) {
         return new KeyFigures(fundamentalHz, fundamentalRms, unit, thdRatio, thdNRatio, residualRms, powerWatts, loadOhms,
-                OptionalDouble.of(gain), Optional.ofNullable(verdict), clipAsymmetryRatio);
+                OptionalDouble.of(gain), Optional.ofNullable(verdict), clipAsymmetryRatio, crossoverRatio);
     }
 
     public KeyFigures withClipAsymmetry(double ratio) {
         return new KeyFigures(fundamentalHz, fundamentalRms, unit, thdRatio, thdNRatio, residualRms, powerWatts, loadOhms,
-                gainAtZero, crossoverVerdict, OptionalDouble.of(ratio));
+                gainAtZero, crossoverVerdict, OptionalDouble.of(ratio), crossoverRatio);
     }
 }

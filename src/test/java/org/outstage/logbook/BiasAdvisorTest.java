@@ -62,6 +62,27 @@ class BiasAdvisorTest {
         assertTrue(a.text().contains("less bias"), a.text());
     }
 
+    /**
+     * At a modest level the stated gain_at_zero reads high by a level-dependent offset (docs/diagnosis.md); the
+     * steps then also carry the verdict's level-corrected ratio, and the advice must follow that ratio, not the
+     * offset figure: the Oliver optimum stays at VT.
+     */
+    @Test
+    void stepsWithCrossoverRatio_adviceFollowsTheLevelCorrectedRatio() {
+        List<BiasStep> steps = new ArrayList<>();
+        Instant t = Fixtures.T0;
+        for (double mv = 5; mv <= 60 + 1e-9; mv += 2.5) {
+            double truth = g0(mv);
+            KeyFigures f = KeyFigures.basic(1000, 2.83, "V", 1e-3, 1.2e-3).withCrossover(truth + 0.004, "x").withCrossoverRatio(truth);
+            MeasurementRecord m = new MeasurementRecord(1, Optional.empty(), t, "outstage test", Map.of(), Set.of(), "{}", f);
+            steps.add(new BiasStep(0, t, BiasReading.millivolts(mv), OptionalDouble.of(30), OptionalDouble.empty(), 1, Optional.of(m)));
+            t = t.plusSeconds(60);
+        }
+        BiasAdvice a = BiasAdvisor.recommend(steps, 0.005);
+        assertEquals(VT_MV, a.best().getAsDouble(), 0.5, "Oliver: flattest at Vq = VT");
+        assertEquals(vqAt(-0.005), a.low().getAsDouble(), 0.5);
+    }
+
     @Test
     void allStepsUnderBiased_saysMore_withoutRange() {
         BiasAdvice a = BiasAdvisor.recommend(sweep(2, 10, 2), 0.005);

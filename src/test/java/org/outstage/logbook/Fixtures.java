@@ -23,6 +23,7 @@ final class Fixtures {
                 .withPower(0.5 + rnd.nextDouble(), 8.0)
                 .withCrossover(g0, g0 < 0.995 ? "under-biased" : g0 > 1.005 ? "gm-doubling" : "near-optimal");
         if (rnd.nextBoolean()) f = f.withClipAsymmetry(rnd.nextGaussian() * 0.02);
+        if (rnd.nextBoolean()) f = f.withCrossoverRatio(g0 - 0.002 * rnd.nextDouble());
         String json = Json.write(Json.obj("thd", thd, "gain_at_zero", g0, "note", "line\n\"quoted\", comma"));
         return new MeasurementRecord(1 + rnd.nextInt(2), cap, at, "outstage 0.1.0",
                 Map.of("bandwidth", "20-20000", "harmonics", "10", "weighting", "none", "load", "8.0"),

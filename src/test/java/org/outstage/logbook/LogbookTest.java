@@ -141,6 +141,34 @@ class LogbookTest {
         }
     }
 
+    /** Migration 3 adds the verdict's crossover ratio and fills it from the stored measurement JSON where it is there. */
+    @Test
+    void schemaTwo_gainsCrossoverRatioFromStoredMeasurements() throws Exception {
+        Path f = dir.resolve("v2.db");
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement()) {
+            for (int v = 0; v < 2; v++) for (String sql : Migrations.STEPS.get(v)) s.executeUpdate(sql);
+            s.executeUpdate("PRAGMA user_version = 2");
+            s.executeUpdate("PRAGMA application_id = " + Migrations.APPLICATION_ID);
+            s.executeUpdate("INSERT INTO units(name) VALUES ('DA-60 #2')");
+            s.executeUpdate("INSERT INTO sessions(unit_id, kind, started_at) VALUES (1, 'bias-adjustment', '2026-01-01T00:00:00Z')");
+            String common = "INSERT INTO measurements(session_id, channel, measured_at, program_version, settings_json, defaulted_json,"
+                    + " measurement_json, fundamental_hz, fundamental_rms, unit, thd_ratio, thdn_ratio, gain_at_zero) VALUES"
+                    + " (1, 1, '2026-01-01T00:00:01Z', 'outstage 0.1.0', '{}', '[]', ";
+            s.executeUpdate(common + "'{\"crossover\": {\"gain_at_zero\": 1.0041, \"verdict_ratio\": 1.0008}}', 997, 6.3, 'V', 3e-4, 3e-4, 1.0041)");
+            s.executeUpdate(common + "'{\"crossover\": {\"gain_at_zero\": 0.95}}', 997, 6.3, 'V', 3e-4, 3e-4, 0.95)");
+            s.executeUpdate("INSERT INTO bias_steps(session_id, seq, taken_at, reading_value, reading_unit, channel, measurement_id)"
+                    + " VALUES (1, 1, '2026-01-01T00:00:01Z', 26, 'mV', 1, 1), (1, 2, '2026-01-01T00:00:02Z', 3, 'mV', 1, 2)");
+        }
+        try (Logbook lb = Logbook.open(f)) {
+            assertEquals(Migrations.latest(), lb.schemaVersion());
+            List<StepPoint> pts = lb.stepSeries(1);
+            assertEquals(1.0008, pts.get(0).figures().orElseThrow().crossoverRatio().getAsDouble(), 0);
+            assertEquals(1.0008, pts.get(0).figures().orElseThrow().crossoverReading().getAsDouble(), 0);
+            assertTrue(pts.get(1).figures().orElseThrow().crossoverRatio().isEmpty(), "no ratio in that measurement's JSON");
+            assertEquals(0.95, pts.get(1).figures().orElseThrow().crossoverReading().getAsDouble(), 0, "falls back to gain at zero");
+        }
+    }
+
     @Test
     void pragmas_walForeignKeysApplicationId() throws Exception {
         Path f = dir.resolve("p.db");
