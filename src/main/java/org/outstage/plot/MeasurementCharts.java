@@ -45,9 +45,20 @@ public final class MeasurementCharts {
 
     /** Spectrum in dBV or dBFS against log frequency, harmonic markers, the band shaded, the noise floor; empty without a spectrum. */
     public static Optional<ChartSpec> spectrum(String name, Measurement m) {
+        return spectrum(name, m, false);
+    }
+
+    /** The unit label of the relative spectrum scale. */
+    public static final String RELATIVE_UNIT = "dB re fundamental";
+
+    /**
+     * The spectrum on an absolute scale (dBV for a capture in volts, dBFS otherwise) or, with {@code relative},
+     * in dB relative to the fundamental (so harmonics read their dBc directly).
+     */
+    public static Optional<ChartSpec> spectrum(String name, Measurement m, boolean relative) {
         Measurement.Spectrum sp = m.spectrum();
         if (sp.size() == 0) return Optional.empty();
-        double shift = spectrumShiftDb(m);
+        double shift = relative ? 0 : spectrumShiftDb(m);
         double[] lv = sp.levelDb();
         for (int i = 0; i < lv.length; i++) lv[i] += shift;
         int k = m.harmonics().size();
@@ -60,7 +71,7 @@ public final class MeasurementCharts {
             hl[i] = h.dbc() + shift;
         }
         return Optional.of(Charts.spectrum(name + " — spectrum" + (sp.blocks() > 1 ? " (" + sp.blocks() + " blocks averaged)" : ""),
-                sp.frequencyHz(), lv, spectrumUnit(m), Charts.harmonicMarkers(orders, hf, hl),
+                sp.frequencyHz(), lv, relative ? RELATIVE_UNIT : spectrumUnit(m), Charts.harmonicMarkers(orders, hf, hl),
                 Optional.of(new Range(m.thdN().lowHz(), m.thdN().highHz())),
                 Double.isFinite(sp.noiseFloorDb()) ? OptionalDouble.of(sp.noiseFloorDb() + shift) : OptionalDouble.empty()));
     }

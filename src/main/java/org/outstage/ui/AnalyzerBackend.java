@@ -94,6 +94,8 @@ final class AnalyzerBackend implements Backend {
         }
         progress.accept(0.9);
         Panel spectrum = MeasurementCharts.spectrum(name, m).map(Panel::of).orElseGet(() -> Panel.message("No spectrum for this record"));
+        Panel spectrumRelative = MeasurementCharts.spectrum(name, m, true).map(Panel::of)
+                .orElseGet(() -> Panel.message("No spectrum for this record"));
         Panel harmonics = MeasurementCharts.harmonicProfile(name, m).map(Panel::of)
                 .orElseGet(() -> Panel.message("No harmonics inside the band for this fundamental"));
         Optional<org.outstage.analysis.TransferCurve> curve = MeasurementCharts.measuredCurve(m);
@@ -105,7 +107,7 @@ final class AnalyzerBackend implements Backend {
                     cal.fullScaleVolts().orElse(0), p.totalWatts(), m.thd().ratio(), m.thdN().ratio())));
         }
         progress.accept(1);
-        return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, harmonics, curve, sweep);
+        return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, spectrumRelative, harmonics, curve, sweep);
     }
 
     /** The figures table, formatted from the measurement. */

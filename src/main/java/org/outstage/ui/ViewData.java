@@ -13,13 +13,15 @@ import org.outstage.analysis.TransferCurve;
  * @param notMeasured   why there are no figures, if so
  * @param waveform      waveform with the fitted fundamental
  * @param residual      residual, magnified
- * @param spectrum      spectrum
+ * @param spectrum      spectrum on the absolute scale (dBV or dBFS)
+ * @param spectrumRelative the same spectrum in dB re fundamental
  * @param harmonics     harmonic profile
  * @param measuredCurve measured transfer curve for the transfer view, if the result has one
  * @param sweepPoint    this capture's point for the level sweep: power (W), THD and THD+N (fractions)
  */
 record ViewData(String captureName, List<FigureRow> figures, Optional<String> notMeasured, Panel waveform, Panel residual,
-                Panel spectrum, Panel harmonics, Optional<TransferCurve> measuredCurve, Optional<SweepPoint> sweepPoint) {
+                Panel spectrum, Panel spectrumRelative, Panel harmonics, Optional<TransferCurve> measuredCurve,
+                Optional<SweepPoint> sweepPoint) {
 
     ViewData {
         figures = List.copyOf(figures);
@@ -34,7 +36,7 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
 
     static ViewData failed(String name, String message) {
         Panel p = Panel.message(message);
-        return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, Optional.empty(), Optional.empty());
+        return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, p, Optional.empty(), Optional.empty());
     }
 
     /**
@@ -43,7 +45,7 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
      */
     ViewData light() {
         Panel p = Panel.message(LIGHT);
-        return new ViewData(captureName, figures, notMeasured, p, p, p, p, measuredCurve, sweepPoint);
+        return new ViewData(captureName, figures, notMeasured, p, p, p, p, p, measuredCurve, sweepPoint);
     }
 
     /** Whether the charts are here (not a {@link #light} copy). */

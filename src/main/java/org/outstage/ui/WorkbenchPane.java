@@ -88,6 +88,8 @@ final class WorkbenchPane extends BorderPane {
     final ChartCanvas waveformChart = chart("waveformChart");
     final ChartCanvas residualChart = chart("residualChart");
     final ChartCanvas spectrumChart = chart("spectrumChart");
+    final CheckBox spectrumRelativeBox = new CheckBox("dB re fundamental");
+    private ViewData shownData;
     final ChartCanvas harmonicsChart = chart("harmonicsChart");
     final ChartCanvas transferChart = chart("transferChart");
     final ChartCanvas sweepChart = chart("sweepChart");
@@ -290,6 +292,12 @@ final class WorkbenchPane extends BorderPane {
         g.addRow(1, new Label("Weighting"), weightingBox);
         g.addRow(2, new Label("Harmonics up to H"), harmonicsSpinner);
         g.addRow(3, new Label("Reference channel"), referenceChoice);
+        spectrumRelativeBox.setId("spectrumRelativeBox");
+        // a view choice, not a measurement setting: it switches between two descriptions of the same spectrum
+        spectrumRelativeBox.selectedProperty().addListener((o, a, b) -> {
+            if (shownData != null) (b ? shownData.spectrumRelative() : shownData.spectrum()).showOn(spectrumChart);
+        });
+        g.addRow(4, new Label("Spectrum scale"), spectrumRelativeBox);
         TitledPane sp = new TitledPane("Measurement settings", g);
         sp.setCollapsible(false);
 
@@ -605,6 +613,7 @@ final class WorkbenchPane extends BorderPane {
     // ---- showing ----------------------------------------------------------------------------------
 
     private void showNothing() {
+        shownData = null;
         String m = "Open a capture to see its waveform, residual and figures.";
         for (ChartCanvas c : List.of(waveformChart, residualChart, spectrumChart, harmonicsChart)) c.setMessage(m);
         figuresTable.getItems().clear();
@@ -614,9 +623,10 @@ final class WorkbenchPane extends BorderPane {
     }
 
     void show(ViewData d) {
+        shownData = d;
         d.waveform().showOn(waveformChart);
         d.residual().showOn(residualChart);
-        d.spectrum().showOn(spectrumChart);
+        (spectrumRelativeBox.isSelected() ? d.spectrumRelative() : d.spectrum()).showOn(spectrumChart);
         d.harmonics().showOn(harmonicsChart);
         figuresTable.getItems().setAll(d.figures());
         summary.getChildren().clear();

@@ -121,6 +121,13 @@ class WorkbenchTest {
         assertEquals("Level (dBV)", pane.spectrumChart.spec().get().yAxis().title());
         assertEquals(m.harmonics().size(), pane.spectrumChart.spec().get().markers().size());
         assertEquals(m.harmonics().get(1).dbc(), pane.harmonicsChart.spec().orElseThrow().series().get(0).yAt(0), 0.0); // H3, first odd bar
+        // the spectrum scale switch: dB re fundamental, where a harmonic's marker reads the analyzer's dBc
+        robot.interact(() -> pane.spectrumRelativeBox.setSelected(true));
+        assertEquals("Level (dB re fundamental)", pane.spectrumChart.spec().orElseThrow().yAxis().title());
+        assertEquals(m.spectrum().levelDb()[200], pane.spectrumChart.spec().get().series().get(0).yAt(200), 1e-12);
+        assertEquals(m.harmonics().get(1).dbc(), pane.spectrumChart.spec().get().markers().get(1).y(), 1e-12);
+        robot.interact(() -> pane.spectrumRelativeBox.setSelected(false));
+        assertEquals("Level (dBV)", pane.spectrumChart.spec().orElseThrow().yAxis().title());
 
         TabPane views = robot.lookup("#views").queryAs(TabPane.class);
         for (String tab : List.of("spectrumTab", "harmonicsTab", "transferTab", "sweepTab", "waveformTab")) {
