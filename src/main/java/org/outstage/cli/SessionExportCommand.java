@@ -1,10 +1,7 @@
 package org.outstage.cli;
 
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
 import java.util.concurrent.Callable;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.SessionData;
@@ -48,26 +45,8 @@ public final class SessionExportCommand implements Callable<Integer> {
             spec.commandLine().getOut().print(text);
             spec.commandLine().getOut().flush();
         } else {
-            writeAtomically(output, text);
+            org.outstage.report.AtomicFile.write(output, text);
         }
         return 0;
-    }
-
-    /** Temp file beside the target, then rename: never a half-written export. */
-    static void writeAtomically(Path target, String text) throws IOException {
-        Path abs = target.toAbsolutePath();
-        Path tmp = Files.createTempFile(abs.getParent(), "." + abs.getFileName(), ".tmp");
-        try {
-            Files.writeString(tmp, text, StandardCharsets.UTF_8);
-            try {
-                // a temp file is created owner-only; a report or export is an ordinary file
-                Files.setPosixFilePermissions(tmp, java.nio.file.attribute.PosixFilePermissions.fromString("rw-r--r--"));
-            } catch (UnsupportedOperationException notPosix) {
-                // other file systems keep their defaults
-            }
-            Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-        } finally {
-            Files.deleteIfExists(tmp);
-        }
     }
 }

@@ -48,7 +48,7 @@ public final class SessionShowCommand implements Callable<Integer> {
             DriftReport dr = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.READING);
             List<String> charts = ReportCharts.forBiasSession(StepPoint.of(d.steps()), a, BiasAdvisor.DEFAULT_TOLERANCE);
             try {
-                SessionExportCommand.writeAtomically(report, HtmlSessionReport.render(d, a, dr, charts, Instant.now(), SessionSupport.programVersion()));
+                org.outstage.report.AtomicFile.write(report, HtmlSessionReport.render(d, a, dr, charts, Instant.now(), SessionSupport.programVersion()));
             } catch (java.io.IOException e) {
                 throw new BadInputException(report + ": cannot write (" + e.getMessage() + ")");
             }

@@ -109,8 +109,8 @@ public final class VerifyCommand implements Callable<Integer> {
         }
         List<String> charts = report != null ? ReportCharts.forVerification(result, channels) : List.of();
         ReportDocument doc = new ReportDocument(u, session, result, channels, charts, Instant.now(), SessionSupport.programVersion());
-        if (report != null) SessionExportCommand.writeAtomically(report, HtmlReport.render(doc));
-        if (reportJson != null) SessionExportCommand.writeAtomically(reportJson, Json.pretty(ReportJson.of(doc)) + "\n");
+        if (report != null) org.outstage.report.AtomicFile.write(report, HtmlReport.render(doc));
+        if (reportJson != null) org.outstage.report.AtomicFile.write(reportJson, Json.pretty(ReportJson.of(doc)) + "\n");
 
         PrintWriter out = spec.commandLine().getOut();
         if (json) {
