@@ -147,6 +147,31 @@ class WavReaderTest {
     }
 
     @Test
+    void rf64_otherChunkSizedByDs64Table_skipped() throws Exception {
+        long[][] c = codes(1, 20, 16, 12);
+        byte[] data = WavBytes.pcm(2, c);
+        byte[] junk = new byte[6];
+        // ds64 with one table entry: chunk id 'JUNK', 64-bit size 6 (EBU Tech 3306 ChunkSize64 table)
+        byte[] ds64 = WavBytes.buf(40).putLong(0).putLong(data.length).putLong(20).putInt(1)
+                .put("JUNK".getBytes(java.nio.charset.StandardCharsets.ISO_8859_1)).putLong(junk.length).array();
+        Path p = write("table.rf64", WavBytes.riff().magic("RF64").riffSize(0xFFFFFFFFL).chunk("ds64", ds64)
+                .chunk("JUNK", 0xFFFFFFFFL, junk, true).chunk("fmt ", WavBytes.fmt(1, 1, 8000, 2, 16))
+                .chunk("data", 0xFFFFFFFFL, data, true).bytes());
+        assertArrayEquals(expected(c[0], 16), WavReader.read(p).readChannel(0));
+    }
+
+    @Test
+    void dataSizeNotWholeFrames_warnsAndDropsThePartialFrame() throws Exception {
+        long[][] c = codes(2, 4, 16, 13);
+        byte[] data = java.util.Arrays.copyOf(WavBytes.pcm(2, c), 18); // 4 frames of 4 bytes + 2 stray bytes
+        Path p = write("odd.wav", WavBytes.riff().chunk("fmt ", WavBytes.fmt(1, 2, 8000, 4, 16)).chunk("data", data).bytes());
+        Capture cap = WavReader.read(p);
+        assertEquals(4, cap.frameCount());
+        assertEquals(List.of("odd.wav: byte 40: data chunk size 18 is not a whole number of 4-byte frames; the last partial frame is ignored"), cap.warnings());
+        assertArrayEquals(expected(c[0], 16), cap.readChannel(0));
+    }
+
+    @Test
     void truncatedDataChunk_warnsAndReadsWholeFramesToTheEnd() throws Exception {
         long[][] c = codes(2, 10, 16, 3);
         byte[] data = WavBytes.pcm(2, c);
@@ -321,6 +346,26 @@ class WavReaderTest {
     void unknownExtensibleSubFormat_named() throws Exception {
         assertEquals("x.wav: byte 44: SubFormat 0x0055 is not supported (PCM 0x0001 or IEEE float 0x0003 expected)",
                 error("x.wav", WavBytes.riff().chunk("fmt ", WavBytes.fmtExtensible(1, 8000, 16, 16, 0x55)).chunk("data", DATA4).bytes()));
+    }
+
+    @Test
+    void secondFmtChunk_named() throws Exception {
+        byte[] fmt = WavBytes.fmt(1, 1, 8000, 2, 16);
+        assertEquals("x.wav: byte 36: second fmt chunk (the first is at byte 12)",
+                error("x.wav", WavBytes.riff().chunk("fmt ", fmt).chunk("fmt ", fmt).chunk("data", DATA4).bytes()));
+    }
+
+    @Test
+    void validBitsAboveContainer_named() throws Exception {
+        assertEquals("x.wav: byte 38: valid bits 20 exceed the container of 16 bits",
+                error("x.wav", WavBytes.riff().chunk("fmt ", WavBytes.fmtExtensible(1, 8000, 16, 20, 1)).chunk("data", DATA4).bytes()));
+    }
+
+    @Test
+    void unknownSizeWithoutDs64Entry_named() throws Exception {
+        byte[] ds64 = WavBytes.buf(28).putLong(0).putLong(4).putLong(2).putInt(0).array();
+        assertEquals("x.wav: byte 52: chunk 'LIST' has size 0xFFFFFFFF but ds64 gives no size for it",
+                error("x.wav", WavBytes.riff().magic("BW64").chunk("ds64", ds64).chunk("LIST", 0xFFFFFFFFL, new byte[0], false).bytes()));
     }
 
     @Test
