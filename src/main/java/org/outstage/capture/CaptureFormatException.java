@@ -36,6 +36,15 @@ public final class CaptureFormatException extends Exception {
         return new CaptureFormatException(file, column > 0 ? "line " + line + ", column " + column : "line " + line, problem);
     }
 
+    /** The one wording for a file that cannot be opened or read (missing, no permission, other I/O failure). */
+    static CaptureFormatException unreadable(Path file, java.io.IOException e) {
+        if (e instanceof java.nio.file.NoSuchFileException)
+            return new CaptureFormatException(file, "file", "not found (" + file.toAbsolutePath() + ")");
+        if (e instanceof java.nio.file.AccessDeniedException)
+            return new CaptureFormatException(file, "file", "permission denied (" + file.toAbsolutePath() + ")");
+        return new CaptureFormatException(file, "file", "cannot be read: " + e.getMessage(), e);
+    }
+
     public String file() { return file; }
     public String location() { return location; }
     public String problem() { return problem; }

@@ -2,9 +2,7 @@ package org.outstage.capture;
 
 import java.io.IOException;
 import java.io.InputStream;
-import java.nio.file.AccessDeniedException;
 import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -57,12 +55,8 @@ public final class CaptureReader {
         if (Files.isDirectory(file)) throw new CaptureFormatException(file, "file", "is a directory, not a capture file");
         try (InputStream in = Files.newInputStream(file)) {
             return in.readNBytes(12);
-        } catch (NoSuchFileException e) {
-            throw new CaptureFormatException(file, "file", "not found (" + file.toAbsolutePath() + ")");
-        } catch (AccessDeniedException e) {
-            throw new CaptureFormatException(file, "file", "permission denied (" + file.toAbsolutePath() + ")");
         } catch (IOException e) {
-            throw new CaptureFormatException(file, "file", "cannot be read: " + e.getMessage(), e);
+            throw CaptureFormatException.unreadable(file, e);
         }
     }
 }

@@ -6,9 +6,7 @@ import java.nio.ByteBuffer;
 import java.nio.charset.CharacterCodingException;
 import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.AccessDeniedException;
 import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -72,12 +70,8 @@ public final class ScopeCsvReader {
                 throw new CaptureFormatException(file, "file", "is " + size + " bytes; scope CSV files over " + MAX_FILE_BYTES
                         + " bytes are refused (convert long records to WAV)");
             bytes = Files.readAllBytes(file);
-        } catch (NoSuchFileException e) {
-            throw new CaptureFormatException(file, "file", "not found (" + file.toAbsolutePath() + ")");
-        } catch (AccessDeniedException e) {
-            throw new CaptureFormatException(file, "file", "permission denied (" + file.toAbsolutePath() + ")");
         } catch (IOException e) {
-            throw new CaptureFormatException(file, "file", "cannot be read: " + e.getMessage(), e);
+            throw CaptureFormatException.unreadable(file, e);
         }
         return new Parse(file, decode(bytes), options).run();
     }

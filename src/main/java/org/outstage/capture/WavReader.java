@@ -56,10 +56,8 @@ public final class WavReader {
     public static Capture read(Path file) throws CaptureFormatException {
         try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
             return new Parser(file, ch).parse();
-        } catch (java.nio.file.NoSuchFileException e) {
-            throw new CaptureFormatException(file, "file", "not found (" + file.toAbsolutePath() + ")");
         } catch (IOException e) {
-            throw new CaptureFormatException(file, "file", "cannot be read: " + e, e);
+            throw CaptureFormatException.unreadable(file, e);
         }
     }
 
