@@ -477,6 +477,8 @@ public final class ScopeCsvReader {
             double rateHz;
             if (dtFile != null) {
                 rateHz = 1 / dtFile;
+                if (!Double.isFinite(rateHz) || !Double.isFinite(dtFile))
+                    throw at(dtLine, 0, "the file's " + dtSource + " gives a sample interval of " + show(dtFile) + " s, which no sample rate can match");
                 if (options.sampleRateHz().isPresent()) {
                     double given = options.sampleRateHz().getAsDouble();
                     if (Math.abs(given - rateHz) > CaptureOptions.RATE_TOLERANCE * rateHz)
@@ -512,6 +514,9 @@ public final class ScopeCsvReader {
                     f = voltFactor(colUnits[c].isEmpty() ? vertical : colUnits[c], colNames[c], unitsLine, c);
                 }
                 if (f != 1) for (int i = 0; i < rows; i++) v[i] *= f;
+                for (int i = 0; i < rows; i++)
+                    if (!Double.isFinite(v[i]))
+                        throw at(rowLines[i], c + 1 + columnOffset, "the value scaled to volts is out of range (" + (yInc != null ? "y increment " + show(yInc) : "unit factor " + show(f)) + ")");
                 channels[k] = v;
             }
             final double[][] data = channels;
