@@ -23,7 +23,7 @@ import org.apache.commons.csv.CSVRecord;
 /**
  * Reads an oscilloscope CSV export into an in-memory {@link Capture} in volts.
  *
- * <p>What is recognised (layouts described generically in references.md §9):
+ * <p>What is recognised (layouts described generically in docs/references.md §9):
  * <ul>
  *   <li>Text: UTF-8 with or without BOM (Latin-1 if it is not valid UTF-8); CRLF, LF or CR line ends;
  *       comma, semicolon or tab delimiter, detected from the data rows; decimal comma in semicolon and tab
@@ -263,7 +263,7 @@ public final class ScopeCsvReader {
             return new ArrayList<>(out.subList(0, n));
         }
 
-        /** The variant whose key/value preamble sits in columns 1–3 beside the data (references.md §9, layout 2). */
+        /** The variant whose key/value preamble sits in columns 1–3 beside the data (docs/references.md §9, layout 2). */
         private boolean besideData(List<String> cells) {
             if (cells.size() < 5 || cells.get(0).isEmpty() || !Double.isNaN(number(cells.get(0), decimalComma))) return false;
             return numericRow(cells.subList(3, cells.size()));

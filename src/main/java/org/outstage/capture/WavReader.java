@@ -20,7 +20,7 @@ import java.util.Map;
  * container); any channel count and sample rate. Unknown chunks are skipped, with the pad byte after
  * odd-sized chunks; {@code fmt } may follow other chunks but must precede {@code data}. RF64 and BW64
  * (EBU Tech 3306, ITU-R BS.2088): a 32-bit size of 0xFFFFFFFF means "take the size from {@code ds64}".
- * Layouts from references.md §10 (RIFF, WAVEFORMATEXTENSIBLE, ds64).
+ * Layouts from docs/references.md §10 (RIFF, WAVEFORMATEXTENSIBLE, ds64).
  *
  * <p>Scaling: integer codes are divided by 2<sup>bits−1</sup> of the container (16-bit −32768 → −1.0,
  * +32767 → 0.99997); floats are taken as they are. The result has unit {@link SampleUnit#FULL_SCALE}: 1.0 is

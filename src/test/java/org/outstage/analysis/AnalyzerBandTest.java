@@ -18,7 +18,7 @@ class AnalyzerBandTest {
 
     /**
      * Brick-wall band: H5 at 25 kHz lies outside 20 Hz–20 kHz and inside 20 Hz–80 kHz. THD+N is the rss of the
-     * in-band lines relative to the total in the band (Parseval, references.md §11): −70 dBc alone, then
+     * in-band lines relative to the total in the band (Parseval, docs/references.md §11): −70 dBc alone, then
      * rss(−70, −60) with the wide band. The harmonic list stops at the band edge.
      */
     @Test
@@ -94,7 +94,7 @@ class AnalyzerBandTest {
         assertEquals(Math.toDegrees(0.4), m1.fundamental().phaseDeg(), 1e-4);
     }
 
-    /** The plot spectrum is bounded, keeps lines visible at their level (within BH7 scalloping 0.48 dB, references.md §5.2). */
+    /** The plot spectrum is bounded, keeps lines visible at their level (within BH7 scalloping 0.48 dB, docs/references.md §5.2). */
     @Test
     void spectrumSummary_isBoundedAndShowsLines() {
         double[] a = new double[4], p = new double[4];

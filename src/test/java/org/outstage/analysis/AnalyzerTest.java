@@ -35,7 +35,7 @@ class AnalyzerTest {
     }
 
     /**
-     * Band-limited square, triangle and sawtooth waves (Fourier series, references.md §6.1: square 4/(nπ) odd n,
+     * Band-limited square, triangle and sawtooth waves (Fourier series, docs/references.md §6.1: square 4/(nπ) odd n,
      * triangle 8/(π²n²) odd n alternating, sawtooth 2/(nπ) all n; THD_F of the infinite series 0.483426,
      * 0.121153, 0.803078). Harmonics up to 40 are synthesised; THD over H2…H10 must equal the partial sum.
      */
@@ -86,7 +86,7 @@ class AnalyzerTest {
     }
 
     /**
-     * y = x + a2·x² + a3·x³ with x = A·cos ωt (Chebyshev identities, references.md §6.4):
+     * y = x + a2·x² + a3·x³ with x = A·cos ωt (Chebyshev identities, docs/references.md §6.4):
      * DC = a2A²/2, H1 = A + ¾a3A³, H2 = a2A²/2, H3 = a3A³/4.
      */
     @Test
@@ -238,7 +238,7 @@ class AnalyzerTest {
 
     /**
      * Short record with noise: two cycles, H3 at −40 dBc and white noise σ = 1e-3 (seeded), Nyquist band.
-     * THD+N² = (H3² + σ²)/(total) by Parseval (references.md §11); the fit absorbs only 2N+1 of 20000
+     * THD+N² = (H3² + σ²)/(total) by Parseval (docs/references.md §11); the fit absorbs only 2N+1 of 20000
      * degrees of freedom. Tolerance 0.1 dB: the noise power of 20000 samples scatters by about 1 %.
      */
     @Test

@@ -85,7 +85,7 @@ class ReaderFuzzTest {
         };
     }
 
-    /** Layouts of references.md §9 (docs/references.md §9), each small. */
+    /** Layouts of docs/references.md §9 (docs/references.md §9), each small. */
     static final String[] CSV_SEEDS = {
         "time,CH1,CH2\n0,0.1,0.2\n1e-5,0.2,0.3\n2e-5,0.3,0.1\n3e-5,-0.1,0.0\n4e-5,0.0,0.5\n",
         "X,CH1,Start,Increment,\nSequence,Volt,-1e-3,1e-5,\n0,0.10,\n1,0.20,\n2,0.30,\n3,0.25,\n",

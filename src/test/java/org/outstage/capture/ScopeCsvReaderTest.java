@@ -16,10 +16,10 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
- * Scope CSV layouts of references.md §9, each as a synthetic fixture generated here. Content: 1 V peak 1 kHz sine
+ * Scope CSV layouts of docs/references.md §9, each as a synthetic fixture generated here. Content: 1 V peak 1 kHz sine
  * plus a 3rd harmonic of 10 mV peak (1 %), sampled at 1 MHz for exactly two cycles (2000 points). Oracles: the
  * values as printed (parsed back with {@link Double#parseDouble}) and a single-bin DFT, which for a whole number of
- * cycles returns the peak amplitude of each harmonic exactly (Fourier series orthogonality; references.md §9 suggests
+ * cycles returns the peak amplitude of each harmonic exactly (Fourier series orthogonality; docs/references.md §9 suggests
  * this content so that parser and THD tests share one oracle).
  */
 class ScopeCsvReaderTest {
@@ -207,7 +207,7 @@ class ScopeCsvReaderTest {
 
     @Test
     void rawCodesWithScalingPreamble_convertedToVolts() throws Exception {
-        // v = (code − y_ref)·y_inc + y_org, t from x_increment (references.md §9, layout 5)
+        // v = (code − y_ref)·y_inc + y_org, t from x_increment (docs/references.md §9, layout 5)
         double yInc = 0.01, yRef = 128, yOrg = 0.05;
         StringBuilder s = new StringBuilder("x_increment,1e-6\nx_origin,0\nx_reference,0\ny_increment,0.01\ny_origin,0.05\ny_reference,128\n");
         int[] codes = new int[N];

@@ -22,8 +22,8 @@ import org.junit.jupiter.params.provider.ValueSource;
 
 /**
  * WAV reading. Oracle for sample values: the integer code divided by 2^(bits−1) (the convention documented in
- * {@link WavReader}; 8-bit is unsigned with 128 = zero, references.md §10), and floats bit-exact. Layouts follow
- * the RIFF/WAVEFORMATEXTENSIBLE/RF64 descriptions in references.md §10 (EBU Tech 3306 for ds64).
+ * {@link WavReader}; 8-bit is unsigned with 128 = zero, docs/references.md §10), and floats bit-exact. Layouts follow
+ * the RIFF/WAVEFORMATEXTENSIBLE/RF64 descriptions in docs/references.md §10 (EBU Tech 3306 for ds64).
  */
 class WavReaderTest {
     @TempDir Path dir;
@@ -95,7 +95,7 @@ class WavReaderTest {
 
     @Test
     void extensiblePcm_20bitsLeftJustifiedIn24_readsValidCodeOverTwoToNineteen() throws Exception {
-        // 20 valid bits, left-justified: container code = valid code << 4 (Microsoft WAVEFORMATEXTENSIBLE, references.md §10)
+        // 20 valid bits, left-justified: container code = valid code << 4 (Microsoft WAVEFORMATEXTENSIBLE, docs/references.md §10)
         long[] valid = {-(1 << 19), (1 << 19) - 1, 0, 12345, -54321};
         long[] container = new long[valid.length];
         for (int i = 0; i < valid.length; i++) container[i] = valid[i] << 4;
