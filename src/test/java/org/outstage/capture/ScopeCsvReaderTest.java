@@ -135,7 +135,7 @@ class ScopeCsvReaderTest {
         StringBuilder s = new StringBuilder("Record Length,2500\nSample Interval,1e-06\n");
         for (int i = 0; i < N; i++) s.append(e(signal(i))).append('\n');
         Capture c = read(file("kv3.csv", s.toString()));
-        assertEquals(List.of("kv3.csv: line 1: record length says 2500 points, the file has 2000 data rows"), c.warnings());
+        assertEquals(List.of("line 1: record length says 2500 points, the file has 2000 data rows"), c.warnings());
     }
 
     @Test
@@ -266,7 +266,7 @@ class ScopeCsvReaderTest {
     @Test
     void fullScaleVoltsOnCsv_ignoredWithWarning() throws Exception {
         Capture c = ScopeCsvReader.read(file("fs.csv", "time,CH1\n0,1\n1e-6,2\n"), CaptureOptions.none().withFullScaleVolts(5));
-        assertEquals(List.of("fs.csv: the full-scale voltage applies to WAV files only; ignored for this scope CSV (already in volts)"), c.warnings());
+        assertEquals(List.of("the full-scale voltage applies to WAV files only; ignored for this scope CSV (already in volts)"), c.warnings());
         assertArrayEquals(new double[] {1, 2}, c.readChannel(0));
     }
 
