@@ -21,8 +21,8 @@ final class Units {
     private static final Pattern VALUE = Pattern.compile("([-+]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][-+]?\\d+)?)\\s*(.*)");
 
     /**
-     * Parses {@code text} as a quantity and returns it in the unit whose SI factor is {@code outFactor}
-     * (1 for volts, 1e-3 for millivolts).
+     * Parses {@code text} as a quantity and returns it in the option's unit, whose SI factor is {@code outFactor}
+     * (1 for volts, 1e-3 for millivolts): a plain number is taken as it is, {@code 26mV} or {@code 0.026V} is converted.
      */
     static double parse(String text, String quantity, double outFactor, String examples, String... symbols) {
         String t = text == null ? "" : text.trim();
@@ -35,7 +35,9 @@ final class Units {
         String suffix = m.group(2).trim();
         double factor = suffixFactor(suffix, symbols);
         if (Double.isNaN(factor)) throw new TypeConversionException(expected);
-        double v = number * factor / outFactor;
+        // a plain number (or one with a bare k or M) is in the option's own unit; a unit symbol is converted from SI
+        boolean withSymbol = !suffix.isEmpty() && !suffix.equals("k") && !suffix.equals("K") && !suffix.equals("M");
+        double v = withSymbol ? number * factor / outFactor : number * factor;
         if (!Double.isFinite(v)) throw new TypeConversionException(expected + "; it is out of range");
         return v;
     }

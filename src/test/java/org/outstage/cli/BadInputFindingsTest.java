@@ -191,6 +191,19 @@ class BadInputFindingsTest {
         assertTrue(comma.err().contains("decimal comma"), comma.err());
     }
 
+    /** Options in millivolts keep plain numbers as millivolts and convert a unit: 26 = 26mV = 0.026V (SI prefixes). */
+    @Test
+    void finding11_milliUnitsKeepPlainNumbers() {
+        assertEquals(26.0, new Units.MilliVolts().convert("26"), 0);
+        assertEquals(26.0, new Units.MilliVolts().convert("26mV"), 1e-12);
+        assertEquals(26.0, new Units.MilliVolts().convert("0.026 V"), 1e-12);
+        assertEquals(120.0, new Units.MilliAmps().convert("0.12A"), 1e-12);
+        assertEquals(4700.0, new Units.Ohms().convert("4.7k"), 1e-9);
+        assertEquals(4700.0, new Units.Ohms().convert("4.7kohm"), 1e-9);
+        assertEquals(48000.0, new Units.Hertz().convert("48 kHz"), 0);
+        assertEquals(0.5, new Units.Watts().convert("500mW"), 1e-12);
+    }
+
     @Test
     void finding11_sessionIdNotANumber() {
         CliRun r = CliRun.of("session", "show", "abc", "--logbook", dir.resolve("l.db").toString());
