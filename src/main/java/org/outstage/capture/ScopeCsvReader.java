@@ -27,7 +27,10 @@ import org.apache.commons.csv.CSVRecord;
  * <ul>
  *   <li>Text: UTF-8 with or without BOM (Latin-1 if it is not valid UTF-8); CRLF, LF or CR line ends;
  *       comma, semicolon or tab delimiter, detected from the data rows; decimal comma in semicolon and tab
- *       files (a dot is then a thousands separator); scientific notation; trailing empty cells; blank lines.</li>
+ *       files (a dot is then a thousands separator); scientific notation; trailing empty cells; blank lines.
+ *       A comma-separated file with decimal commas is read when unambiguous (a header naming half as many columns as
+ *       the rows have fields: each pair is one number, with a warning; or quoted {@code "0,5"} cells) and otherwise
+ *       refused with a message naming the decimal comma (issue 11 item 9).</li>
  *   <li>Anything before the first all-numeric row is preamble. Key/value lines are used when recognised
  *       (sample interval, x increment, sample rate, horizontal and vertical units, record length, raw-code
  *       scaling y increment/origin/reference and x origin/reference) and otherwise skipped. A probe
