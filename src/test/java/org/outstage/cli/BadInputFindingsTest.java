@@ -69,6 +69,20 @@ class BadInputFindingsTest {
         assertEquals(2, j.exit(), j.err());
     }
 
+    /** A float WAV holding a NaN sample (IEEE 754 quiet NaN) is bad input naming file and byte, not a fault or NaN figures. */
+    @Test
+    void finding10_nanSampleInFloatWavExits2() throws Exception {
+        Path wav = sineWav("nan.wav");
+        byte[] b = Files.readAllBytes(wav);
+        int dataStart = b.length - 24000 * 4;   // the data chunk is last: 24000 float32 samples
+        ByteBuffer.wrap(b).order(ByteOrder.LITTLE_ENDIAN).putFloat(dataStart + 4 * 99, Float.NaN);
+        Files.write(wav, b);
+        CliRun r = CliRun.of("analyze", "--json", wav.toString());
+        assertEquals(2, r.exit(), r.err());
+        assertEquals("outstage: " + wav + ": byte " + (dataStart + 396) + ": sample 100 of channel 1 is NaN; a float WAV must hold finite numbers",
+                r.err().strip());
+    }
+
     @Test
     void finding10_jsonWarningAlsoOnStderrNamingFile() throws Exception {
         Path cut = wavWithData("cut.wav", 9600, 20000);   // claims more than it holds: salvaged, with a warning
