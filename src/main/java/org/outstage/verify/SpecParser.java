@@ -173,6 +173,10 @@ public final class SpecParser {
         OptionalDouble r = OptionalDouble.empty();
         OptionalDouble thd = OptionalDouble.empty();
         if (!cond.isEmpty()) {
+            Matcher dc = Pattern.compile("[-+]?\\d+,\\d+").matcher(cond);
+            if (dc.find())   // "at 1,5 kHz": the comma separates conditions, so a decimal comma would split the number
+                throw error(source, no, "'" + dc.group() + "' has a decimal comma; write it with a point (" + dc.group().replace(',', '.')
+                        + "): commas separate the conditions");
             for (String c : cond.split(",")) {
                 String t = c.strip();
                 if (t.equalsIgnoreCase("rated power") || t.equalsIgnoreCase("rated")) {

@@ -245,6 +245,15 @@ class BadInputFindingsTest {
     }
 
     @Test
+    void finding11_specDecimalCommaInCondition() throws Exception {
+        Path spec = text("c2.spec", "name X\nthd <= 0.05 % at 1,5 kHz, 1 W\n");
+        CliRun r = CliRun.of("verify", "--spec", spec.toString(), "--no-log", sineWav("s.wav").toString());
+        assertEquals(2, r.exit(), r.err());
+        assertEquals("outstage: " + spec + ", line 2: '1,5' has a decimal comma; write it with a point (1.5): commas separate the conditions",
+                r.err().strip());
+    }
+
+    @Test
     void finding11_wavGivenAsSpec() throws Exception {
         Path wav = sineWav("s.wav");
         CliRun r = CliRun.of("verify", "--spec", wav.toString(), "--no-log", wav.toString());
