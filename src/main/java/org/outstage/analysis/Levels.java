@@ -26,7 +26,7 @@ public final class Levels {
 
     /**
      * THD relative to the fundamental (THD_F) to THD relative to the total (THD_R):
-     * {@code THD_R = THD_F/√(1+THD_F²)} (references.md §3; both conventions exist in IEC practice).
+     * {@code THD_R = THD_F/√(1+THD_F²)} (docs/references.md §3; both conventions exist in IEC practice).
      */
     public static double thdFToThdR(double thdF) { return thdF / Math.sqrt(1 + thdF * thdF); }
 
@@ -36,7 +36,7 @@ public final class Levels {
     /** dBV: 20·lg(rmsVolts / 1 V). */
     public static double dbv(double rmsVolts) { return 20 * Math.log10(rmsVolts); }
 
-    /** dBu: 20·lg(rmsVolts / 0.7746 V), reference √0.6 V (1 mW into 600 Ω; references.md §3). */
+    /** dBu: 20·lg(rmsVolts / 0.7746 V), reference √0.6 V (1 mW into 600 Ω; docs/references.md §3). */
     public static double dbu(double rmsVolts) { return 20 * Math.log10(rmsVolts / Math.sqrt(0.6)); }
 
     /** dBFS after AES17: the rms of a full-scale sine (peak 1.0, rms 1/√2) is 0 dBFS. */

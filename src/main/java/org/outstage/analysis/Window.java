@@ -17,7 +17,7 @@ public enum Window {
     /**
      * 7-term Blackman-Harris, sidelobes −180 dB: Solomon, "The use of DFT windows in signal-to-noise ratio and
      * harmonic distortion computations", IEEE Trans. Instrum. Meas. 43(2), 1994 (coefficients as transcribed in
-     * references.md §5.2). The default window for harmonic analysis.
+     * docs/references.md §5.2). The default window for harmonic analysis.
      */
     BLACKMAN_HARRIS_7(new double[] {0.271051400693424, 0.433297939234485, 0.218122999543110, 0.065925446388031,
             0.010811742098371, 0.000776584825226, 0.000013887217352}),

@@ -86,7 +86,7 @@ public final class Capture {
     public SampleUnit unit() { return unit; }
     /** Factor applied to raw values by {@link #openChannel} and {@link #readChannel}. */
     public double scale() { return scale; }
-    /** Reader warnings (for example a truncated data chunk); empty when the file was clean. */
+    /** Reader warnings (for example a truncated data chunk): place and problem, without the file name (the caller adds it); empty when the file was clean. */
     public List<String> warnings() { return warnings; }
     /** Resolution of integer PCM samples in bits (the quantisation floor follows from it); empty for float WAV and scope CSV. */
     public java.util.OptionalInt bitDepth() { return bitDepth; }

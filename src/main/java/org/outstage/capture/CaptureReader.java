@@ -41,7 +41,7 @@ public final class CaptureReader {
         }
         List<String> more = new ArrayList<>();
         if (options.probeFactor().isPresent())
-            more.add(file.getFileName() + ": the probe factor applies to scope CSV files only; ignored for this WAV (use the full-scale voltage)");
+            more.add("the probe factor applies to scope CSV files only; ignored for this WAV (use the full-scale voltage)");
         Capture c = more.isEmpty() ? raw : raw.withWarnings(more);
         if (options.fullScaleVolts().isPresent()) c = c.calibrated(options.fullScaleVolts().getAsDouble(), SampleUnit.VOLTS);
         return c;

@@ -23,11 +23,14 @@ import org.apache.commons.csv.CSVRecord;
 /**
  * Reads an oscilloscope CSV export into an in-memory {@link Capture} in volts.
  *
- * <p>What is recognised (layouts described generically in references.md §9):
+ * <p>What is recognised (layouts described generically in docs/references.md §9):
  * <ul>
  *   <li>Text: UTF-8 with or without BOM (Latin-1 if it is not valid UTF-8); CRLF, LF or CR line ends;
  *       comma, semicolon or tab delimiter, detected from the data rows; decimal comma in semicolon and tab
- *       files (a dot is then a thousands separator); scientific notation; trailing empty cells; blank lines.</li>
+ *       files (a dot is then a thousands separator); scientific notation; trailing empty cells; blank lines.
+ *       A comma-separated file with decimal commas is read when unambiguous (a header naming half as many columns as
+ *       the rows have fields: each pair is one number, with a warning; or quoted {@code "0,5"} cells) and otherwise
+ *       refused with a message naming the decimal comma (issue 11 item 9).</li>
  *   <li>Anything before the first all-numeric row is preamble. Key/value lines are used when recognised
  *       (sample interval, x increment, sample rate, horizontal and vertical units, record length, raw-code
  *       scaling y increment/origin/reference and x origin/reference) and otherwise skipped. A probe
@@ -179,6 +182,10 @@ public final class ScopeCsvReader {
         private int[] rowLines = new int[1024];
         /** 3 when the preamble sits in the first three columns beside the data, else 0. */
         private int columnOffset;
+        /** Comma-separated file with decimal commas: each pair of fields is one number (the header names half as many columns). */
+        private boolean commaPairs;
+        /** First cell seen that is a number only with a decimal comma ({@code 0,5} quoted in a comma-separated file), for messages. */
+        private String commaNumberSeen;
 
         Parse(Path file, String text, CaptureOptions options) {
             this.file = file;
@@ -263,7 +270,7 @@ public final class ScopeCsvReader {
             return new ArrayList<>(out.subList(0, n));
         }
 
-        /** The variant whose key/value preamble sits in columns 1–3 beside the data (references.md §9, layout 2). */
+        /** The variant whose key/value preamble sits in columns 1–3 beside the data (docs/references.md §9, layout 2). */
         private boolean besideData(List<String> cells) {
             if (cells.size() < 5 || cells.get(0).isEmpty() || !Double.isNaN(number(cells.get(0), decimalComma))) return false;
             return numericRow(cells.subList(3, cells.size()));
@@ -301,15 +308,30 @@ public final class ScopeCsvReader {
                     }
                     if (!inData) {
                         if (!numericRow(cells)) {
+                            if (commaNumberSeen == null && !decimalComma)
+                                for (String c : cells) if (COMMA_NUMBER.matcher(c).matches()) { commaNumberSeen = c; break; }
+                            if (commaNumberSeen != null && delimiter == ',' && !decimalComma && numericWithDecimalComma(cells))
+                                return again();   // quoted "0,5" cells in a comma-separated file: unambiguous, read with decimal commas
                             preamble.add(new Row(line, cells));
                             if (preamble.size() > MAX_PREAMBLE_ROWS)
-                                throw at(line, 0, "no numeric data in the first " + MAX_PREAMBLE_ROWS + " rows; is this a scope CSV export?");
+                                throw at(line, 0, "no numeric data in the first " + MAX_PREAMBLE_ROWS + " rows; is this a scope CSV export?"
+                                        + decimalCommaHint());
                             continue;
                         }
                         inData = true;
                         firstDataLine = line;
                         width = cells.size();
+                        if (delimiter == ',' && !decimalComma && columnOffset == 0) decimalCommaPairs(preamble, cells, line);
+                        if (commaPairs) width /= 2;
                         for (int c = 0; c < width; c++) columns.add(new double[1024]);
+                    }
+                    if (commaPairs) {
+                        if (cells.size() != 2 * width)
+                            throw at(line, 0, "row has " + cells.size() + " fields, expected " + 2 * width + " (" + width
+                                    + " numbers written with a decimal comma, as on line " + firstDataLine + ")");
+                        List<String> joined = new ArrayList<>(width);
+                        for (int c = 0; c < width; c++) joined.add(cells.get(2 * c) + "." + cells.get(2 * c + 1));
+                        cells = joined;
                     }
                     if (cells.size() != width)
                         throw at(line, 0, "row has " + cells.size() + " values, the first data row (line " + firstDataLine + ") has " + width);
@@ -333,9 +355,63 @@ public final class ScopeCsvReader {
                 throw new CaptureFormatException(file, "line " + lastLine, "CSV syntax: " + e.getMessage(), e);
             }
             if (!inData)
-                throw at(lastLine, 0, "no numeric data rows found (expected rows of numbers after any header lines)");
+                throw at(lastLine, 0, "no numeric data rows found (expected rows of numbers after any header lines)" + decimalCommaHint());
             for (int c = 0; c < width; c++) columns.set(c, Arrays.copyOf(columns.get(c), rows));
             return interpret(preamble, columns, rows, width, firstDataLine);
+        }
+
+        private static final Pattern COMMA_NUMBER = Pattern.compile("[+-]?\\d*,\\d+([eE][+-]?\\d+)?");
+        private static final Pattern INTEGER = Pattern.compile("[+-]?\\d+");
+        private static final Pattern FRACTION = Pattern.compile("\\d+([eE][+-]?\\d+)?");
+        /** Digits after a decimal comma that no one writes as a number of their own: a leading zero ({@code 0000}, {@code 000000E+00}). */
+        private static final Pattern FRACTION_ONLY = Pattern.compile("0\\d+([eE][+-]?\\d+)?");
+
+        private boolean numericWithDecimalComma(List<String> cells) {
+            for (String c : cells) if (Double.isNaN(number(c, true))) return false;
+            return true;
+        }
+
+        /** Parses the file again with decimal commas (the first pass found quoted "0,5" cells and no other numbers). */
+        private Capture again() throws CaptureFormatException {
+            decimalComma = true;
+            warnings.clear();
+            rowLines = new int[1024];
+            columnOffset = 0;
+            return run();
+        }
+
+        private String decimalCommaHint() {
+            return commaNumberSeen == null ? "" : " (cells such as '" + commaNumberSeen + "' are numbers with a decimal comma,"
+                    + " which this file's comma separator makes ambiguous: export with a semicolon separator or a decimal point)";
+        }
+
+        /**
+         * A comma-separated file whose numbers also use decimal commas: {@code 0,000000E+00,10,0000}. When the header just
+         * above names half as many columns and every pair of fields reads as integer part and fraction, the pairs are the
+         * numbers (unambiguous, with a warning). When fields look like the fraction of a decimal-comma number (a leading
+         * zero: {@code 0000}) and the header does not settle it, the file is refused, naming the decimal comma.
+         */
+        private void decimalCommaPairs(List<Row> preamble, List<String> cells, long line) throws CaptureFormatException {
+            List<String> header = preamble.isEmpty() ? List.of() : preamble.get(preamble.size() - 1).cells();
+            boolean headerNames = !header.isEmpty();
+            for (String h : header) if (!Double.isNaN(number(h, false))) headerNames = false;
+            if (headerNames && cells.size() == 2 * header.size()) {
+                boolean pairs = true;
+                for (int c = 0; c + 1 < cells.size() && pairs; c += 2)
+                    pairs = INTEGER.matcher(cells.get(c)).matches() && FRACTION.matcher(cells.get(c + 1)).matches();
+                if (pairs) {
+                    commaPairs = true;
+                    warnings.add("line " + line + ": the comma separates the columns and is also the decimal mark; each pair of fields is read as one"
+                            + " number with a decimal comma, as the header (line " + preamble.get(preamble.size() - 1).line() + ") names "
+                            + header.size() + " columns");
+                    return;
+                }
+            }
+            for (int c = 1; c < cells.size(); c++)
+                if (INTEGER.matcher(cells.get(c - 1)).matches() && FRACTION_ONLY.matcher(cells.get(c)).matches())
+                    throw at(line, c + 1, "'" + cells.get(c - 1) + "," + cells.get(c) + "' looks like one number with a decimal comma, but the comma"
+                            + " also separates the columns" + (headerNames ? " and the header (" + header.size() + " names) does not settle it" : "")
+                            + "; export with a semicolon separator or a decimal point");
         }
 
         // ------------------------------------------------------------ meaning of the columns
@@ -477,6 +553,8 @@ public final class ScopeCsvReader {
             double rateHz;
             if (dtFile != null) {
                 rateHz = 1 / dtFile;
+                if (!Double.isFinite(rateHz) || !Double.isFinite(dtFile))
+                    throw at(dtLine, 0, "the file's " + dtSource + " gives a sample interval of " + show(dtFile) + " s, which no sample rate can match");
                 if (options.sampleRateHz().isPresent()) {
                     double given = options.sampleRateHz().getAsDouble();
                     if (Math.abs(given - rateHz) > CaptureOptions.RATE_TOLERANCE * rateHz)
@@ -490,10 +568,10 @@ public final class ScopeCsvReader {
             }
 
             if (meta.containsKey("recordlength") && meta.get("recordlength") != rows)
-                warnings.add(file.getFileName() + ": line " + metaLine.get("recordlength") + ": record length says "
+                warnings.add("line " + metaLine.get("recordlength") + ": record length says "
                         + CaptureReader.fmt(meta.get("recordlength")) + " points, the file has " + rows + " data rows");
             if (options.fullScaleVolts().isPresent())
-                warnings.add(file.getFileName() + ": the full-scale voltage applies to WAV files only; ignored for this scope CSV (already in volts)");
+                warnings.add("the full-scale voltage applies to WAV files only; ignored for this scope CSV (already in volts)");
 
             // raw ADC codes with a scaling preamble: v = (code − y_ref)·y_inc + y_org
             Double yInc = first(meta, "yincrement", "yinc");
@@ -512,6 +590,9 @@ public final class ScopeCsvReader {
                     f = voltFactor(colUnits[c].isEmpty() ? vertical : colUnits[c], colNames[c], unitsLine, c);
                 }
                 if (f != 1) for (int i = 0; i < rows; i++) v[i] *= f;
+                for (int i = 0; i < rows; i++)
+                    if (!Double.isFinite(v[i]))
+                        throw at(rowLines[i], c + 1 + columnOffset, "the value scaled to volts is out of range (" + (yInc != null ? "y increment " + show(yInc) : "unit factor " + show(f)) + ")");
                 channels[k] = v;
             }
             final double[][] data = channels;

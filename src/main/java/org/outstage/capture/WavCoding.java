@@ -6,7 +6,7 @@ import java.nio.ByteBuffer;
  * How one sample is stored in a WAV data chunk, and how it becomes a double.
  *
  * <p>Integer convention: a code is divided by 2<sup>bits−1</sup> of its container, so 16-bit −32768 reads
- * −1.0 and +32767 reads 0.999969 (references.md §10; the other common convention, 2<sup>bits−1</sup>−1,
+ * −1.0 and +32767 reads 0.999969 (docs/references.md §10; the other common convention, 2<sup>bits−1</sup>−1,
  * differs by 0.00027 dB at 16 bits). 8-bit PCM is unsigned with 128 as zero. Left-justified valid bits in a
  * WAVE_FORMAT_EXTENSIBLE container (e.g. 20 of 24) come out right because their unused low bits are zero.
  */

@@ -20,14 +20,15 @@ import java.util.Map;
  * container); any channel count and sample rate. Unknown chunks are skipped, with the pad byte after
  * odd-sized chunks; {@code fmt } may follow other chunks but must precede {@code data}. RF64 and BW64
  * (EBU Tech 3306, ITU-R BS.2088): a 32-bit size of 0xFFFFFFFF means "take the size from {@code ds64}".
- * Layouts from references.md §10 (RIFF, WAVEFORMATEXTENSIBLE, ds64).
+ * Layouts from docs/references.md §10 (RIFF, WAVEFORMATEXTENSIBLE, ds64).
  *
  * <p>Scaling: integer codes are divided by 2<sup>bits−1</sup> of the container (16-bit −32768 → −1.0,
  * +32767 → 0.99997); floats are taken as they are. The result has unit {@link SampleUnit#FULL_SCALE}: 1.0 is
  * the digital full-scale peak, so a full-scale sine has an RMS of 0.7071 (0 dBFS, AES17).
  *
  * <p>Errors: a data chunk that claims more bytes than the file holds is read to the end (whole frames) and
- * a warning goes into {@link Capture#warnings()}; anything else malformed is a {@link CaptureFormatException}
+ * a warning goes into {@link Capture#warnings()} (place and problem, without the file name, which the capture
+ * carries); a data chunk without one whole frame is an error (a capture has samples); anything else malformed is a {@link CaptureFormatException}
  * naming the file, the byte offset and the problem. Sizes from the file are never used to allocate memory.
  */
 public final class WavReader {
@@ -256,19 +257,22 @@ public final class WavReader {
             return coding;
         }
 
-        private Capture capture(Format f, long dataOffset, long claimed) {
+        private Capture capture(Format f, long dataOffset, long claimed) throws CaptureFormatException {
             long available = Math.max(0, fileSize - dataOffset);
             long bytes = claimed;
             if (claimed > available) {
                 bytes = available - available % f.blockAlign;
-                warnings.add(file.getFileName() + ": byte " + (dataOffset - 4) + ": data chunk claims " + claimed
+                warnings.add("byte " + (dataOffset - 4) + ": data chunk claims " + claimed
                         + " bytes but the file holds " + available + " after its header; read " + bytes / f.blockAlign + " whole frames");
             } else if (claimed % f.blockAlign != 0) {
                 bytes = claimed - claimed % f.blockAlign;
-                warnings.add(file.getFileName() + ": byte " + (dataOffset - 4) + ": data chunk size " + claimed
+                warnings.add("byte " + (dataOffset - 4) + ": data chunk size " + claimed
                         + " is not a whole number of " + f.blockAlign + "-byte frames; the last partial frame is ignored");
             }
             long frames = bytes / f.blockAlign;
+            if (frames == 0)
+                throw err(dataOffset - 4, claimed == 0 ? "data chunk is empty: the file holds no samples"
+                        : "data chunk holds no whole " + f.blockAlign + "-byte frame (" + Math.min(claimed, available) + " bytes): the file holds no samples");
             WavStore store = new WavStore(file, dataOffset, frames, f.blockAlign, f.channels, f.coding);
             return new Capture(String.valueOf(file.getFileName()), f.sampleRate, f.channels, frames,
                     SampleUnit.FULL_SCALE, 1.0, warnings, store,

@@ -11,7 +11,9 @@ import java.nio.file.StandardOpenOption;
 /**
  * Samples of a WAV data chunk, read from the file on demand. Every {@link #open} gets its own
  * {@link FileChannel} and a bounded block buffer (about {@value #BLOCK_BYTES} bytes of whole frames), so the
- * store is thread-safe and never holds the record in the heap.
+ * store is thread-safe and never holds the record in the heap. A float sample that is NaN or infinite is an
+ * {@link java.io.IOException} whose message is {@code "byte N: ..."} and whose cause is the {@link CaptureFormatException}
+ * naming file and byte: the samples are read lazily, so this bad input shows only when they are read.
  */
 final class WavStore implements SampleStore {
     static final int BLOCK_BYTES = 64 * 1024;
@@ -66,7 +68,16 @@ final class WavStore implements SampleStore {
                 if (k < 0) throw new EOFException(file.getFileName() + ": byte " + pos + ": file ended while reading samples (was it changed after it was opened?)");
                 pos += k;
             }
-            for (int i = 0; i < n; i++) buffer[offset + i] = coding.decode(buf, i * blockAlign + sampleOffsetInFrame);
+            for (int i = 0; i < n; i++) {
+                double v = coding.decode(buf, i * blockAlign + sampleOffsetInFrame);
+                if (!Double.isFinite(v)) {   // only float codings can hold NaN or infinity
+                    long at = dataOffset + (frame + i) * blockAlign + sampleOffsetInFrame;
+                    String problem = "sample " + (frame + i + 1) + " of channel " + (sampleOffsetInFrame / coding.bytes + 1) + " is " + v
+                            + "; a float WAV must hold finite numbers";
+                    throw new java.io.IOException("byte " + at + ": " + problem, CaptureFormatException.atByte(file, at, problem));
+                }
+                buffer[offset + i] = v;
+            }
             frame += n;
             return n;
         }

@@ -69,6 +69,9 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 bad++;
             } else good.add(o.result);
         }
+        // warnings about a file go to stderr in every mode, one line naming the file (with --json they are also in the JSON)
+        for (Measuring.FileResult r : good)
+            for (String w : r.capture().warnings()) err.println("outstage: warning: " + r.file() + ": " + w);
         err.flush();
         if (residual != null) writeResidual(good);
         if (json) {
@@ -81,10 +84,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (Measuring.FileResult r : good)
                 for (Measurement m : r.measurements()) out.print(FigureTable.csvRow(r.file(), m));
         } else {
-            for (Measuring.FileResult r : good) {
-                for (String w : r.capture().warnings()) err.println("outstage: warning: " + r.file() + ": " + w);
+            for (Measuring.FileResult r : good)
                 for (Measurement m : r.measurements()) out.print(FigureTable.text(r.file(), m));
-            }
         }
         out.flush();
         return bad > 0 ? OutstageCommand.EXIT_BAD_INPUT : OutstageCommand.EXIT_OK;
@@ -139,7 +140,9 @@ public final class AnalyzeCommand implements Callable<Integer> {
             if (!r.measurements().isEmpty()) owner = r;
         }
         if (all.size() != 1)
-            throw new BadInputException("--residual needs exactly one analysed channel (got " + all.size() + "; pick one with --channel)");
+            throw new BadInputException(good.size() > 1
+                    ? "--residual writes one channel of one file, but " + good.size() + " files were analysed; give one file (and --channel N if it has several channels)"
+                    : "--residual needs exactly one analysed channel (got " + all.size() + "; pick one with --channel)");
         Measurement m = all.get(0);
         if (!m.measured()) throw new BadInputException(owner.file() + ": no residual: " + m.notMeasuredReason().get());
         double[] samples = owner.capture().readChannel(m.channel() - 1, Analyzer.spanFrames(owner.capture()));

@@ -28,20 +28,20 @@ public final class AnalyzeOptions {
             description = "Highest harmonic order in THD (2..50, limited by the band). Default: ${DEFAULT-VALUE}.")
     int harmonics;
 
-    @Option(names = "--fs-volts", paramLabel = "V",
+    @Option(names = "--fs-volts", paramLabel = "V", converter = Units.Volts.class,
             description = "WAV calibration: peak volts at the amplifier output that reach digital full scale, divider included.")
     Double fsVolts;
 
     @Option(names = "--probe", paramLabel = "X", description = "Scope CSV calibration: multiply values by X (probe ratio not applied by the export).")
     Double probe;
 
-    @Option(names = "--sample-rate", paramLabel = "HZ", description = "Sample rate for a scope CSV without time column or interval.")
+    @Option(names = "--sample-rate", paramLabel = "HZ", converter = Units.Hertz.class, description = "Sample rate for a scope CSV without time column or interval.")
     Double sampleRate;
 
-    @Option(names = "--load", paramLabel = "OHMS", description = "Load resistance, for output power (P = Vrms^2/R; needs volts).")
+    @Option(names = "--load", paramLabel = "OHMS", converter = Units.Ohms.class, description = "Load resistance, for output power (P = Vrms^2/R; needs volts).")
     Double load;
 
-    @Option(names = "--fundamental", paramLabel = "HZ", description = "Expected fundamental frequency (default: strongest line).")
+    @Option(names = "--fundamental", paramLabel = "HZ", converter = Units.Hertz.class, description = "Expected fundamental frequency (default: strongest line).")
     Double fundamental;
 
     @Option(names = "--reference", paramLabel = "N",

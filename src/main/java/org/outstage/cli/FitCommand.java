@@ -42,13 +42,13 @@ public final class FitCommand implements Callable<Integer> {
     @Spec CommandSpec spec;
     @Parameters(index = "0", paramLabel = "FILE", description = "Capture (WAV or scope CSV) or transfer-curve CSV (columns output_v,gain).") Path file;
     @Mixin ModelOptions stage;
-    @Option(names = "--level-v", paramLabel = "V", description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
-    @Option(names = "--tolerance-mv", paramLabel = "MV", description = "Within this of the optimum the advice is 'leave it' (default 2).") double toleranceMv = 2;
+    @Option(names = "--level-v", paramLabel = "V", converter = Units.Volts.class, description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
+    @Option(names = "--tolerance-mv", paramLabel = "MV", converter = Units.MilliVolts.class, description = "Within this of the optimum the advice is 'leave it' (default 2).") double toleranceMv = 2;
     @Option(names = "--json", description = "Print the result as JSON.") boolean json;
-    @Option(names = "--fs-volts", paramLabel = "V", description = "Capture: WAV calibration, peak volts at the output that reach full scale (divider included).") Double fsVolts;
+    @Option(names = "--fs-volts", paramLabel = "V", converter = Units.Volts.class, description = "Capture: WAV calibration, peak volts at the output that reach full scale (divider included).") Double fsVolts;
     @Option(names = "--probe", paramLabel = "X", description = "Capture: scope CSV calibration, multiply values by X.") Double probe;
     @Option(names = "--channel", paramLabel = "N", description = "Capture: channel to fit, from 1 (needed when several are measured).") Integer channel;
-    @Option(names = "--sample-rate", paramLabel = "HZ", description = "Capture: sample rate of a scope CSV without time column.") Double sampleRate;
+    @Option(names = "--sample-rate", paramLabel = "HZ", converter = Units.Hertz.class, description = "Capture: sample rate of a scope CSV without time column.") Double sampleRate;
     @Option(names = "--reference", paramLabel = "N", description = "Capture: channel (from 1) carrying the generator signal, for an X-Y transfer curve.") Integer reference;
 
     @Override

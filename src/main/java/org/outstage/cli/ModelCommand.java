@@ -34,10 +34,10 @@ public final class ModelCommand implements Callable<Integer> {
     @Spec CommandSpec spec;
     @Mixin ModelOptions stage;
 
-    @Option(names = "--vin-max", paramLabel = "V", description = "Curve input range +/- V (default: the rail voltage).") Double vinMax;
+    @Option(names = "--vin-max", paramLabel = "V", converter = Units.Volts.class, description = "Curve input range +/- V (default: the rail voltage).") Double vinMax;
     @Option(names = "--points", paramLabel = "N", description = "Curve points (default 2001).") int points = 2001;
-    @Option(names = "--level-v", paramLabel = "V", description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
-    @Option(names = "--thd-levels", paramLabel = "V", split = ",", description = "Output peak levels for predicted THD (default 1,5,10,20).")
+    @Option(names = "--level-v", paramLabel = "V", converter = Units.Volts.class, description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
+    @Option(names = "--thd-levels", paramLabel = "V", converter = Units.Volts.class, split = ",", description = "Output peak levels for predicted THD (default 1,5,10,20).")
     double[] thdLevels = {1, 5, 10, 20};
     @Option(names = "--csv", description = "Print the transfer curve as CSV (vin,vout,gain).") boolean csv;
     @Option(names = "--json", description = "Print the results as JSON.") boolean json;

@@ -29,33 +29,33 @@ final class ModelOptions {
     String topology;
 
     static final class BiasGroup {
-        @Option(names = "--vq-mv", paramLabel = "MV", description = "Bias as the quiescent drop across each emitter resistor, mV (default 20).")
+        @Option(names = "--vq-mv", paramLabel = "MV", converter = Units.MilliVolts.class, description = "Bias as the quiescent drop across each emitter resistor, mV (default 20).")
         Double vqMv;
-        @Option(names = "--bias-v", paramLabel = "V", description = "Bias as the bias-generator voltage, V.")
+        @Option(names = "--bias-v", paramLabel = "V", converter = Units.Volts.class, description = "Bias as the bias-generator voltage, V.")
         Double biasV;
-        @Option(names = "--iq-a", paramLabel = "A", description = "Bias as the quiescent current through each emitter resistor, A.")
+        @Option(names = "--iq-a", paramLabel = "A", converter = Units.Amps.class, description = "Bias as the quiescent current through each emitter resistor, A.")
         Double iqA;
     }
 
     @ArgGroup(exclusive = true, multiplicity = "0..1")
     BiasGroup bias;
 
-    @Option(names = "--re", paramLabel = "OHMS", description = "Emitter resistor Re (default 0.22).") Double re;
-    @Option(names = "--load", paramLabel = "OHMS", description = "Load resistance (default 8).") Double load;
-    @Option(names = "--rails", paramLabel = "V", description = "Symmetric supply rails, +/- V (default 35).") Double rails;
+    @Option(names = "--re", paramLabel = "OHMS", converter = Units.Ohms.class, description = "Emitter resistor Re (default 0.22).") Double re;
+    @Option(names = "--load", paramLabel = "OHMS", converter = Units.Ohms.class, description = "Load resistance (default 8).") Double load;
+    @Option(names = "--rails", paramLabel = "V", converter = Units.Volts.class, description = "Symmetric supply rails, +/- V (default 35).") Double rails;
     @Option(names = "--beta-driver", paramLabel = "B", description = "Driver current gain (default 150).") Double betaDriver;
     @Option(names = "--beta-output", paramLabel = "B", description = "Output-device current gain (default 60).") Double betaOutput;
-    @Option(names = "--is-driver", paramLabel = "A", description = "Driver saturation current Is (default 1e-14).") Double isDriver;
-    @Option(names = "--is-output", paramLabel = "A", description = "Output-device saturation current Is (default 1e-12).") Double isOutput;
+    @Option(names = "--is-driver", paramLabel = "A", converter = Units.Amps.class, description = "Driver saturation current Is (default 1e-14).") Double isDriver;
+    @Option(names = "--is-output", paramLabel = "A", converter = Units.Amps.class, description = "Output-device saturation current Is (default 1e-12).") Double isOutput;
     @Option(names = "--n", paramLabel = "N", description = "Emission coefficient of every junction (default 1).") Double n;
     @Option(names = "--temperature-c", paramLabel = "C", description = "Junction temperature, degC (default 25).") Double temperatureC;
-    @Option(names = "--r-driver", paramLabel = "OHMS", description = "Darlington driver emitter resistor (darlington, quasi; default 200).") Double rDriver;
-    @Option(names = "--rbe", paramLabel = "OHMS", description = "CFP output base-emitter resistor (cfp, quasi; default none).") Double rbe;
+    @Option(names = "--r-driver", paramLabel = "OHMS", converter = Units.Ohms.class, description = "Darlington driver emitter resistor (darlington, quasi; default 200).") Double rDriver;
+    @Option(names = "--rbe", paramLabel = "OHMS", converter = Units.Ohms.class, description = "CFP output base-emitter resistor (cfp, quasi; default none).") Double rbe;
     @Option(names = "--cfp-re-in-loop", arity = "0..1", paramLabel = "BOOL",
             description = "CFP halves: Re inside the local loop (driver emitter at the output) instead of outside (default false).") Boolean cfpReInLoop;
-    @Option(names = "--ikf-output", paramLabel = "A", description = "Output-device knee current for beta fall-off (default none).") Double ikfOutput;
-    @Option(names = "--ikf-driver", paramLabel = "A", description = "Driver knee current for beta fall-off (default none).") Double ikfDriver;
-    @Option(names = "--drive-sat-v", paramLabel = "V", description = "How close to each rail the drive can swing (default 0.2).") Double driveSatV;
+    @Option(names = "--ikf-output", paramLabel = "A", converter = Units.Amps.class, description = "Output-device knee current for beta fall-off (default none).") Double ikfOutput;
+    @Option(names = "--ikf-driver", paramLabel = "A", converter = Units.Amps.class, description = "Driver knee current for beta fall-off (default none).") Double ikfDriver;
+    @Option(names = "--drive-sat-v", paramLabel = "V", converter = Units.Volts.class, description = "How close to each rail the drive can swing (default 0.2).") Double driveSatV;
 
     @Option(names = "--max-iterations", paramLabel = "N", description = "Solver budget: Newton iterations per operating point before the fallbacks (default 100).")
     int maxIterations = 100;

@@ -29,16 +29,16 @@ public final class SessionAddCommand implements Callable<Integer> {
     @Mixin LogbookPathOption logbook;
     @Mixin AnalyzeOptions analyze;
 
-    @Parameters(index = "0", paramLabel = "ID", description = "Session id.")
+    @Parameters(index = "0", paramLabel = "ID", converter = Units.SessionId.class, description = "Session id.")
     long sessionId;
 
     @Parameters(index = "1", paramLabel = "CAPTURE", description = "WAV or scope CSV taken at this bias setting.")
     Path capture;
 
     static final class Reading {
-        @Option(names = "--bias-mv", paramLabel = "MV", required = true, description = "Bias reading across the emitter resistor(s), mV.")
+        @Option(names = "--bias-mv", paramLabel = "MV", converter = Units.MilliVolts.class, required = true, description = "Bias reading across the emitter resistor(s), mV.")
         Double mv;
-        @Option(names = "--bias-ma", paramLabel = "MA", required = true, description = "Bias reading as quiescent current, mA.")
+        @Option(names = "--bias-ma", paramLabel = "MA", converter = Units.MilliAmps.class, required = true, description = "Bias reading as quiescent current, mA.")
         Double ma;
     }
 

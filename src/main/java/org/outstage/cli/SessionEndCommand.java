@@ -14,7 +14,7 @@ public final class SessionEndCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
 
-    @Parameters(index = "0", paramLabel = "ID", description = "Session id.")
+    @Parameters(index = "0", paramLabel = "ID", converter = Units.SessionId.class, description = "Session id.")
     long sessionId;
 
     @Override

@@ -35,10 +35,10 @@ public final class SessionStartCommand implements Callable<Integer> {
     @Option(names = "--topology", paramLabel = "TEXT", description = "Output-stage topology, when the unit is new.")
     String topology;
 
-    @Option(names = "--rated-power", paramLabel = "W", description = "Rated power in watts, when the unit is new.")
+    @Option(names = "--rated-power", paramLabel = "W", converter = Units.Watts.class, description = "Rated power in watts, when the unit is new.")
     Double ratedPowerWatts;
 
-    @Option(names = "--rated-load", paramLabel = "OHMS", description = "Rated load in ohms, when the unit is new.")
+    @Option(names = "--rated-load", paramLabel = "OHMS", converter = Units.Ohms.class, description = "Rated load in ohms, when the unit is new.")
     Double ratedLoadOhms;
 
     @Option(names = "--json", description = "Print {\"session_id\": N}.")

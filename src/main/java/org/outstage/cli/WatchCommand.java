@@ -42,13 +42,13 @@ public final class WatchCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "DIR", description = "Folder the recorder or scope writes into.")
     Path dir;
 
-    @Option(names = "--session", required = true, paramLabel = "ID", description = "Bias session to add the steps to.")
+    @Option(names = "--session", required = true, paramLabel = "ID", converter = Units.SessionId.class, description = "Bias session to add the steps to.")
     long sessionId;
 
-    @Option(names = "--bias-mv", paramLabel = "MV", description = "Reading for captures whose name and sidecar give none (constant setting).")
+    @Option(names = "--bias-mv", paramLabel = "MV", converter = Units.MilliVolts.class, description = "Reading for captures whose name and sidecar give none (constant setting).")
     Double biasMv;
 
-    @Option(names = "--bias-ma", paramLabel = "MA", description = "As --bias-mv, in mA.")
+    @Option(names = "--bias-ma", paramLabel = "MA", converter = Units.MilliAmps.class, description = "As --bias-mv, in mA.")
     Double biasMa;
 
     @Option(names = "--heatsink-c", paramLabel = "C", description = "Heatsink temperature when the name and sidecar give none.")

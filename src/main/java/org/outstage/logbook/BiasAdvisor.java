@@ -18,7 +18,7 @@ import org.outstage.verify.KeyFigures;
  * the capture's level, else the {@code gain_at_zero} figure). Oliver (HP Journal, Feb 1971)
  * sets the optimum class-AB bias where the small-signal gain at crossover equals the large-signal gain,
  * i.e. {@code g0 = 1}; below it the gain dips (crossover notch), above it rises (gm-doubling). The criterion
- * flattens the gain; it does not promise minimum THD at every level (references.md §7).
+ * flattens the gain; it does not promise minimum THD at every level (docs/references.md §7).
  *
  * <p>Method (ours): readings are sorted, equal readings averaged, and {@code g0} is interpolated linearly
  * between steps. The recommended range is the stretch of readings where {@code |g0 − 1| ≤ tolerance}

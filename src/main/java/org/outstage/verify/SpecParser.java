@@ -28,12 +28,26 @@ public final class SpecParser {
     private static final Pattern NUMBER_UNIT = Pattern.compile("^([-+]?\\d+(?:\\.\\d+)?(?:[eE][-+]?\\d+)?)\\s*(.*)$");
 
     public static SpecProfile read(Path file) {
-        String text;
+        byte[] bytes;
         try {
-            text = Files.readString(file, StandardCharsets.UTF_8);
+            bytes = Files.readAllBytes(file);
         } catch (IOException e) {
             throw new IllegalArgumentException(file + ": cannot read the spec (" + e.getMessage() + ")");
         }
+        String head = new String(bytes, 0, Math.min(4, bytes.length), StandardCharsets.ISO_8859_1);
+        String notText = file + ": not a text spec file (WHY); give the spec, lines like 'thd <= 0.05 % at 1 kHz, 1 W, 8 ohm' (docs/spec-format.md)";
+        if (head.equals("RIFF") || head.equals("RF64") || head.equals("BW64"))
+            throw new IllegalArgumentException(notText.replace("WHY", "it is a WAV capture; the captures come after the spec"));
+        for (int i = 0; i < Math.min(bytes.length, 4096); i++)
+            if (bytes[i] == 0) throw new IllegalArgumentException(notText.replace("WHY", "it holds binary data: byte " + i + " is 0"));
+        String text;
+        try {
+            text = StandardCharsets.UTF_8.newDecoder().onMalformedInput(java.nio.charset.CodingErrorAction.REPORT)
+                    .onUnmappableCharacter(java.nio.charset.CodingErrorAction.REPORT).decode(java.nio.ByteBuffer.wrap(bytes)).toString();
+        } catch (java.nio.charset.CharacterCodingException e) {
+            throw new IllegalArgumentException(notText.replace("WHY", "it is not UTF-8 text"));
+        }
+        if (!text.isEmpty() && text.charAt(0) == '\uFEFF') text = text.substring(1);
         return parse(text, file.toString());
     }
 
@@ -81,8 +95,20 @@ public final class SpecParser {
         return new IllegalArgumentException(source + ", line " + line + ": " + msg);
     }
 
+    private static final Pattern DECIMAL_COMMA = Pattern.compile("^[-+]?\\d+,\\d+.*");
+
+    /** Refuses a number written with a decimal comma ("0,05 %"), naming it, instead of reading "0" and a unit ",05 %". */
+    private static void noDecimalComma(String source, int no, String text) {
+        String t = text.strip();
+        if (DECIMAL_COMMA.matcher(t).matches()) {
+            String number = t.split("[^-+\\d,]", 2)[0];
+            throw error(source, no, "'" + number + "' has a decimal comma; write it with a point (" + number.replace(',', '.') + ")");
+        }
+    }
+
     /** "60 W" → 60 with the unit checked (ohm also accepts Ω). */
     private static double quantity(String source, int no, String text, String unit) {
+        noDecimalComma(source, no, text);
         Matcher m = NUMBER_UNIT.matcher(text.strip());
         if (!m.matches()) throw error(source, no, "expected a number and " + unit + ", got '" + text + "'");
         String u = m.group(2).strip();
@@ -109,6 +135,7 @@ public final class SpecParser {
         if (parts[1].equals("<=") || parts[1].equals("≤")) atMost = true;
         else if (parts[1].equals(">=") || parts[1].equals("≥")) atMost = false;
         else throw error(source, no, "expected <= or >= after " + parts[0] + ", got '" + parts[1] + "'");
+        noDecimalComma(source, no, parts[2]);
         Matcher m = NUMBER_UNIT.matcher(parts[2].strip());
         if (!m.matches()) throw error(source, no, "expected a number and a unit, got '" + parts[2] + "'");
         double v = Double.parseDouble(m.group(1));
@@ -146,6 +173,10 @@ public final class SpecParser {
         OptionalDouble r = OptionalDouble.empty();
         OptionalDouble thd = OptionalDouble.empty();
         if (!cond.isEmpty()) {
+            Matcher dc = Pattern.compile("[-+]?\\d+,\\d+").matcher(cond);
+            if (dc.find())   // "at 1,5 kHz": the comma separates conditions, so a decimal comma would split the number
+                throw error(source, no, "'" + dc.group() + "' has a decimal comma; write it with a point (" + dc.group().replace(',', '.')
+                        + "): commas separate the conditions");
             for (String c : cond.split(",")) {
                 String t = c.strip();
                 if (t.equalsIgnoreCase("rated power") || t.equalsIgnoreCase("rated")) {

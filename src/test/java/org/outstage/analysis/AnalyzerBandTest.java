@@ -18,7 +18,7 @@ class AnalyzerBandTest {
 
     /**
      * Brick-wall band: H5 at 25 kHz lies outside 20 Hz–20 kHz and inside 20 Hz–80 kHz. THD+N is the rss of the
-     * in-band lines relative to the total in the band (Parseval, references.md §11): −70 dBc alone, then
+     * in-band lines relative to the total in the band (Parseval, docs/references.md §11): −70 dBc alone, then
      * rss(−70, −60) with the wide band. The harmonic list stops at the band edge.
      */
     @Test
@@ -38,8 +38,32 @@ class AnalyzerBandTest {
     }
 
     /**
-     * A-weighting applies to the noise and distortion only: a −60 dBc H3 at 3 kHz reads −60 dB + A(3 kHz)
-     * (IEC 61672-1 Annex E; the function itself is checked against Table 3 in WeightingTest).
+     * A(f) in dB from IEC 61672-1:2013 Annex E (docs/references.md §1.1), computed here from the design constants
+     * fr = 1 kHz, fL = 10^1.5 Hz, fH = 10^3.9 Hz, fA = 10^2.45 Hz, D = √(1/2) (eqs. E.1–E.8), normalised exactly at
+     * 1 kHz rather than with the printed A1000 = −2.000 dB (the trap in docs/references.md §1.1). Not the code's Weighting.
+     */
+    static double annexEWeightingDb(double f) {
+        double fr = 1000, fL = Math.pow(10, 1.5), fH = Math.pow(10, 3.9), fA = Math.pow(10, 2.45), d = Math.sqrt(0.5);
+        double b = (1 / (1 - d)) * (fr * fr + fL * fL * fH * fH / (fr * fr) - d * (fL * fL + fH * fH));
+        double c = fL * fL * fH * fH;
+        double f1 = Math.sqrt((-b - Math.sqrt(b * b - 4 * c)) / 2), f4 = Math.sqrt((-b + Math.sqrt(b * b - 4 * c)) / 2);
+        double f2 = (3 - Math.sqrt(5)) / 2 * fA, f3 = (3 + Math.sqrt(5)) / 2 * fA;
+        java.util.function.DoubleUnaryOperator raw = x -> 20 * Math.log10(f4 * f4 * x * x * x * x
+                / ((x * x + f1 * f1) * Math.sqrt(x * x + f2 * f2) * Math.sqrt(x * x + f3 * f3) * (x * x + f4 * f4)));
+        return raw.applyAsDouble(f) - raw.applyAsDouble(1000);
+    }
+
+    /** The Annex E computation above reproduces its published poles and Table 3 values (docs/references.md §1.1, §1.2). */
+    @Test
+    void annexEReference_matchesPublishedTable3() {
+        assertEquals(-39.4, annexEWeightingDb(Math.pow(10, 1.5)), 0.05);    // Table 3, 31.5 Hz nominal
+        assertEquals(1.2, annexEWeightingDb(1000 * Math.pow(10, 0.3)), 0.05); // Table 3, 2 kHz nominal
+        assertEquals(-9.3, annexEWeightingDb(1000 * Math.pow(10, 1.3)), 0.05); // Table 3, 20 kHz nominal
+    }
+
+    /**
+     * A-weighting applies to the noise and distortion only: a −60 dBc H3 at 3 kHz reads −60 dB + A(3 kHz), with A
+     * computed in this test from IEC 61672-1 Annex E ({@link #annexEWeightingDb}), not from the code's weighting class.
      */
     @Test
     void aWeightedThdN_scalesDistortionByWeighting() {
@@ -48,7 +72,8 @@ class AnalyzerBandTest {
         double f = 1000.17;
         double[] y = record(f, a, p, 1);
         Measurement m = Analyzer.analyze(y, FS, SampleUnit.FULL_SCALE, AnalysisSettings.DEFAULT.withWeighting(Weighting.A));
-        assertEquals(-60 + Weighting.A.db(3 * f), m.thdN().db(), 0.01);
+        double a3 = annexEWeightingDb(3 * f);   // about +1.2 dB at 3 kHz (Table 3, 3150 Hz: +1.2 dB)
+        assertEquals(-60 + a3, m.thdN().db(), 0.01);   // 0.01 dB: the analyser's weighting and the rss of in-band lines
         assertEquals(-60, m.thd().db(), 0.001);            // THD is never weighted
         assertEquals(60, m.sinadDb(), 0.01);                // SINAD is unweighted
         assertEquals(Weighting.A, m.thdN().weighting());
@@ -69,7 +94,7 @@ class AnalyzerBandTest {
         assertEquals(Math.toDegrees(0.4), m1.fundamental().phaseDeg(), 1e-4);
     }
 
-    /** The plot spectrum is bounded, keeps lines visible at their level (within BH7 scalloping 0.48 dB, references.md §5.2). */
+    /** The plot spectrum is bounded, keeps lines visible at their level (within BH7 scalloping 0.48 dB, docs/references.md §5.2). */
     @Test
     void spectrumSummary_isBoundedAndShowsLines() {
         double[] a = new double[4], p = new double[4];

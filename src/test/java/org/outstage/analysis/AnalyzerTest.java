@@ -35,7 +35,7 @@ class AnalyzerTest {
     }
 
     /**
-     * Band-limited square, triangle and sawtooth waves (Fourier series, references.md §6.1: square 4/(nπ) odd n,
+     * Band-limited square, triangle and sawtooth waves (Fourier series, docs/references.md §6.1: square 4/(nπ) odd n,
      * triangle 8/(π²n²) odd n alternating, sawtooth 2/(nπ) all n; THD_F of the infinite series 0.483426,
      * 0.121153, 0.803078). Harmonics up to 40 are synthesised; THD over H2…H10 must equal the partial sum.
      */
@@ -86,7 +86,7 @@ class AnalyzerTest {
     }
 
     /**
-     * y = x + a2·x² + a3·x³ with x = A·cos ωt (Chebyshev identities, references.md §6.4):
+     * y = x + a2·x² + a3·x³ with x = A·cos ωt (Chebyshev identities, docs/references.md §6.4):
      * DC = a2A²/2, H1 = A + ¾a3A³, H2 = a2A²/2, H3 = a3A³/4.
      */
     @Test
@@ -170,7 +170,13 @@ class AnalyzerTest {
         Measurement m = Analyzer.analyze(y, fs, SampleUnit.FULL_SCALE, AnalysisSettings.DEFAULT.withBand(Band.NYQUIST).withBitDepth(bits));
         assertEquals(sinadExpected, m.sinadDb(), 0.2);
         assertEquals(-sinadExpected, m.thdN().db(), 0.2);
-        assertEquals(bits, m.enob(), 0.05);
+        // ENOB = (SINAD − 10·lg 1.5)/(20·lg 2) with the exact constants 1.7609 dB and 6.0206 dB/bit (Kester MT-001;
+        // docs/references.md §4, constants COMPUTED). Checked against the measured SINAD to 1e-9 bit, so a 6.0 or 6.03
+        // dB/bit slip (0.055 and 0.025 bit off at 16 bits, 0.08 and 0.04 at 24) fails, and against the ideal N within
+        // the SINAD tolerance of 0.2 dB (0.033 bit) plus the amplitude's 2^−(N−1) shortfall from full scale.
+        assertEquals((m.sinadDb() - 10 * Math.log10(1.5)) / (20 * Math.log10(2)), m.enob(), 1e-9);
+        double idealEnob = bits + Math.log(amp) / Math.log(2);
+        assertEquals(idealEnob, m.enob(), 0.2 / (20 * Math.log10(2)));
         assertEquals(Math.max(m.floor().quantisationRatio(), m.floor().measuredNoiseRatio()), m.floor().ratio(), 0);
         assertTrue(m.thdN().atFloor());
         // the measured noise floor agrees with the ideal one (the noise is the quantisation noise)
@@ -232,7 +238,7 @@ class AnalyzerTest {
 
     /**
      * Short record with noise: two cycles, H3 at −40 dBc and white noise σ = 1e-3 (seeded), Nyquist band.
-     * THD+N² = (H3² + σ²)/(total) by Parseval (references.md §11); the fit absorbs only 2N+1 of 20000
+     * THD+N² = (H3² + σ²)/(total) by Parseval (docs/references.md §11); the fit absorbs only 2N+1 of 20000
      * degrees of freedom. Tolerance 0.1 dB: the noise power of 20000 samples scatters by about 1 %.
      */
     @Test

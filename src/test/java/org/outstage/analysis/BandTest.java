@@ -40,17 +40,17 @@ class BandTest {
         assertEquals("loadOhms=-8.0 must be > 0", e.getMessage());
     }
 
-    /** references.md §3 conversion examples: THD_F 10 % → THD_R 9.95 %; §11: 1 % = −40 dB. */
+    /** docs/references.md §3 conversion examples: THD_F 10 % → THD_R 9.95 %; §11: 1 % = −40 dB. */
     @Test
     void levels_conversions() {
         assertEquals(0.0995, Levels.thdFToThdR(0.10), 5e-5);
         assertEquals(0.10, Levels.thdRToThdF(Levels.thdFToThdR(0.10)), 1e-15);
         assertEquals(-40, Levels.ratioToDb(0.01), 1e-12);
         assertEquals(1.0, Levels.ratioToPercent(0.01), 1e-15);
-        // references.md §3 worked numbers: 1 W into 8 Ω = 2.828 V rms = +11.25 dBu = +9.03 dBV
+        // docs/references.md §3 worked numbers: 1 W into 8 Ω = 2.828 V rms = +11.25 dBu = +9.03 dBV
         assertEquals(9.03, Levels.dbv(Math.sqrt(8)), 0.005);
         assertEquals(11.25, Levels.dbu(Math.sqrt(8)), 0.005);
-        // AES17 / references.md §2: a full-scale sine is 0 dBFS
+        // AES17 / docs/references.md §2: a full-scale sine is 0 dBFS
         assertEquals(0.0, Levels.dbfs(1 / Math.sqrt(2)), 1e-12);
     }
 }

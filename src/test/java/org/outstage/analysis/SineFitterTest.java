@@ -39,7 +39,7 @@ class SineFitterTest {
     /**
      * Frequency variance near the Cramér–Rao bound for a real sinusoid in white Gaussian noise
      * (Kay, Fundamentals of Statistical Signal Processing I, ex. 3.14 — from memory; formula in
-     * ../shared/references.md §8): var(f) ≥ 12·fs²/((2π)²·η·N·(N²−1)), η = A²/(2σ²).
+     * docs/references.md §8): var(f) ≥ 12·fs²/((2π)²·η·N·(N²−1)), η = A²/(2σ²).
      */
     @Test
     void noisyRecord_frequencyVarianceNearCramerRaoBound() {

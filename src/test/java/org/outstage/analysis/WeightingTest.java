@@ -7,7 +7,7 @@ import org.junit.jupiter.api.Test;
 class WeightingTest {
     /**
      * IEC 61672-1:2013, Table 3, A-weighting nominal column (dB) at the 34 exact base-10 mid-band frequencies
-     * f = 1000·10^(n/10), n = −20…13 (transcription: references.md §1.2, CONFIRMED from jmrplens/phonometry
+     * f = 1000·10^(n/10), n = −20…13 (transcription: docs/references.md §1.2, CONFIRMED from jmrplens/phonometry
      * tests/reference_data.py, IEC61672_TABLE3). Tolerance ±0.05 dB: the print rounding of the table.
      */
     private static final double[] TABLE3_A = {
@@ -23,13 +23,13 @@ class WeightingTest {
         }
     }
 
-    /** Exact normalisation: 0.000 dB at 1 kHz (references.md §1.1 normalisation trap: the printed −2.000 dB gives +0.0003 dB). */
+    /** Exact normalisation: 0.000 dB at 1 kHz (docs/references.md §1.1 normalisation trap: the printed −2.000 dB gives +0.0003 dB). */
     @Test
     void aWeighting_isZeroDbAtOneKilohertz() {
         assertEquals(0.0, Weighting.A.db(1000), 1e-12);
     }
 
-    /** Pole frequencies from the Annex E design constants (references.md §1.1, COMPUTED values). */
+    /** Pole frequencies from the Annex E design constants (docs/references.md §1.1, COMPUTED values). */
     @Test
     void aWeighting_polesMatchAnnexE() {
         double[] p = Weighting.polesHz();
@@ -39,7 +39,7 @@ class WeightingTest {
         assertEquals(12194.217, p[3], 1e-3);
     }
 
-    /** references.md §11: A(997 Hz) = −0.009 dB, A(19.95 kHz) = −9.32 dB (COMPUTED there). */
+    /** docs/references.md §11: A(997 Hz) = −0.009 dB, A(19.95 kHz) = −9.32 dB (COMPUTED there). */
     @Test
     void aWeighting_checkFrequencies() {
         assertEquals(-0.009, Weighting.A.db(997), 0.0005);

@@ -5,7 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import org.jtransforms.fft.DoubleFFT_1D;
 import org.junit.jupiter.api.Test;
 
-/** Window properties computed from the coefficients, against references.md §5.2 (Harris 1978, Heinzel 2002, Solomon 1994). */
+/** Window properties computed from the coefficients, against docs/references.md §5.2 (Harris 1978, Heinzel 2002, Solomon 1994). */
 class WindowTest {
     static final int N = 4096;
 
@@ -28,7 +28,7 @@ class WindowTest {
 
     @Test
     void cosineSumWindows_sidelobesAndEnbwMatchPublished() {
-        // {PSLL computed in references.md §5.2, ENBW bins}
+        // {PSLL computed in docs/references.md §5.2, ENBW bins}
         check(Window.HANN, -31.47, 1.5000);
         check(Window.BLACKMAN_HARRIS_4, -92.01, 2.0044);
         check(Window.BLACKMAN_HARRIS_7, -180.04, 2.6319);
@@ -42,7 +42,7 @@ class WindowTest {
     }
 
     /**
-     * Normalisation: the Blackman-Harris sets sum to 1 (peak 1 at the centre, references.md §12 item 1 rule);
+     * Normalisation: the Blackman-Harris sets sum to 1 (peak 1 at the centre, docs/references.md §12 item 1 rule);
      * the flat-tops use a0 = 1 (Heinzel 2002), so their coherent gain Σw/N is 1.
      */
     @Test

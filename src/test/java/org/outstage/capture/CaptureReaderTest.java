@@ -91,7 +91,7 @@ class CaptureReaderTest {
     void probeFactorOnWav_ignoredWithWarning() throws Exception {
         Capture c = CaptureReader.open(sineWav("p.wav"), CaptureOptions.none().withProbeFactor(10));
         assertEquals(1.0, c.scale());
-        assertEquals(List.of("p.wav: the probe factor applies to scope CSV files only; ignored for this WAV (use the full-scale voltage)"), c.warnings());
+        assertEquals(List.of("the probe factor applies to scope CSV files only; ignored for this WAV (use the full-scale voltage)"), c.warnings());
     }
 
     @Test

@@ -16,10 +16,10 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
- * Scope CSV layouts of references.md §9, each as a synthetic fixture generated here. Content: 1 V peak 1 kHz sine
+ * Scope CSV layouts of docs/references.md §9, each as a synthetic fixture generated here. Content: 1 V peak 1 kHz sine
  * plus a 3rd harmonic of 10 mV peak (1 %), sampled at 1 MHz for exactly two cycles (2000 points). Oracles: the
  * values as printed (parsed back with {@link Double#parseDouble}) and a single-bin DFT, which for a whole number of
- * cycles returns the peak amplitude of each harmonic exactly (Fourier series orthogonality; references.md §9 suggests
+ * cycles returns the peak amplitude of each harmonic exactly (Fourier series orthogonality; docs/references.md §9 suggests
  * this content so that parser and THD tests share one oracle).
  */
 class ScopeCsvReaderTest {
@@ -135,7 +135,7 @@ class ScopeCsvReaderTest {
         StringBuilder s = new StringBuilder("Record Length,2500\nSample Interval,1e-06\n");
         for (int i = 0; i < N; i++) s.append(e(signal(i))).append('\n');
         Capture c = read(file("kv3.csv", s.toString()));
-        assertEquals(List.of("kv3.csv: line 1: record length says 2500 points, the file has 2000 data rows"), c.warnings());
+        assertEquals(List.of("line 1: record length says 2500 points, the file has 2000 data rows"), c.warnings());
     }
 
     @Test
@@ -207,7 +207,7 @@ class ScopeCsvReaderTest {
 
     @Test
     void rawCodesWithScalingPreamble_convertedToVolts() throws Exception {
-        // v = (code − y_ref)·y_inc + y_org, t from x_increment (references.md §9, layout 5)
+        // v = (code − y_ref)·y_inc + y_org, t from x_increment (docs/references.md §9, layout 5)
         double yInc = 0.01, yRef = 128, yOrg = 0.05;
         StringBuilder s = new StringBuilder("x_increment,1e-6\nx_origin,0\nx_reference,0\ny_increment,0.01\ny_origin,0.05\ny_reference,128\n");
         int[] codes = new int[N];
@@ -266,7 +266,7 @@ class ScopeCsvReaderTest {
     @Test
     void fullScaleVoltsOnCsv_ignoredWithWarning() throws Exception {
         Capture c = ScopeCsvReader.read(file("fs.csv", "time,CH1\n0,1\n1e-6,2\n"), CaptureOptions.none().withFullScaleVolts(5));
-        assertEquals(List.of("fs.csv: the full-scale voltage applies to WAV files only; ignored for this scope CSV (already in volts)"), c.warnings());
+        assertEquals(List.of("the full-scale voltage applies to WAV files only; ignored for this scope CSV (already in volts)"), c.warnings());
         assertArrayEquals(new double[] {1, 2}, c.readChannel(0));
     }
 

@@ -5,7 +5,7 @@ import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 
-/** Builds WAV files byte by byte for tests, following the RIFF / WAVEFORMATEXTENSIBLE / ds64 layouts of references.md §10. */
+/** Builds WAV files byte by byte for tests, following the RIFF / WAVEFORMATEXTENSIBLE / ds64 layouts of docs/references.md §10. */
 final class WavBytes {
     private final ByteArrayOutputStream body = new ByteArrayOutputStream();
     private String magic = "RIFF";

@@ -22,8 +22,8 @@ import org.junit.jupiter.params.provider.ValueSource;
 
 /**
  * WAV reading. Oracle for sample values: the integer code divided by 2^(bits−1) (the convention documented in
- * {@link WavReader}; 8-bit is unsigned with 128 = zero, references.md §10), and floats bit-exact. Layouts follow
- * the RIFF/WAVEFORMATEXTENSIBLE/RF64 descriptions in references.md §10 (EBU Tech 3306 for ds64).
+ * {@link WavReader}; 8-bit is unsigned with 128 = zero, docs/references.md §10), and floats bit-exact. Layouts follow
+ * the RIFF/WAVEFORMATEXTENSIBLE/RF64 descriptions in docs/references.md §10 (EBU Tech 3306 for ds64).
  */
 class WavReaderTest {
     @TempDir Path dir;
@@ -95,7 +95,7 @@ class WavReaderTest {
 
     @Test
     void extensiblePcm_20bitsLeftJustifiedIn24_readsValidCodeOverTwoToNineteen() throws Exception {
-        // 20 valid bits, left-justified: container code = valid code << 4 (Microsoft WAVEFORMATEXTENSIBLE, references.md §10)
+        // 20 valid bits, left-justified: container code = valid code << 4 (Microsoft WAVEFORMATEXTENSIBLE, docs/references.md §10)
         long[] valid = {-(1 << 19), (1 << 19) - 1, 0, 12345, -54321};
         long[] container = new long[valid.length];
         for (int i = 0; i < valid.length; i++) container[i] = valid[i] << 4;
@@ -167,7 +167,7 @@ class WavReaderTest {
         Path p = write("odd.wav", WavBytes.riff().chunk("fmt ", WavBytes.fmt(1, 2, 8000, 4, 16)).chunk("data", data).bytes());
         Capture cap = WavReader.read(p);
         assertEquals(4, cap.frameCount());
-        assertEquals(List.of("odd.wav: byte 40: data chunk size 18 is not a whole number of 4-byte frames; the last partial frame is ignored"), cap.warnings());
+        assertEquals(List.of("byte 40: data chunk size 18 is not a whole number of 4-byte frames; the last partial frame is ignored"), cap.warnings());
         assertArrayEquals(expected(c[0], 16), cap.readChannel(0));
     }
 
@@ -179,7 +179,7 @@ class WavReaderTest {
         Path p = write("cut.wav", WavBytes.riff().chunk("fmt ", WavBytes.fmt(1, 2, 8000, 4, 16)).chunk("data", data.length, cut, false).bytes());
         Capture cap = WavReader.read(p);
         assertEquals(9, cap.frameCount());
-        assertEquals(List.of("cut.wav: byte 40: data chunk claims 40 bytes but the file holds 38 after its header; read 9 whole frames"), cap.warnings());
+        assertEquals(List.of("byte 40: data chunk claims 40 bytes but the file holds 38 after its header; read 9 whole frames"), cap.warnings());
         assertArrayEquals(java.util.Arrays.copyOf(expected(c[1], 16), 9), cap.readChannel(1));
     }
 
@@ -194,7 +194,7 @@ class WavReaderTest {
         assertEquals(5, cap.frameCount());
         assertArrayEquals(expected(c[0], 16), cap.readChannel(0));
         assertEquals(1, cap.warnings().size());
-        assertTrue(cap.warnings().get(0).startsWith("claim.wav: byte 40: data chunk claims " + claimed + " bytes but the file holds 10"), cap.warnings().get(0));
+        assertTrue(cap.warnings().get(0).startsWith("byte 40: data chunk claims " + claimed + " bytes but the file holds 10"), cap.warnings().get(0));
     }
 
     @Test

@@ -15,7 +15,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.EnumSource;
 
-/** WavWriter round trips; oracle: code/2^(bits−1) values come back bit-exact, floats as stored (references.md §10). */
+/** WavWriter round trips; oracle: code/2^(bits−1) values come back bit-exact, floats as stored (docs/references.md §10). */
 class WavWriterTest {
     @TempDir Path dir;
 

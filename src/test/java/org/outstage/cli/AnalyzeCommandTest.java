@@ -18,7 +18,7 @@ class AnalyzeCommandTest {
 
     /**
      * y = x + a3·x³ driven by x = A·cos: H3 = a3·A³/4, H1 = A + 3a3·A³/4 (Chebyshev expansion,
-     * references.md §6.4), so THD = (a3A²/4)/(1 + 3a3A²/4). Calibrated with --fs-volts 40 into 8 Ω.
+     * docs/references.md §6.4), so THD = (a3A²/4)/(1 + 3a3A²/4). Calibrated with --fs-volts 40 into 8 Ω.
      */
     private Path cubicWav(String name, double amplitude, double a3) throws Exception {
         double fs = 48000, f = 997;
@@ -51,7 +51,7 @@ class AnalyzeCommandTest {
         assertEquals(1.0, c.get("channel"));
         assertEquals(48000.0, c.get("sample_rate_hz"));
         assertEquals("V", c.get("unit"));
-        double expectedThd = (a3 * a * a / 4) / (1 + 3 * a3 * a * a / 4); // Chebyshev, references.md §6.4
+        double expectedThd = (a3 * a * a / 4) / (1 + 3 * a3 * a * a / 4); // Chebyshev, docs/references.md §6.4
         Map<String, Object> thd = (Map<String, Object>) c.get("thd");
         assertEquals(expectedThd, (Double) thd.get("ratio"), 1e-6 * expectedThd);
         assertEquals(100 * expectedThd, (Double) thd.get("percent"), 1e-4 * expectedThd);

@@ -65,7 +65,7 @@ class SessionPipelineTest {
         List<Object> st = (List<Object>) show.get("steps");
         assertEquals(5, st.size());
         // Expected gain at zero: with s = a·sinθ, the 3rd harmonic is 1e-3·a·sin3θ = 1e-3·(3s − 4s³/a²) (Chebyshev identity
-        // sin3θ = 3sinθ − 4sin³θ, references.md §6.4). Its incremental gain is 1 + 0.003 at zero; its chord over the outer
+        // sin3θ = 3sinθ − 4sin³θ, docs/references.md §6.4). Its incremental gain is 1 + 0.003 at zero; its chord over the outer
         // swing (0.5a..0.9a, the stage's definition) is 1 + 1e-3·((3·0.9 − 4·0.729) − (3·0.5 − 4·0.125))/0.4 = 1 − 0.00304.
         // The tanh bump adds c at zero and nothing over the outer swing (sech²(10) ≈ 8e-9). So g0 = (1.003 + c)/0.99696.
         double previous = 0;

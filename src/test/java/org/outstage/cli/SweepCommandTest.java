@@ -18,7 +18,7 @@ class SweepCommandTest {
 
     static final double A3 = 0.02, FS_VOLTS = 40, LOAD = 8;
 
-    /** Chebyshev: x + a3·x³ driven by A·cos gives THD = (a3A²/4)/(1 + 3a3A²/4) (references.md §6.4). */
+    /** Chebyshev: x + a3·x³ driven by A·cos gives THD = (a3A²/4)/(1 + 3a3A²/4) (docs/references.md §6.4). */
     static double thd(double a) { return (A3 * a * a / 4) / (1 + 0.75 * A3 * a * a); }
 
     /** Power V_rms²/R of the output: H1 and H3 (A + ¾a3A³ and a3A³/4 in full-scale units). */

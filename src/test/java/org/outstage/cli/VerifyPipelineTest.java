@@ -20,7 +20,7 @@ class VerifyPipelineTest {
     static final int FS = 48_000;
     static final double FS_VOLTS = 40; // 1.0 FS = 40 V peak
 
-    /** peak (V) of a sine giving P watts into 8 ohm: P = (Vpk/sqrt2)^2 / R (references.md §3) */
+    /** peak (V) of a sine giving P watts into 8 ohm: P = (Vpk/sqrt2)^2 / R (docs/references.md §3) */
     static double peakFor(double watts) { return Math.sqrt(2 * 8 * watts); }
 
     static double[] tone(double hz, double peakVolts, double h3Ratio) {

@@ -15,10 +15,10 @@ import org.junit.jupiter.api.Test;
 import org.outstage.verify.KeyFigures;
 
 class BiasAdvisorTest {
-    // Emitter-follower output stage, small-signal model (references.md §7, Oliver 1971): at idle both halves
+    // Emitter-follower output stage, small-signal model (docs/references.md §7, Oliver 1971): at idle both halves
     // conduct, Zout = (re + RE)/2 with re = VT/Iq; at large signal one half, Zout = RE. Gain at zero relative to
     // the large-signal gain: g0 = (RL + RE) / (RL + (re + RE)/2). With Vq = Iq*RE, re = VT*RE/Vq; g0 = 1 at Vq = VT.
-    static final double VT_MV = 25.852; // kT/q at 300 K (references.md §7, COMPUTED from exact 2019 SI constants)
+    static final double VT_MV = 25.852; // kT/q at 300 K (docs/references.md §7, COMPUTED from exact 2019 SI constants)
     static final double RE = 0.22;
     static final double RL = 8.0;
 

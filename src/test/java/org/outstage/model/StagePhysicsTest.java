@@ -18,14 +18,14 @@ class StagePhysicsTest {
 
     @Test
     void thermalVoltage_matchesExactSiValues() {
-        // references.md §7: VT = kT/q with exact 2019 SI k and q: 25.852 mV at 300 K, 25.693 mV at 298.15 K.
+        // docs/references.md §7: VT = kT/q with exact 2019 SI k and q: 25.852 mV at 300 K, 25.693 mV at 298.15 K.
         assertEquals(25.852e-3, StageParameters.builder().temperatureCelsius(300 - 273.15).build().thermalVolts(), 0.5e-6);
         assertEquals(25.693e-3, StageParameters.builder().build().thermalVolts(), 0.5e-6);
     }
 
     @Test
     void cfpCompositeCurrentGain_isBeta1TimesBeta2PlusBeta1() {
-        // Common practice (references.md §7): CFP composite gain β1·β2 + β1; driver β 120, output β 40 gives 4920.
+        // Common practice (docs/references.md §7): CFP composite gain β1·β2 + β1; driver β 120, output β 40 gives 4920.
         // Measured on the model: current the upper pair draws from the rail (output emitter) over the driver's base current.
         StageModel m = model(StageParameters.builder().topology("cfp").betaDriver(120).betaOutput(40));
         OperatingPoint op = m.operatingPoint(10);
@@ -105,7 +105,7 @@ class StagePhysicsTest {
 
     @Test
     void pairAtOliverBias_gainAtZeroEqualsLargeCurrentAsymptote() {
-        // Oliver (HP Journal 1971), derivation in references.md §7: with Iq·Re = VT each half's re = Re, so Zout at
+        // Oliver (HP Journal 1971), derivation in docs/references.md §7: with Iq·Re = VT each half's re = Re, so Zout at
         // crossover = Re and the gain there is RL/(RL + Re) = 0.97324 for Re 0.22 Ω, RL 8 Ω.
         StageParameters base = StageParameters.builder().build();
         StageModel m = StageModel.of(base.withBias(new Bias.EmitterDropVolts(base.thermalVolts())), S);
@@ -115,7 +115,7 @@ class StagePhysicsTest {
 
     @Test
     void pairAroundOliverBias_gainDipsBelowAndDoublesAbove() {
-        // references.md §7 (COMPUTED with an exponential model): gain at crossover 0.9604 at 0.5× and 0.9798 at 2× the
+        // docs/references.md §7 (COMPUTED with an exponential model): gain at crossover 0.9604 at 0.5× and 0.9798 at 2× the
         // Oliver current, against 0.9710 at large signal (gm-doubling above the optimum).
         StageParameters base = StageParameters.builder().build();
         double vt = base.thermalVolts();
@@ -125,7 +125,7 @@ class StagePhysicsTest {
 
     @Test
     void emitterFollowerOptimum_isNearOneThermalVoltage() {
-        // Oliver (1971), references.md §7 (PARTIAL, from a summary): optimum near Iq·Re = VT for an emitter follower.
+        // Oliver (1971), docs/references.md §7 (PARTIAL, from a summary): optimum near Iq·Re = VT for an emitter follower.
         // Our criterion (flattest gain over |Vout| <= 21 V) lands above VT because re = VT/I is not yet negligible at 21 V.
         StageModel m = model(StageParameters.builder());
         OptimumBias o = m.optimumBias(21);
@@ -139,7 +139,7 @@ class StagePhysicsTest {
 
     @Test
     void cfpWithRbe_optimumMuchLowerThanEmitterFollower() {
-        // From memory (references.md §7, low confidence): a CFP stage wants much less Vq than an emitter follower.
+        // From memory (docs/references.md §7, low confidence): a CFP stage wants much less Vq than an emitter follower.
         // With the usual output base-emitter resistor the driver's standing current (about Vbe/Rbe) raises the
         // crossover transconductance, so the optimum falls: about 5 mV with 100 ohm against 46 mV for the Darlington.
         double darlington = model(StageParameters.builder().topology("darlington")).optimumBias(21).vqVolts();

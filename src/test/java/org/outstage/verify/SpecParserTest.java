@@ -36,7 +36,7 @@ class SpecParserTest {
 
     @Test
     void thdInDecibels_convertsToRatio() {
-        // -60 dB = 0.1 % (references.md §11)
+        // -60 dB = 0.1 % (docs/references.md §11)
         SpecProfile p = SpecParser.parse("thd <= -60 dB at 1 kHz\n", "x.spec");
         assertEquals(0.001, p.limits().get(0).bound(), 1e-12);
         assertEquals(-60.0, p.limits().get(0).boundDisplay(), 1e-9);

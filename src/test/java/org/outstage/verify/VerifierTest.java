@@ -18,7 +18,7 @@ class VerifierTest {
 
     @Test
     void thdAtOneWatt_picksCaptureAtThatPower_marginInPercent() {
-        // 1 W into 8 ohm = 2.828 V rms (references.md §3)
+        // 1 W into 8 ohm = 2.828 V rms (docs/references.md §3)
         List<MeasuredChannel> ch = List.of(new MeasuredChannel("1w.wav", 1, at(1000, Math.sqrt(8), 0.0003, 8)),
                 new MeasuredChannel("10w.wav", 1, at(1000, Math.sqrt(80), 0.002, 8)));
         LimitResult r = only("thd <= 0.05 % at 1 kHz, 1 W, 8 ohm", ch);

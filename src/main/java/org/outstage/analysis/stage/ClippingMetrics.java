@@ -9,7 +9,7 @@ import java.util.OptionalDouble;
  * the ideal keeps moving (gain under about 0.2 there). A clean sine's peak region spans about one tolerance.
  *
  * <p>{@code asymmetryPercent} = 100·(pos − |neg|)/((pos + |neg|)/2), only when both sides clip (no standard
- * defines clipping asymmetry; references.md §6.3). {@code clipsFirst} compares the ideal output at which each
+ * defines clipping asymmetry; docs/references.md §6.3). {@code clipsFirst} compares the ideal output at which each
  * side reaches its flat top; onsets within 1 % of each other are {@code BOTH}.
  *
  * @param detected         any side clipped

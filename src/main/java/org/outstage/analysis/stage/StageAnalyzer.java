@@ -27,7 +27,7 @@ import org.outstage.analysis.SineFitter;
  *
  * <p>Worked example (replayed in {@code StageAnalyzerTest}): 2 s at 48 kHz of 10·cos(2π·997t) through a dead
  * zone of ±0.5 V gives gain_at_zero ≈ 0 and verdict {@code underbiased}, notch depth ≈ 0.5·b1/10 V where b1 is
- * the dead-zone output's fundamental (references.md §6.2 with L = 0.5).
+ * the dead-zone output's fundamental (docs/references.md §6.2 with L = 0.5).
  *
  * <p>Pure and thread-safe: no state, no I/O.
  */

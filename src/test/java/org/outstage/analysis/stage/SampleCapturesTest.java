@@ -40,7 +40,7 @@ class SampleCapturesTest {
         assertEquals(BiasVerdict.OVERBIASED, diagnose("da60-bias-90mV-40W.wav").crossover().verdict());
     }
 
-    /** 26 mV across 0.22 Ω at 40 W: truth gain_at_zero from the pair's small-signal analysis (references.md §7). */
+    /** 26 mV across 0.22 Ω at 40 W: truth gain_at_zero from the pair's small-signal analysis (docs/references.md §7). */
     @Test
     void bias26mV_gainAtZeroMatchesPairTruth() throws Exception {
         StageFixtures.Pair pair = StageFixtures.Pair.of(0.026 / 0.22);

@@ -47,7 +47,7 @@ class SignalCheckTest {
         assertTrue(reason(StageFixtures.noisy(new double[N], 1e-3, 5)).startsWith("no dominant tone"));
     }
 
-    /** Square wave ±1 (Fourier series: 4/(nπ) odd harmonics, references.md §6.1): two levels, refused. */
+    /** Square wave ±1 (Fourier series: 4/(nπ) odd harmonics, docs/references.md §6.1): two levels, refused. */
     @Test
     void squareWave_reasonSquare() {
         double[] y = StageFixtures.drive(N, FS, F, 1, 0.3, v -> Math.signum(v));

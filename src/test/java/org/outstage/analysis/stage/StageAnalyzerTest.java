@@ -22,7 +22,7 @@ class StageAnalyzerTest {
 
     /**
      * Dead zone ±d: output = input − clip(input, ±d), so its fundamental is A − b1(clip at d) with b1 from
-     * references.md §6.2. Against the ideal (that fundamental), the largest deviation is at the notch edge:
+     * docs/references.md §6.2. Against the ideal (that fundamental), the largest deviation is at the notch edge:
      * d·b1dz/A; the gain is 0 inside |x| &lt; d·b1dz/A, so the notch is 2·d·b1dz/A wide.
      */
     @Test
@@ -46,7 +46,7 @@ class StageAnalyzerTest {
         assertFalse(m.transfer().hysteresis().detected());
     }
 
-    /** gain_at_zero of the exponential-law pair against its small-signal analysis (references.md §7). */
+    /** gain_at_zero of the exponential-law pair against its small-signal analysis (docs/references.md §7). */
     @Test
     void exponentialPair_gainAtZeroMatchesSmallSignalAnalysis() {
         double a = 18;
@@ -63,7 +63,7 @@ class StageAnalyzerTest {
 
     /**
      * Level independence of the verdict. At Oliver's condition (Iq·Re = VT; Oliver, HP Journal 1971, from memory —
-     * references.md §7) the small-signal gain at zero, RL/(RL + (Re + VT/Iq)/2), equals the large-current asymptote
+     * docs/references.md §7) the small-signal gain at zero, RL/(RL + (Re + VT/Iq)/2), equals the large-current asymptote
      * RL/(RL + Re) exactly, at every level. The stated gain_at_zero (against the outer-swing mean) reads higher at
      * lower levels, where VT/I still adds over the outer swing; the verdict's ratio against the asymptote must not.
      */
@@ -119,7 +119,7 @@ class StageAnalyzerTest {
         assertEquals(BiasVerdict.OVERBIASED, m.crossover().verdict());
     }
 
-    /** Symmetric hard clip at ±0.7A (references.md §6.2): levels, fundamental, time on each rail. */
+    /** Symmetric hard clip at ±0.7A (docs/references.md §6.2): levels, fundamental, time on each rail. */
     @Test
     void symmetricHardClip_levelsAndFundamentalMatchFourierSeries() {
         double a = 10, l = 7;
@@ -154,7 +154,7 @@ class StageAnalyzerTest {
         assertEquals(ClippingMetrics.FirstSide.POSITIVE, c.clipsFirst());
     }
 
-    /** One-sided clip at +0.7A (references.md §6.3): fit DC and fundamental, only the positive side clips. */
+    /** One-sided clip at +0.7A (docs/references.md §6.3): fit DC and fundamental, only the positive side clips. */
     @Test
     void oneSidedClip_fitMatchesSection63_andOnlyPositiveClips() {
         double a = 1;

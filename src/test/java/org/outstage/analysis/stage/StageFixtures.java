@@ -7,7 +7,7 @@ import java.util.function.DoubleUnaryOperator;
 final class StageFixtures {
     private StageFixtures() {}
 
-    /** Thermal voltage at 300 K from the exact 2019 SI constants (references.md §7). */
+    /** Thermal voltage at 300 K from the exact 2019 SI constants (docs/references.md §7). */
     static final double VT_300K = 1.380649e-23 * 300 / 1.602176634e-19;
 
     /** n samples of amplitude·cos(2πft + phase) passed through {@code law}. */
@@ -38,7 +38,7 @@ final class StageFixtures {
     static double deadZone(double v, double d) { return Math.abs(v) <= d ? 0 : v - Math.copySign(d, v); }
 
     /**
-     * Complementary emitter-follower pair, exponential law Ic = Is·exp(Vbe/VT) (Sedra &amp; Smith; references.md §7),
+     * Complementary emitter-follower pair, exponential law Ic = Is·exp(Vbe/VT) (Sedra &amp; Smith; docs/references.md §7),
      * emitter resistors Re, load RL, bias set so that each device idles at Iq. Base currents neglected.
      * Solved per point by Newton with a bisection safeguard.
      */
