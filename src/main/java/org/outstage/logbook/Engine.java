@@ -37,6 +37,15 @@ interface Engine extends AutoCloseable {
     /** The stored bytes of a capture, streamed, when the store has them. */
     Optional<InputStream> openCapture(CaptureRef ref);
 
+    /** Which of these SHA-256 hashes the store already holds. */
+    java.util.Set<String> presentCaptures(java.util.Collection<String> sha256s);
+
+    /**
+     * Stores captures read from another store (each checked against its hash while streaming; one transaction on a
+     * server). A capture whose source has no bytes is left out. Returns the hashes stored.
+     */
+    java.util.Set<String> storeCaptures(java.util.List<CaptureRef> refs, java.util.function.Function<CaptureRef, Optional<InputStream>> source);
+
     /** The highest schema version applied. */
     int schemaVersion();
 

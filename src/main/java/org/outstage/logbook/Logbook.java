@@ -493,6 +493,148 @@ public final class Logbook implements AutoCloseable {
         });
     }
 
+    /** The stable id of a session (a UUID made at its start; backfilled for sessions older than schema 4). */
+    public synchronized String sessionUuid(long sessionId) {
+        return read(c -> {
+            try (PreparedStatement q = c.prepareStatement("SELECT uuid FROM sessions WHERE id = ?")) {
+                q.setLong(1, sessionId);
+                try (ResultSet rs = q.executeQuery()) {
+                    if (!rs.next()) throw new IllegalArgumentException("no session " + sessionId + " in logbook " + engine.display());
+                    return rs.getString(1);
+                }
+            }
+        });
+    }
+
+    /** Captures stored per transaction while pushing (and at most this many bytes). */
+    static final int PUSH_CAPTURE_BATCH = 256;
+    static final long PUSH_CAPTURE_BATCH_BYTES = 64L << 20;
+
+    /**
+     * Copies this logbook's units, sessions, steps, measurements and captures into {@code target} (typically a
+     * bench's SQLite file into the shop's server). Idempotent: a session is known by its UUID, a step by its number in
+     * the session, a capture by its SHA-256; pushing twice copies nothing the second time, and pushing a session
+     * again after more steps copies only the new steps (and its end, if it ended since). Measurements outside steps
+     * are copied in their order, those beyond the count the target already has. Each session's rows are one
+     * transaction in the target; its captures go first (so a step never names a capture the target lacks, unless the
+     * source lacked it too).
+     */
+    public PushResult pushTo(Logbook target) {
+        Objects.requireNonNull(target, "target");
+        if (target == this) throw new IllegalArgumentException("cannot push a logbook into itself");
+        int sessionsAdded = 0;
+        int sessionsUpdated = 0;
+        int steps = 0;
+        int measurements = 0;
+        int captures = 0;
+        int missing = 0;
+        List<Session> all = sessions();
+        for (Session s : all) {
+            String uuid = sessionUuid(s.id());
+            SessionData d = sessionData(s.id());
+            Map<String, CaptureRef> refs = new LinkedHashMap<>();
+            for (BiasStep b : d.steps()) b.measurement().flatMap(MeasurementRecord::capture).ifPresent(r -> refs.putIfAbsent(r.sha256(), r));
+            for (MeasurementRecord m : d.measurements()) m.capture().ifPresent(r -> refs.putIfAbsent(r.sha256(), r));
+            Set<String> have = target.engine.presentCaptures(refs.keySet());
+            List<CaptureRef> batch = new ArrayList<>();
+            long batchBytes = 0;
+            for (CaptureRef r : refs.values()) {
+                if (have.contains(r.sha256())) continue;
+                batch.add(r);
+                batchBytes += r.sizeBytes();
+                if (batch.size() >= PUSH_CAPTURE_BATCH || batchBytes >= PUSH_CAPTURE_BATCH_BYTES) {
+                    int n = target.engine.storeCaptures(batch, engine::openCapture).size();
+                    captures += n;
+                    missing += batch.size() - n;
+                    batch = new ArrayList<>();
+                    batchBytes = 0;
+                }
+            }
+            if (!batch.isEmpty()) {
+                int n = target.engine.storeCaptures(batch, engine::openCapture).size();
+                captures += n;
+                missing += batch.size() - n;
+            }
+            int[] r = target.mergeSession(uuid, d);
+            if (r[0] == 1) sessionsAdded++;
+            else if (r[0] == 2) sessionsUpdated++;
+            steps += r[1];
+            measurements += r[2];
+        }
+        return new PushResult(all.size(), sessionsAdded, sessionsUpdated, steps, measurements, captures, missing);
+    }
+
+    /** Merges one pushed session in one transaction: {0 unchanged | 1 added | 2 updated, steps added, measurements added}. */
+    private synchronized int[] mergeSession(String uuid, SessionData d) {
+        return write(c -> {
+            Long sid = null;
+            try (PreparedStatement q = c.prepareStatement("SELECT id, ended_at FROM sessions WHERE uuid = ?")) {
+                q.setString(1, uuid);
+                try (ResultSet rs = q.executeQuery()) {
+                    if (rs.next()) sid = rs.getLong(1);
+                }
+            }
+            int state = 0;
+            Session s = d.session();
+            if (sid == null) {
+                long unitId = unitId(c, d.unit());
+                try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, ended_at, notes, uuid)"
+                        + " VALUES (?,?,?,?,?,?)", Statement.RETURN_GENERATED_KEYS)) {
+                    ins.setLong(1, unitId);
+                    ins.setString(2, s.kind().label());
+                    ins.setString(3, s.startedAt().toString());
+                    setText(ins, 4, s.endedAt().map(Instant::toString));
+                    ins.setString(5, s.notes());
+                    ins.setString(6, uuid);
+                    ins.executeUpdate();
+                    sid = generatedKey(ins);
+                }
+                state = 1;
+            } else {
+                engine.lockSession(c, sid);
+                if (s.endedAt().isPresent()) {
+                    try (PreparedStatement u = c.prepareStatement("UPDATE sessions SET ended_at = ? WHERE id = ? AND ended_at IS NULL")) {
+                        u.setString(1, s.endedAt().get().toString());
+                        u.setLong(2, sid);
+                        if (u.executeUpdate() > 0) state = 2;
+                    }
+                }
+            }
+            Set<Integer> seqs = new java.util.HashSet<>();
+            int outside = 0;
+            if (state != 1) {
+                try (PreparedStatement q = c.prepareStatement("SELECT seq FROM bias_steps WHERE session_id = ?")) {
+                    q.setLong(1, sid);
+                    try (ResultSet rs = q.executeQuery()) {
+                        while (rs.next()) seqs.add(rs.getInt(1));
+                    }
+                }
+                try (PreparedStatement q = c.prepareStatement("SELECT count(*) FROM measurements m WHERE m.session_id = ?"
+                        + " AND NOT EXISTS (SELECT 1 FROM bias_steps b WHERE b.measurement_id = m.id)")) {
+                    q.setLong(1, sid);
+                    try (ResultSet rs = q.executeQuery()) {
+                        rs.next();
+                        outside = rs.getInt(1);
+                    }
+                }
+            }
+            int steps = 0;
+            for (BiasStep step : d.steps()) {
+                if (seqs.contains(step.seq())) continue;
+                Long mid = step.measurement().isPresent() ? insertMeasurement(c, sid, step.measurement().get()) : null;
+                insertStep(c, sid, step.seq(), step, mid);
+                steps++;
+            }
+            int ms = 0;
+            for (int i = outside; i < d.measurements().size(); i++) {
+                insertMeasurement(c, sid, d.measurements().get(i));
+                ms++;
+            }
+            if (state == 0 && (steps > 0 || ms > 0)) state = 2;
+            return new int[] {state, steps, ms};
+        });
+    }
+
     /** A structural check: SQLite's {@code PRAGMA integrity_check}, or the shared schema's links ("ok" when sound). */
     public synchronized String integrityCheck() {
         return engine.integrityCheck();

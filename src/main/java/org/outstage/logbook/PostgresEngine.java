@@ -204,6 +204,55 @@ final class PostgresEngine implements Engine {
         return new CaptureRef(hash, file.getFileName().toString(), bytes);
     }
 
+    @Override
+    public java.util.Set<String> presentCaptures(java.util.Collection<String> sha256s) {
+        if (sha256s.isEmpty()) return new java.util.HashSet<>();
+        return read(c -> {
+            java.util.Set<String> out = new java.util.HashSet<>();
+            try (PreparedStatement q = c.prepareStatement("SELECT sha256 FROM capture_blobs WHERE sha256 = ANY (?)")) {
+                q.setArray(1, c.createArrayOf("text", sha256s.toArray()));
+                try (ResultSet rs = q.executeQuery()) {
+                    while (rs.next()) out.add(rs.getString(1));
+                }
+            }
+            return out;
+        });
+    }
+
+    /** One transaction for the batch; each capture streamed in and its hash checked before the commit. */
+    @Override
+    public java.util.Set<String> storeCaptures(java.util.List<CaptureRef> refs,
+                                               java.util.function.Function<CaptureRef, Optional<InputStream>> source) {
+        return write(c -> {
+            java.util.Set<String> stored = new java.util.HashSet<>();
+            try (PreparedStatement ins = c.prepareStatement(
+                    "INSERT INTO capture_blobs(sha256, size_bytes, content) VALUES (?,?,?) ON CONFLICT (sha256) DO NOTHING")) {
+                for (CaptureRef ref : refs) {
+                    Optional<InputStream> in = source.apply(ref);
+                    if (in.isEmpty()) continue;
+                    MessageDigest md = MessageDigest.getInstance("SHA-256");
+                    try (InputStream s = new DigestInputStream(in.get(), md)) {
+                        ins.setString(1, ref.sha256());
+                        ins.setLong(2, ref.sizeBytes());
+                        ins.setBinaryStream(3, s, ref.sizeBytes());
+                        ins.executeUpdate();
+                    }
+                    String got = HexFormat.of().formatHex(md.digest());
+                    if (!got.equals(ref.sha256())) {
+                        throw new SQLException("capture " + ref.fileName() + " read with SHA-256 " + got + ", not " + ref.sha256()
+                                + "; nothing of this batch was stored");
+                    }
+                    stored.add(ref.sha256());
+                }
+            } catch (IOException e) {
+                throw new SQLException("cannot read a capture to push: " + e.getMessage(), e);
+            } catch (NoSuchAlgorithmException e) {
+                throw new IllegalStateException("SHA-256 missing from the JDK", e);
+            }
+            return stored;
+        });
+    }
+
     private static boolean hasBlob(Connection c, String sha) throws SQLException {
         try (PreparedStatement q = c.prepareStatement("SELECT 1 FROM capture_blobs WHERE sha256 = ?")) {
             q.setString(1, sha);

@@ -277,6 +277,55 @@ final class SqliteEngine implements Engine {
         }
     }
 
+    @Override
+    public java.util.Set<String> presentCaptures(java.util.Collection<String> sha256s) {
+        java.util.Set<String> out = new java.util.HashSet<>();
+        try (var files = Files.list(capturesDir)) {
+            java.util.Set<String> wanted = new java.util.HashSet<>(sha256s);
+            files.forEach(f -> {
+                String n = f.getFileName().toString();
+                String sha = n.length() >= 64 ? n.substring(0, 64) : "";
+                if (wanted.contains(sha)) out.add(sha);
+            });
+        } catch (IOException e) {
+            throw new LogbookException("cannot list " + capturesDir + ": " + e.getMessage(), e);
+        }
+        return out;
+    }
+
+    @Override
+    public java.util.Set<String> storeCaptures(java.util.List<CaptureRef> refs,
+                                               java.util.function.Function<CaptureRef, Optional<InputStream>> source) {
+        java.util.Set<String> stored = new java.util.HashSet<>();
+        for (CaptureRef ref : refs) {
+            Optional<InputStream> in = source.apply(ref);
+            if (in.isEmpty()) continue;
+            Path dirTmp = null;
+            try (InputStream s = in.get()) {
+                dirTmp = Files.createTempDirectory(capturesDir, ".push-");
+                Path tmp = dirTmp.resolve(ref.fileName().replaceAll("[/\\\\]", "_"));
+                Files.copy(s, tmp);
+                CaptureRef got = storeCapture(tmp);
+                if (!got.sha256().equals(ref.sha256())) {
+                    throw new LogbookException("capture " + ref.fileName() + " read back with SHA-256 " + got.sha256() + ", not " + ref.sha256());
+                }
+                stored.add(ref.sha256());
+            } catch (IOException e) {
+                throw new LogbookException("cannot copy capture " + ref.sha256() + " into " + capturesDir + ": " + e.getMessage(), e);
+            } finally {
+                if (dirTmp != null) {
+                    try (var left = Files.list(dirTmp)) {
+                        for (Path f : left.toList()) Files.deleteIfExists(f);
+                        Files.deleteIfExists(dirTmp);
+                    } catch (IOException ignored) {
+                        // a stray temp folder is never referenced
+                    }
+                }
+            }
+        }
+        return stored;
+    }
+
     /** The stored copy of a capture, when it is in the folder. */
     Optional<Path> capturePath(CaptureRef ref) {
         Path p = storedPath(ref.sha256(), ref.fileName());

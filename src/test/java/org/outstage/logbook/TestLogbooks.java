@@ -17,23 +17,23 @@ import org.junit.jupiter.api.Assumptions;
  * {@code tools/test-postgres}). Without a reachable server the PostgreSQL cases are skipped with the reason,
  * except under CI ({@code CI=true}), where they fail.
  */
-final class TestLogbooks {
+public final class TestLogbooks {
     private TestLogbooks() {}
 
-    static final String SQLITE = "sqlite";
-    static final String POSTGRES = "postgresql";
+    public static final String SQLITE = "sqlite";
+    public static final String POSTGRES = "postgresql";
     static final String URL_ENV = "OUTSTAGE_TEST_PG_URL";
 
     private static final AtomicInteger COUNTER = new AtomicInteger();
     private static volatile String problem;
     private static volatile boolean checked;
 
-    static Stream<String> engines() {
+    public static Stream<String> engines() {
         return Stream.of(SQLITE, POSTGRES);
     }
 
     /** A new, empty logbook location of that engine. */
-    static String newLogbook(String engine, Path dir, String name) {
+    public static String newLogbook(String engine, Path dir, String name) {
         if (engine.equals(SQLITE)) return dir.resolve(name + ".db").toString();
         LogbookLocation.Server base = requireServer();
         String db = "outstage_t_" + ProcessHandle.current().pid() + "_" + COUNTER.incrementAndGet() + "_"
@@ -47,7 +47,7 @@ final class TestLogbooks {
     }
 
     /** The test server, or a skip (outside CI) / a failure (CI=true) naming why there is none. */
-    static LogbookLocation.Server requireServer() {
+    public static LogbookLocation.Server requireServer() {
         String url = System.getenv(URL_ENV);
         if (!checked) {
             synchronized (TestLogbooks.class) {
@@ -81,7 +81,7 @@ final class TestLogbooks {
     }
 
     /** Opens a location as a test would; the PostgreSQL case checks the server first (skip or fail). */
-    static Logbook open(String location) {
+    public static Logbook open(String location) {
         if (LogbookLocation.isServer(location)) requireServer();
         return Logbook.open(location);
     }
