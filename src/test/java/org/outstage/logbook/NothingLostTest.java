@@ -20,6 +20,10 @@ import java.util.Random;
 import java.util.Set;
 import java.util.concurrent.ConcurrentHashMap;
 import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicBoolean;
+import org.junit.jupiter.api.Assertions;
+import org.junit.jupiter.api.Assumptions;
+import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
@@ -185,6 +189,79 @@ class NothingLostTest {
             assertEquals(writers * n, steps.size());
             for (int i = 0; i < steps.size(); i++) assertEquals(i + 1, steps.get(i).seq());
             assertEquals("ok", lb.integrityCheck());
+        }
+    }
+
+    /** Runs {@code tools/test-postgres ACTION} (from {@code $OUTSTAGE_TEST_PG_SCRIPT}, exported by its start). */
+    private static void server(String action) throws Exception {
+        String script = System.getenv("OUTSTAGE_TEST_PG_SCRIPT");
+        if (script == null || script.isBlank()) {
+            if ("true".equals(System.getenv("CI"))) Assertions.fail("CI=true and $OUTSTAGE_TEST_PG_SCRIPT is not set: the restart test cannot run");
+            Assumptions.abort("$OUTSTAGE_TEST_PG_SCRIPT is not set (eval \"$(tools/test-postgres start)\")");
+        }
+        Process p = new ProcessBuilder(script, action).redirectErrorStream(true).redirectOutput(ProcessBuilder.Redirect.DISCARD).start();
+        assertTrue(p.waitFor(120, TimeUnit.SECONDS), "tools/test-postgres " + action + " finished");
+        assertEquals(0, p.exitValue(), "tools/test-postgres " + action);
+    }
+
+    /**
+     * The server restarts in the middle of a session, with a writer running: every step reported saved is there,
+     * none is half-written (numbers stay contiguous). While the server is down a step is refused with a one-line
+     * message that says nothing was written; after it is back the same logbook object goes on.
+     */
+    @Test
+    void serverRestartMidSession_failureReported_noHalfStep_sessionGoesOn() throws Exception {
+        TestLogbooks.requireServer();
+        String db = TestLogbooks.newLogbook(TestLogbooks.POSTGRES, dir, "restart");
+        try (Logbook lb = TestLogbooks.open(db)) {
+            long sid = lb.startSession(UnitUnderTest.named("DA-60 #R"), SessionKind.BIAS_ADJUSTMENT, Fixtures.T0, "");
+            Random rnd = new Random(5);
+            Set<Integer> saved = java.util.concurrent.ConcurrentHashMap.newKeySet();
+            for (int i = 0; i < 3; i++) saved.add(lb.addBiasStep(sid, Fixtures.step(rnd, i, Optional.empty())).seq());
+            AtomicBoolean stop = new AtomicBoolean();
+            List<Throwable> unexpected = java.util.Collections.synchronizedList(new ArrayList<>());
+            List<String> reported = java.util.Collections.synchronizedList(new ArrayList<>());
+            Thread w = new Thread(() -> {
+                Random r = new Random(6);
+                for (int i = 0; !stop.get(); i++) {
+                    try {
+                        saved.add(lb.addBiasStep(sid, Fixtures.lightStep(r, i)).seq());
+                    } catch (LogbookUnavailableException e) {
+                        reported.add(e.getMessage());
+                    } catch (Throwable e) {
+                        unexpected.add(e);
+                    }
+                }
+            });
+            w.start();
+            Thread.sleep(300);
+            server("restart");
+            Thread.sleep(500);
+            stop.set(true);
+            w.join(60_000);
+            assertEquals(List.of(), unexpected, "only LogbookUnavailableException while the server restarts");
+            for (String m : reported) assertEquals(1, m.lines().count(), m);
+
+            server("halt");
+            LogbookUnavailableException down;
+            try {
+                down = Assertions.assertThrows(LogbookUnavailableException.class,
+                        () -> lb.addBiasStep(sid, Fixtures.step(new Random(7), 0, Optional.empty())));
+            } finally {
+                server("resume");
+            }
+            assertTrue(down.getMessage().contains("cannot reach the logbook server") && down.getMessage().contains("nothing was written"),
+                    down.getMessage());
+            assertEquals(1, down.getMessage().lines().count());
+
+            BiasStep next = lb.addBiasStep(sid, Fixtures.step(new Random(8), 1, Optional.empty()));
+            List<StepPoint> steps = lb.stepSeries(sid);
+            for (int i = 0; i < steps.size(); i++) assertEquals(i + 1, steps.get(i).seq(), "contiguous after the restart");
+            Set<Integer> there = new HashSet<>();
+            for (StepPoint p : steps) there.add(p.seq());
+            assertTrue(there.containsAll(saved), "every step reported saved is there");
+            assertEquals(steps.size(), next.seq(), "the session went on after the restart");
+            assertTrue(saved.size() > 3, "the writer saved steps around the restart");
         }
     }
 }
