@@ -188,6 +188,12 @@ final class PostgresEngine implements Engine {
         boolean have = read(c -> hasBlob(c, hash));
         if (!have) {
             write(c -> {
+                // No flush of its own: the step that names this capture commits after it with synchronous_commit = on,
+                // and that flush takes the write-ahead log past this transaction too. A crash in between can lose
+                // only a capture that no step refers to.
+                try (Statement s = c.createStatement()) {
+                    s.execute("SET LOCAL synchronous_commit = off");
+                }
                 try (PreparedStatement ins = c.prepareStatement(
                         "INSERT INTO capture_blobs(sha256, size_bytes, content) VALUES (?,?,?) ON CONFLICT (sha256) DO NOTHING");
                      InputStream in = Files.newInputStream(file)) {

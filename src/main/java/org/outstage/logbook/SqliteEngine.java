@@ -171,6 +171,17 @@ final class SqliteEngine implements Engine {
     private void migrate() throws IOException {
         State st = state();
         if (st.app() == Migrations.APPLICATION_ID && st.flyway() && st.version() >= FlywayMigrations.LATEST) return;
+        // file locks are per process: threads of this process take turns on a lock object first
+        Object inProcess = MIGRATING.computeIfAbsent(path, k -> new Object());
+        synchronized (inProcess) {
+            migrateLocked();
+        }
+    }
+
+    private static final java.util.concurrent.ConcurrentHashMap<Path, Object> MIGRATING = new java.util.concurrent.ConcurrentHashMap<>();
+
+    private void migrateLocked() throws IOException {
+        State st;
         try (FileChannel ch = FileChannel.open(capturesDir.resolve(".migrating.lock"), StandardOpenOption.CREATE, StandardOpenOption.WRITE);
              FileLock lock = ch.lock()) {
             st = state();
