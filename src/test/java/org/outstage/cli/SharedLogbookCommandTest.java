@@ -165,4 +165,37 @@ class SharedLogbookCommandTest {
             }
         }
     }
+
+    @Test
+    void verifyAndWatch_onTheServer_logLikeOnAFile() throws Exception {
+        String url = TestLogbooks.newLogbook(TestLogbooks.POSTGRES, dir, "faces");
+        List<String> args = new ArrayList<>(List.of("verify", "--spec", VerifyCommandTest.sampleSpec().toString(), "--logbook", url,
+                "--load", "8", "--unit", "DA-60 #13", "--allow-unmeasured"));
+        for (int w : new int[] {1, 60}) {
+            Path f = dir.resolve(w + "w.txt");
+            Files.writeString(f, "f=1000\nrms=" + Math.sqrt(8.0 * w) + "\nthd=0.0003\nthdn=0.0004\n");
+            args.add(f.toString());
+        }
+        int code = run(args.toArray(String[]::new));
+        assertTrue(code == 0 || code == 1, err);
+        long sid;
+        try (Logbook lb = Logbook.open(url)) {
+            var s = lb.sessions().get(0);
+            assertEquals("DA-60 #13", s.unitName());
+            assertEquals(2, lb.measurements(s.id()).size());
+            assertFalse(s.open());
+            sid = lb.startSession(new org.outstage.logbook.UnitUnderTest("DA-60 #13", java.util.Optional.empty(), java.util.Optional.empty(),
+                    java.util.Optional.empty(), java.util.OptionalDouble.empty(), java.util.OptionalDouble.empty()),
+                    org.outstage.logbook.SessionKind.BIAS_ADJUSTMENT, java.time.Instant.now(), "");
+        }
+        Path in = Files.createDirectory(dir.resolve("in"));
+        Files.writeString(in.resolve("a_bias-10mV.txt"), "f=1000\ng0=0.99\n");
+        Files.writeString(in.resolve("b_bias-20mV.txt"), "f=1000\ng0=1.001\n");
+        assertEquals(0, run("watch", in.toString(), "--session", Long.toString(sid), "--logbook", url, "--existing", "--settle-ms", "100",
+                "--poll-ms", "20", "--max-captures", "2"), err);
+        try (Logbook lb = Logbook.open(url)) {
+            assertEquals(2, lb.biasSteps(sid).size());
+            assertEquals(List.of(1, 2), lb.biasSteps(sid).stream().map(b -> b.seq()).toList());
+        }
+    }
 }
