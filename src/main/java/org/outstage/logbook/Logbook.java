@@ -147,7 +147,7 @@ public final class Logbook implements AutoCloseable {
         }
         try (PreparedStatement ins = c.prepareStatement(
                 "INSERT INTO units(name, serial, topology, notes, rated_power_watts, rated_load_ohms) VALUES (?,?,?,?,?,?)",
-                Statement.RETURN_GENERATED_KEYS)) {
+                ID_COLUMN)) {
             ins.setString(1, unit.name());
             setText(ins, 2, unit.serial());
             setText(ins, 3, unit.topology());
@@ -177,7 +177,7 @@ public final class Logbook implements AutoCloseable {
         return write(c -> {
             long unitId = unitId(c, unit);
             try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, notes, uuid) VALUES (?,?,?,?,?)",
-                    Statement.RETURN_GENERATED_KEYS)) {
+                    ID_COLUMN)) {
                 ins.setLong(1, unitId);
                 ins.setString(2, kind.label());
                 ins.setString(3, startedAt.toString());
@@ -296,9 +296,18 @@ public final class Logbook implements AutoCloseable {
         });
     }
 
+    private static final String INSERT_STEP = "INSERT INTO bias_steps(session_id, seq, taken_at, reading_value, reading_unit,"
+            + " heatsink_c, ambient_c, channel, measurement_id) VALUES (?,?,?,?,?,?,?,?,?)";
+
     private static void insertStep(Connection c, long sessionId, int seq, BiasStep draft, Long mid) throws SQLException {
-        try (PreparedStatement ins = c.prepareStatement("INSERT INTO bias_steps(session_id, seq, taken_at, reading_value, reading_unit,"
-                + " heatsink_c, ambient_c, channel, measurement_id) VALUES (?,?,?,?,?,?,?,?,?)")) {
+        try (PreparedStatement ins = c.prepareStatement(INSERT_STEP)) {
+            bindStep(ins, sessionId, seq, draft, mid);
+            ins.executeUpdate();
+        }
+    }
+
+    private static void bindStep(PreparedStatement ins, long sessionId, int seq, BiasStep draft, Long mid) throws SQLException {
+        {
             ins.setLong(1, sessionId);
             ins.setInt(2, seq);
             ins.setString(3, draft.takenAt().toString());
@@ -309,7 +318,6 @@ public final class Logbook implements AutoCloseable {
             ins.setInt(8, draft.channel());
             if (mid == null) ins.setNull(9, Types.INTEGER);
             else ins.setLong(9, mid);
-            ins.executeUpdate();
         }
     }
 
@@ -318,47 +326,98 @@ public final class Logbook implements AutoCloseable {
         if (!s.open()) throw new IllegalArgumentException("session " + sessionId + " ended at " + s.endedAt().get() + "; start a new one");
     }
 
+    private static final String INSERT_CAPTURE_ROW =
+            "INSERT INTO captures(sha256, file_name, size_bytes, added_at) VALUES (?,?,?,?) ON CONFLICT (sha256) DO NOTHING";
+    private static final String INSERT_MEASUREMENT = "INSERT INTO measurements(session_id, capture_sha256, capture_name, channel,"
+            + " measured_at, program_version, settings_json, defaulted_json, measurement_json, fundamental_hz, fundamental_rms, unit,"
+            + " thd_ratio, thdn_ratio, residual_rms, power_watts, load_ohms, gain_at_zero, crossover_verdict, clip_asymmetry_ratio,"
+            + " crossover_ratio) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)";
+
+    private static void bindCaptureRow(PreparedStatement ins, CaptureRef ref, Instant at) throws SQLException {
+        ins.setString(1, ref.sha256());
+        ins.setString(2, ref.fileName());
+        ins.setLong(3, ref.sizeBytes());
+        ins.setString(4, at.toString());
+    }
+
     private static long insertMeasurement(Connection c, long sessionId, MeasurementRecord m) throws SQLException {
         if (m.capture().isPresent()) {
-            CaptureRef ref = m.capture().get();
-            try (PreparedStatement ins = c.prepareStatement(
-                    "INSERT INTO captures(sha256, file_name, size_bytes, added_at) VALUES (?,?,?,?) ON CONFLICT (sha256) DO NOTHING")) {
-                ins.setString(1, ref.sha256());
-                ins.setString(2, ref.fileName());
-                ins.setLong(3, ref.sizeBytes());
-                ins.setString(4, m.measuredAt().toString());
+            try (PreparedStatement ins = c.prepareStatement(INSERT_CAPTURE_ROW)) {
+                bindCaptureRow(ins, m.capture().get(), m.measuredAt());
                 ins.executeUpdate();
             }
         }
-        KeyFigures f = m.figures();
-        try (PreparedStatement ins = c.prepareStatement("INSERT INTO measurements(session_id, capture_sha256, capture_name, channel,"
-                + " measured_at, program_version, settings_json, defaulted_json, measurement_json, fundamental_hz, fundamental_rms, unit,"
-                + " thd_ratio, thdn_ratio, residual_rms, power_watts, load_ohms, gain_at_zero, crossover_verdict, clip_asymmetry_ratio,"
-                + " crossover_ratio) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", Statement.RETURN_GENERATED_KEYS)) {
-            ins.setLong(1, sessionId);
-            setText(ins, 2, m.capture().map(CaptureRef::sha256));
-            setText(ins, 3, m.capture().map(CaptureRef::fileName));
-            ins.setInt(4, m.channel());
-            ins.setString(5, m.measuredAt().toString());
-            ins.setString(6, m.programVersion());
-            ins.setString(7, Json.write(m.settings()));
-            ins.setString(8, Json.write(new ArrayList<>(m.defaulted())));
-            ins.setString(9, m.measurementJson());
-            ins.setDouble(10, f.fundamentalHz());
-            ins.setDouble(11, f.fundamentalRms());
-            ins.setString(12, f.unit());
-            ins.setDouble(13, f.thdRatio());
-            ins.setDouble(14, f.thdNRatio());
-            setReal(ins, 15, f.residualRms());
-            setReal(ins, 16, f.powerWatts());
-            setReal(ins, 17, f.loadOhms());
-            setReal(ins, 18, f.gainAtZero());
-            setText(ins, 19, f.crossoverVerdict());
-            setReal(ins, 20, f.clipAsymmetryRatio());
-            setReal(ins, 21, f.crossoverRatio());
+        try (PreparedStatement ins = c.prepareStatement(INSERT_MEASUREMENT, ID_COLUMN)) {
+            bindMeasurement(ins, sessionId, m);
             ins.executeUpdate();
             return generatedKey(ins);
         }
+    }
+
+    /**
+     * Inserts many measurements: the capture rows once each, then the measurements. On a server as one batch (the
+     * driver sends them without waiting for each answer, and returns the ids in order); on SQLite one by one (local
+     * calls, no round trips to save). Returns the ids in the order given.
+     */
+    private List<Long> insertMeasurements(Connection c, long sessionId, List<MeasurementRecord> ms) throws SQLException {
+        Map<String, MeasurementRecord> firstByCapture = new LinkedHashMap<>();
+        for (MeasurementRecord m : ms) m.capture().ifPresent(r -> firstByCapture.putIfAbsent(r.sha256(), m));
+        if (!firstByCapture.isEmpty()) {
+            try (PreparedStatement ins = c.prepareStatement(INSERT_CAPTURE_ROW)) {
+                for (MeasurementRecord m : firstByCapture.values()) {
+                    bindCaptureRow(ins, m.capture().get(), m.measuredAt());
+                    ins.addBatch();
+                }
+                ins.executeBatch();
+            }
+        }
+        List<Long> ids = new ArrayList<>(ms.size());
+        try (PreparedStatement ins = c.prepareStatement(INSERT_MEASUREMENT, ID_COLUMN)) {
+            if (!isShared()) {
+                for (MeasurementRecord m : ms) {
+                    bindMeasurement(ins, sessionId, m);
+                    ins.executeUpdate();
+                    ids.add(generatedKey(ins));
+                }
+                return ids;
+            }
+            for (MeasurementRecord m : ms) {
+                bindMeasurement(ins, sessionId, m);
+                ins.addBatch();
+            }
+            if (ms.isEmpty()) return ids;
+            ins.executeBatch();
+            try (ResultSet keys = ins.getGeneratedKeys()) {
+                while (keys.next()) ids.add(keys.getLong(1));
+            }
+        }
+        if (ids.size() != ms.size()) throw new SQLException("the server returned " + ids.size() + " ids for " + ms.size() + " measurements");
+        return ids;
+    }
+
+    private static void bindMeasurement(PreparedStatement ins, long sessionId, MeasurementRecord m) throws SQLException {
+        KeyFigures f = m.figures();
+        ins.setLong(1, sessionId);
+        setText(ins, 2, m.capture().map(CaptureRef::sha256));
+        setText(ins, 3, m.capture().map(CaptureRef::fileName));
+        ins.setInt(4, m.channel());
+        ins.setString(5, m.measuredAt().toString());
+        ins.setString(6, m.programVersion());
+        ins.setString(7, Json.write(m.settings()));
+        ins.setString(8, Json.write(new ArrayList<>(m.defaulted())));
+        ins.setString(9, m.measurementJson());
+        ins.setDouble(10, f.fundamentalHz());
+        ins.setDouble(11, f.fundamentalRms());
+        ins.setString(12, f.unit());
+        ins.setDouble(13, f.thdRatio());
+        ins.setDouble(14, f.thdNRatio());
+        setReal(ins, 15, f.residualRms());
+        setReal(ins, 16, f.powerWatts());
+        setReal(ins, 17, f.loadOhms());
+        setReal(ins, 18, f.gainAtZero());
+        setText(ins, 19, f.crossoverVerdict());
+        setReal(ins, 20, f.clipAsymmetryRatio());
+        setReal(ins, 21, f.crossoverRatio());
     }
 
     private static final String MEASUREMENT_COLUMNS = "m.channel, m.capture_sha256, m.capture_name, c.size_bytes, m.measured_at,"
@@ -474,7 +533,7 @@ public final class Logbook implements AutoCloseable {
             long sid;
             Session s = data.session();
             try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, ended_at, notes, uuid)"
-                    + " VALUES (?,?,?,?,?,?)", Statement.RETURN_GENERATED_KEYS)) {
+                    + " VALUES (?,?,?,?,?,?)", ID_COLUMN)) {
                 ins.setLong(1, unitId);
                 ins.setString(2, s.kind().label());
                 ins.setString(3, s.startedAt().toString());
@@ -579,7 +638,7 @@ public final class Logbook implements AutoCloseable {
             if (sid == null) {
                 long unitId = unitId(c, d.unit());
                 try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, ended_at, notes, uuid)"
-                        + " VALUES (?,?,?,?,?,?)", Statement.RETURN_GENERATED_KEYS)) {
+                        + " VALUES (?,?,?,?,?,?)", ID_COLUMN)) {
                     ins.setLong(1, unitId);
                     ins.setString(2, s.kind().label());
                     ins.setString(3, s.startedAt().toString());
@@ -618,18 +677,24 @@ public final class Logbook implements AutoCloseable {
                     }
                 }
             }
-            int steps = 0;
-            for (BiasStep step : d.steps()) {
-                if (seqs.contains(step.seq())) continue;
-                Long mid = step.measurement().isPresent() ? insertMeasurement(c, sid, step.measurement().get()) : null;
-                insertStep(c, sid, step.seq(), step, mid);
-                steps++;
+            List<BiasStep> fresh = new ArrayList<>();
+            for (BiasStep step : d.steps()) if (!seqs.contains(step.seq())) fresh.add(step);
+            List<MeasurementRecord> stepMeasurements = new ArrayList<>();
+            for (BiasStep step : fresh) step.measurement().ifPresent(stepMeasurements::add);
+            List<Long> mids = insertMeasurements(c, sid, stepMeasurements);
+            try (PreparedStatement ins = c.prepareStatement(INSERT_STEP)) {
+                int k = 0;
+                for (BiasStep step : fresh) {
+                    Long mid = step.measurement().isPresent() ? mids.get(k++) : null;
+                    bindStep(ins, sid, step.seq(), step, mid);
+                    ins.addBatch();
+                }
+                if (!fresh.isEmpty()) ins.executeBatch();
             }
-            int ms = 0;
-            for (int i = outside; i < d.measurements().size(); i++) {
-                insertMeasurement(c, sid, d.measurements().get(i));
-                ms++;
-            }
+            int steps = fresh.size();
+            List<MeasurementRecord> rest = d.measurements().subList(Math.min(outside, d.measurements().size()), d.measurements().size());
+            insertMeasurements(c, sid, rest);
+            int ms = rest.size();
             if (state == 0 && (steps > 0 || ms > 0)) state = 2;
             return new int[] {state, steps, ms};
         });
@@ -659,6 +724,9 @@ public final class Logbook implements AutoCloseable {
     }
 
     // ---------------------------------------------------------------- column helpers
+
+    /** The generated key asked for by name: PostgreSQL then returns the id alone, not the whole row. */
+    private static final String[] ID_COLUMN = {"id"};
 
     private static long generatedKey(PreparedStatement ins) throws SQLException {
         try (ResultSet keys = ins.getGeneratedKeys()) {

@@ -230,6 +230,9 @@ final class PostgresEngine implements Engine {
     public java.util.Set<String> storeCaptures(java.util.List<CaptureRef> refs,
                                                java.util.function.Function<CaptureRef, Optional<InputStream>> source) {
         return write(c -> {
+            try (Statement s = c.createStatement()) {
+                s.execute("SET LOCAL synchronous_commit = off"); // as in storeCapture: the rows that name them commit after, flushed
+            }
             java.util.Set<String> stored = new java.util.HashSet<>();
             try (PreparedStatement ins = c.prepareStatement(
                     "INSERT INTO capture_blobs(sha256, size_bytes, content) VALUES (?,?,?) ON CONFLICT (sha256) DO NOTHING")) {
