@@ -31,7 +31,7 @@ import java.util.Optional;
  */
 final class PostgresEngine implements Engine {
     /** How long a write waits for a connection (the server down, the pool busy) before reporting. */
-    static final long CONNECT_TIMEOUT_MS = Long.getLong("outstage.logbook.connectTimeoutMs", 5_000);
+    static final long CONNECT_TIMEOUT_MS = Long.getLong("outstage.logbook.connectTimeoutMs", 10_000);
     private static final long RETRY_BUDGET_MS = 30_000;
     /** Slice read from a stored capture at a time. */
     static final int READ_SLICE_BYTES = 1 << 20;
@@ -55,7 +55,9 @@ final class PostgresEngine implements Engine {
         cfg.setMinimumIdle(0);
         cfg.setConnectionTimeout(Math.max(250, CONNECT_TIMEOUT_MS));
         cfg.setValidationTimeout(Math.max(250, Math.min(CONNECT_TIMEOUT_MS, 3_000)));
-        cfg.setInitializationFailTimeout(Math.max(1, CONNECT_TIMEOUT_MS));
+        // one attempt at opening: a refused connection or login is reported at once; a slow one waits for the driver's
+        // connect and login timeouts below
+        cfg.setInitializationFailTimeout(1);
         cfg.setAutoCommit(true);
         cfg.setConnectionInitSql("SET synchronous_commit = on");
         cfg.addDataSourceProperty("ApplicationName", "outstage");

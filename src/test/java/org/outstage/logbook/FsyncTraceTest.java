@@ -30,6 +30,8 @@ class FsyncTraceTest {
     @TempDir Path dir;
 
     private static final Pattern OPEN = Pattern.compile("^(\\d+)\\s+open(?:at)?\\((?:AT_FDCWD, )?\"([^\"]+)\".*= (\\d+)$");
+    private static final Pattern OPEN_START = Pattern.compile("^(\\d+)\\s+open(?:at)?\\((?:AT_FDCWD, )?\"([^\"]+)\".*<unfinished \\.\\.\\.>$");
+    private static final Pattern OPEN_END = Pattern.compile("^(\\d+)\\s+<\\.\\.\\. open(?:at)? resumed>.*= (\\d+)$");
     private static final Pattern SYNC = Pattern.compile("^(\\d+)\\s+(?:fsync|fdatasync)\\((\\d+)\\)\\s+= 0$");
     private static final Pattern SYNC_START = Pattern.compile("^(\\d+)\\s+(?:fsync|fdatasync)\\((\\d+) <unfinished \\.\\.\\.>$");
     private static final Pattern SYNC_END = Pattern.compile("^(\\d+)\\s+<\\.\\.\\. (?:fsync|fdatasync) resumed>\\)\\s+= 0$");
@@ -58,12 +60,18 @@ class FsyncTraceTest {
         String wal = db.toAbsolutePath() + "-wal";
         Map<Integer, String> fdPath = new HashMap<>(); // fds are per process; the writer is one process with threads
         Map<Integer, Integer> pending = new HashMap<>(); // pid -> fd of an fsync not yet returned
+        Map<Integer, String> opening = new HashMap<>(); // pid -> path of an open not yet returned (strace splits calls of concurrent threads)
         Set<String> syncedSinceReport = new HashSet<>();
         int reports = 0;
         for (String line : Files.readAllLines(trace)) {
             Matcher m;
             if ((m = OPEN.matcher(line)).matches()) {
                 fdPath.put(Integer.parseInt(m.group(3)), m.group(2));
+            } else if ((m = OPEN_START.matcher(line)).matches()) {
+                opening.put(Integer.parseInt(m.group(1)), m.group(2));
+            } else if ((m = OPEN_END.matcher(line)).matches()) {
+                String path = opening.remove(Integer.parseInt(m.group(1)));
+                if (path != null) fdPath.put(Integer.parseInt(m.group(2)), path);
             } else if ((m = SYNC.matcher(line)).matches()) {
                 syncedSinceReport.add(kind(fdPath.get(Integer.parseInt(m.group(2))), wal));
             } else if ((m = SYNC_START.matcher(line)).matches()) {

@@ -37,7 +37,8 @@ class NothingLostTest {
 
     static ProcessBuilder writer(Path scratch, String location, long session, long seed, String... more) {
         List<String> cmd = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
-                "-Xshare:auto", "-XX:TieredStopAtLevel=1", "-Xmx128m", "-cp", System.getProperty("java.class.path"),
+                // a CI machine running eight JVMs on two cores can take seconds to open a connection (scram login)
+                "-Xshare:auto", "-XX:TieredStopAtLevel=1", "-Xmx128m", "-Doutstage.logbook.connectTimeoutMs=30000", "-cp", System.getProperty("java.class.path"),
                 KillWriterMain.class.getName(), location, scratch.toString(), Long.toString(session), Long.toString(seed)));
         cmd.addAll(List.of(more));
         return new ProcessBuilder(cmd);
@@ -173,9 +174,10 @@ class NothingLostTest {
             outs.add(out);
             ps.add(writer(dir, db, sid, 100 + k, Integer.toString(n), "light").redirectOutput(out.toFile()).redirectError(err.toFile()).start());
         }
-        for (Process p : ps) {
+        for (int k = 0; k < ps.size(); k++) {
+            Process p = ps.get(k);
             assertTrue(p.waitFor(300, TimeUnit.SECONDS), "writer finished");
-            assertEquals(0, p.exitValue());
+            assertEquals(0, p.exitValue(), "writer " + k + ": " + Files.readString(errs.get(k)));
         }
         for (Path e : errs) assertEquals("", Files.readString(e), "nothing on stderr (no 'database is locked', no serialization error)");
         Set<Integer> reported = new HashSet<>();
