@@ -67,4 +67,11 @@ class ArchitectureTest {
                 .should().dependOnClassesThat().resideInAnyPackage("org.outstage.cli..", "org.outstage.ui..")
                 .check(MAIN);
     }
+
+    @Test
+    void onlyTheLogbook_reachesThePoolMigrationsAndDriver() {
+        noClasses().that().resideOutsideOfPackage("org.outstage.logbook..")
+                .should().dependOnClassesThat().resideInAnyPackage("com.zaxxer..", "org.flywaydb..", "org.postgresql..")
+                .check(MAIN);
+    }
 }

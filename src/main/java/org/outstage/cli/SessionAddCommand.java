@@ -62,7 +62,7 @@ public final class SessionAddCommand implements Callable<Integer> {
         BiasAdvice advice;
         List<String> warnings = new ArrayList<>();
         try (Logbook lb = logbook.open()) {
-            lb.session(sessionId).orElseThrow(() -> new BadInputException("no session " + sessionId + " in logbook " + lb.path()));
+            lb.session(sessionId).orElseThrow(() -> new BadInputException("no session " + sessionId + " in logbook " + lb.display()));
             MeasurementRecord m = SessionSupport.measureAndStore(lb, capture, analyze, spec.commandLine().getParseResult(), warnings);
             step = lb.addBiasStep(sessionId, BiasStep.draft(Instant.now(), r, opt(heatsinkC), opt(ambientC), m.channel(), Optional.of(m)));
             advice = BiasAdvisor.recommendFromSeries(lb.stepSeries(sessionId));

@@ -37,7 +37,7 @@ public final class SessionExportCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         SessionData d;
         try (Logbook lb = logbook.open()) {
-            if (lb.session(sessionId).isEmpty()) throw new BadInputException("no session " + sessionId + " in logbook " + lb.path());
+            if (lb.session(sessionId).isEmpty()) throw new BadInputException("no session " + sessionId + " in logbook " + lb.display());
             d = lb.sessionData(sessionId);
         }
         String text = format.csv ? SessionExport.toCsv(d) : SessionExport.toJson(d);

@@ -40,7 +40,7 @@ public final class SessionShowCommand implements Callable<Integer> {
     public Integer call() {
         SessionData d;
         try (Logbook lb = logbook.open()) {
-            if (lb.session(sessionId).isEmpty()) throw new BadInputException("no session " + sessionId + " in logbook " + lb.path());
+            if (lb.session(sessionId).isEmpty()) throw new BadInputException("no session " + sessionId + " in logbook " + lb.display());
             d = lb.sessionData(sessionId);
         }
         if (report != null) {

@@ -92,7 +92,7 @@ public final class WatchCommand implements Callable<Integer> {
         int added = 0;
         int skipped = 0;
         try (Logbook lb = logbook.open()) {
-            if (lb.session(sessionId).isEmpty()) throw new BadInputException("no session " + sessionId + " in logbook " + lb.path());
+            if (lb.session(sessionId).isEmpty()) throw new BadInputException("no session " + sessionId + " in logbook " + lb.display());
             if (!lb.session(sessionId).get().open()) throw new BadInputException("session " + sessionId + " has ended; start a new one");
             WatchFolder folder = new WatchFolder(dir, TimeUnit.MILLISECONDS.toNanos(settleMs), existing);
             err.println("outstage: watching " + dir + " for session " + sessionId + " (Ctrl-C to stop)");
@@ -109,6 +109,10 @@ public final class WatchCommand implements Callable<Integer> {
                         out.println(time + "  " + p.getFileName() + "  " + SessionSupport.stepLine(s) + "  -> "
                                 + a.direction().name().toLowerCase(java.util.Locale.ROOT));
                         out.flush();
+                    } catch (org.outstage.logbook.LogbookUnavailableException e) {
+                        skipped++;
+                        err.println(time + "  not saved " + p.getFileName() + ": " + e.getMessage());
+                        err.flush();
                     } catch (BadInputException | IllegalArgumentException e) {
                         skipped++;
                         err.println(time + "  skipped " + p.getFileName() + ": " + e.getMessage());

@@ -30,38 +30,42 @@ import java.util.Objects;
 import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.Set;
+import java.util.UUID;
 import org.outstage.json.Json;
 import org.outstage.verify.KeyFigures;
 import org.sqlite.SQLiteConfig;
 import org.sqlite.SQLiteOpenMode;
 
 /**
- * The bench logbook: one SQLite file (WAL, foreign keys on, 10 s busy timeout plus retries, schema
- * migrated forward on open) and, beside it, a content-addressed folder of the captures it refers to.
- * A file that is not an Outstage logbook is refused and never written to.
+ * The bench logbook, one interface over two engines: an SQLite file on one bench ({@link SqliteEngine}: WAL,
+ * synchronous=FULL, captures in a content-addressed folder beside it) or a PostgreSQL database shared by a
+ * shop ({@link PostgresEngine}: pooled connections, captures in the database). Both carry the same schema,
+ * migrated forward on open by Flyway ({@link FlywayMigrations}); a store that is not an Outstage logbook is
+ * refused and never written to.
  *
- * <p>Every write is one transaction ({@code BEGIN IMMEDIATE} … {@code COMMIT}, synchronous=FULL): a step
- * is either all there after {@link #addBiasStep} returns or not there at all, even if the process is
- * killed. Instances are thread-safe (methods are synchronized on the one connection); separate instances,
- * threads or processes may write the same file at once.
+ * <p>Every write is one transaction: a step is either all there after {@link #addBiasStep} returns or not there
+ * at all, even if the process is killed or the server goes away. Step numbers are contiguous per session, however
+ * many writers (threads, processes, benches) add steps at once. Instances are thread-safe.
  */
 public final class Logbook implements AutoCloseable {
-    /** Environment variable that names the logbook file when no {@code --logbook} is given. */
+    /** Environment variable that names the logbook (a file or a {@code postgresql://} URL) when no {@code --logbook} is given. */
     public static final String ENV = "OUTSTAGE_LOGBOOK";
-    static final int BUSY_TIMEOUT_MS = 10_000;
-    private static final long RETRY_BUDGET_MS = 60_000;
-    private static final byte[] SQLITE_MAGIC = "SQLite format 3\0".getBytes(StandardCharsets.US_ASCII);
+    static final int BUSY_TIMEOUT_MS = SqliteEngine.BUSY_TIMEOUT_MS;
 
-    private final Path path;
-    private final Path capturesDir;
-    private final Connection conn;
+    private final Engine engine;
 
-    private Logbook(Path path, Connection conn) {
-        this.path = path;
-        this.conn = conn;
-        String name = path.getFileName().toString();
-        int dot = name.lastIndexOf('.');
-        this.capturesDir = path.resolveSibling((dot > 0 ? name.substring(0, dot) : name) + ".captures");
+    private Logbook(Engine engine) {
+        this.engine = engine;
+    }
+
+    /**
+     * The default logbook: {@code $OUTSTAGE_LOGBOOK} if set (a file or a server URL), else
+     * {@code $XDG_DATA_HOME/outstage/logbook.db}, else {@code ~/.local/share/outstage/logbook.db}.
+     */
+    public static String defaultLocation(Map<String, String> env, Path home) {
+        String explicit = env.get(ENV);
+        if (explicit != null && !explicit.isBlank()) return explicit;
+        return defaultPath(Map.of(), home, env.get("XDG_DATA_HOME")).toString();
     }
 
     /**
@@ -71,139 +75,60 @@ public final class Logbook implements AutoCloseable {
     public static Path defaultPath(Map<String, String> env, Path home) {
         String explicit = env.get(ENV);
         if (explicit != null && !explicit.isBlank()) return Path.of(explicit);
-        String xdg = env.get("XDG_DATA_HOME");
+        return defaultPath(env, home, env.get("XDG_DATA_HOME"));
+    }
+
+    private static Path defaultPath(Map<String, String> env, Path home, String xdg) {
         Path base = xdg != null && !xdg.isBlank() ? Path.of(xdg) : home.resolve(".local").resolve("share");
         return base.resolve("outstage").resolve("logbook.db");
     }
 
-    /** Opens (creating if absent) the logbook at {@code path}, migrating its schema forward. */
+    /** Opens (creating if absent) the SQLite logbook at {@code path}, migrating its schema forward. */
     public static Logbook open(Path path) {
-        Path p = path.toAbsolutePath().normalize();
-        try {
-            if (Files.exists(p)) checkIsOurs(p);
-            else if (p.getParent() != null) Files.createDirectories(p.getParent());
-            Connection c = connect(p, false);
-            Logbook lb = new Logbook(p, c);
-            try {
-                lb.migrate();
-                Files.createDirectories(lb.capturesDir);
-            } catch (RuntimeException | IOException e) {
-                c.close();
-                throw e;
-            }
-            return lb;
-        } catch (IOException e) {
-            throw new LogbookException("logbook " + p + ": " + e.getMessage(), e);
-        } catch (SQLException e) {
-            throw new LogbookException("logbook " + p + ": " + e.getMessage(), e);
-        }
+        return new Logbook(SqliteEngine.open(path));
     }
 
-    private static Connection connect(Path p, boolean readOnly) throws SQLException {
-        SQLiteConfig cfg = new SQLiteConfig();
-        cfg.setBusyTimeout(BUSY_TIMEOUT_MS);
-        if (readOnly) {
-            cfg.setReadOnly(true);
-            cfg.setOpenMode(SQLiteOpenMode.READONLY);
-        } else {
-            cfg.enforceForeignKeys(true);
-            cfg.setSynchronous(SQLiteConfig.SynchronousMode.FULL);
-        }
-        Connection c = cfg.createConnection("jdbc:sqlite:" + p);
-        if (!readOnly) {
-            try (Statement s = c.createStatement()) {
-                withRetry(p, () -> {
-                    try (ResultSet rs = s.executeQuery("PRAGMA journal_mode=WAL")) {
-                        rs.next();
-                    }
-                    return null;
-                });
-            }
-        }
-        return c;
+    /**
+     * Opens the logbook at {@code location}: a {@code postgresql://USER@HOST:PORT/DATABASE} URL (password from
+     * {@code $PGPASSWORD} or {@code ~/.pgpass}) or a file path. A malformed URL is an {@link IllegalArgumentException};
+     * a server that cannot be reached or refuses the login is a {@link LogbookUnavailableException}.
+     */
+    public static Logbook open(String location) {
+        LogbookLocation loc = LogbookLocation.parse(location);
+        if (loc instanceof LogbookLocation.Server server) return new Logbook(PostgresEngine.open(server));
+        return open(((LogbookLocation.File) loc).path());
     }
 
-    /** Refuses anything but an empty file, an empty SQLite database, or one of our logbooks of a known version. */
-    private static void checkIsOurs(Path p) throws IOException, SQLException {
-        long size = Files.size(p);
-        if (size == 0) return;
-        byte[] head = new byte[SQLITE_MAGIC.length];
-        try (InputStream in = Files.newInputStream(p)) {
-            int n = in.readNBytes(head, 0, head.length);
-            if (n < head.length || !java.util.Arrays.equals(head, SQLITE_MAGIC)) {
-                throw new NotALogbookException(p + " is not an Outstage logbook (not an SQLite database); it was left untouched");
-            }
-        }
-        try (Connection c = connect(p, true); Statement s = c.createStatement()) {
-            int app = intPragma(s, "application_id");
-            int version = intPragma(s, "user_version");
-            int tables;
-            try (ResultSet rs = s.executeQuery("SELECT count(*) FROM sqlite_master")) {
-                rs.next();
-                tables = rs.getInt(1);
-            }
-            if (app == Migrations.APPLICATION_ID) {
-                if (version > Migrations.latest()) {
-                    throw new NotALogbookException(p + " was written by a newer Outstage (logbook schema " + version
-                            + ", this program knows up to " + Migrations.latest() + "); it was left untouched");
-                }
-                return;
-            }
-            if (app != 0) {
-                throw new NotALogbookException(p + " is an SQLite database of another application (application_id "
-                        + Integer.toHexString(app) + "), not an Outstage logbook; it was left untouched");
-            }
-            if (tables > 0) {
-                throw new NotALogbookException(p + " is an SQLite database with tables of another program, not an Outstage logbook;"
-                        + " it was left untouched");
-            }
-        }
+    /** True when {@code location} names a server rather than a file. */
+    public static boolean isServerLocation(String location) {
+        return LogbookLocation.isServer(location);
     }
 
-    private static int intPragma(Statement s, String name) throws SQLException {
-        try (ResultSet rs = s.executeQuery("PRAGMA " + name)) {
-            return rs.next() ? rs.getInt(1) : 0;
-        }
+    /** Where the logbook is, for messages: the file, or the server URL (never a password). */
+    public String display() { return engine.display(); }
+
+    /** True for a shared (PostgreSQL) logbook. */
+    public boolean isShared() { return engine instanceof PostgresEngine; }
+
+    /** The logbook file (an SQLite logbook only). */
+    public Path path() {
+        if (engine instanceof SqliteEngine e) return e.path();
+        throw new IllegalStateException("logbook " + engine.display() + " is a server, not a file");
     }
 
-    private void migrate() throws SQLException {
-        migrateTo(Migrations.latest());
+    /** The folder holding the stored captures, named by SHA-256 (an SQLite logbook only). */
+    public Path capturesDir() {
+        if (engine instanceof SqliteEngine e) return e.capturesDir();
+        throw new IllegalStateException("logbook " + engine.display() + " keeps its captures in the database");
     }
 
-    /** Applies migrations up to {@code target} (tests use a lower target to build an old logbook). */
-    void migrateTo(int target) {
-        boolean current = read(c -> {
-            try (Statement s = c.createStatement()) {
-                return intPragma(s, "application_id") == Migrations.APPLICATION_ID && intPragma(s, "user_version") >= target;
-            }
-        });
-        if (current) return;
-        write(c -> {
-            try (Statement s = c.createStatement()) {
-                int app = intPragma(s, "application_id");
-                int v = intPragma(s, "user_version");
-                if (app != Migrations.APPLICATION_ID && app != 0) throw new NotALogbookException(path + ": application id changed under us");
-                for (int i = v; i < target; i++) {
-                    for (String sql : Migrations.STEPS.get(i)) s.executeUpdate(sql);
-                }
-                if (v < target) s.executeUpdate("PRAGMA user_version = " + target);
-                if (app == 0) s.executeUpdate("PRAGMA application_id = " + Migrations.APPLICATION_ID);
-            }
-            return null;
-        });
+    /** Applies the hand-rolled migrations up to {@code target} (tests use it to build a pre-Flyway logbook). */
+    void migrateLegacyTo(int target) {
+        ((SqliteEngine) engine).migrateLegacyTo(target);
     }
-
-    public Path path() { return path; }
-
-    /** The folder holding the stored captures, named by SHA-256. */
-    public Path capturesDir() { return capturesDir; }
 
     public synchronized int schemaVersion() {
-        return read(c -> {
-            try (Statement s = c.createStatement()) {
-                return intPragma(s, "user_version");
-            }
-        });
+        return engine.schemaVersion();
     }
 
     // ---------------------------------------------------------------- units and sessions
@@ -222,7 +147,7 @@ public final class Logbook implements AutoCloseable {
         }
         try (PreparedStatement ins = c.prepareStatement(
                 "INSERT INTO units(name, serial, topology, notes, rated_power_watts, rated_load_ohms) VALUES (?,?,?,?,?,?)",
-                Statement.RETURN_GENERATED_KEYS)) {
+                ID_COLUMN)) {
             ins.setString(1, unit.name());
             setText(ins, 2, unit.serial());
             setText(ins, 3, unit.topology());
@@ -251,12 +176,13 @@ public final class Logbook implements AutoCloseable {
     public synchronized long startSession(UnitUnderTest unit, SessionKind kind, Instant startedAt, String notes) {
         return write(c -> {
             long unitId = unitId(c, unit);
-            try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, notes) VALUES (?,?,?,?)",
-                    Statement.RETURN_GENERATED_KEYS)) {
+            try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, notes, uuid) VALUES (?,?,?,?,?)",
+                    ID_COLUMN)) {
                 ins.setLong(1, unitId);
                 ins.setString(2, kind.label());
                 ins.setString(3, startedAt.toString());
                 ins.setString(4, notes == null ? "" : notes);
+                ins.setString(5, UUID.randomUUID().toString());
                 ins.executeUpdate();
                 return generatedKey(ins);
             }
@@ -266,6 +192,7 @@ public final class Logbook implements AutoCloseable {
     /** Marks the session ended. Ending an ended session is refused. */
     public synchronized void endSession(long sessionId, Instant endedAt) {
         write(c -> {
+            engine.lockSession(c, sessionId);
             Session s = requireSession(c, sessionId);
             if (!s.open()) throw new IllegalArgumentException("session " + sessionId + " already ended at " + s.endedAt().get());
             try (PreparedStatement u = c.prepareStatement("UPDATE sessions SET ended_at = ? WHERE id = ?")) {
@@ -306,7 +233,7 @@ public final class Logbook implements AutoCloseable {
     }
 
     private Session requireSession(Connection c, long id) throws SQLException {
-        return findSession(c, id).orElseThrow(() -> new IllegalArgumentException("no session " + id + " in logbook " + path));
+        return findSession(c, id).orElseThrow(() -> new IllegalArgumentException("no session " + id + " in logbook " + engine.display()));
     }
 
     private static Session session(ResultSet rs) throws SQLException {
@@ -318,72 +245,22 @@ public final class Logbook implements AutoCloseable {
     // ---------------------------------------------------------------- captures
 
     /**
-     * Copies a capture file into the content-addressed folder (temp file in that folder, fsync, atomic
-     * rename), unless a file of the same SHA-256 is already there. The database row is written with the
+     * Stores a capture by its SHA-256 (once per content): in the folder beside an SQLite logbook (temp file, fsync,
+     * atomic rename), in the database of a shared one (streamed). The row that names it is written with the
      * measurement that refers to it. Safe to call from several processes at once.
      */
     public CaptureRef storeCapture(Path file) {
-        Path tmp = null;
-        try {
-            Files.createDirectories(capturesDir);
-            tmp = Files.createTempFile(capturesDir, ".incoming-", ".tmp");
-            MessageDigest md = MessageDigest.getInstance("SHA-256");
-            long size;
-            try (InputStream in = new DigestInputStream(Files.newInputStream(file), md);
-                 FileChannel ch = FileChannel.open(tmp, StandardOpenOption.WRITE, StandardOpenOption.TRUNCATE_EXISTING);
-                 OutputStream out = java.nio.channels.Channels.newOutputStream(ch)) {
-                size = in.transferTo(out);
-                out.flush();
-                ch.force(true);
-            }
-            String sha = HexFormat.of().formatHex(md.digest());
-            Path target = storedPath(sha, file.getFileName().toString());
-            if (Files.exists(target)) {
-                Files.delete(tmp);
-            } else {
-                try {
-                    Files.move(tmp, target, StandardCopyOption.ATOMIC_MOVE);
-                } catch (AtomicMoveNotSupportedException e) {
-                    throw new LogbookException("cannot rename atomically in " + capturesDir + ": " + e.getMessage(), e);
-                }
-                syncDirectory(capturesDir);
-            }
-            tmp = null;
-            return new CaptureRef(sha, file.getFileName().toString(), size);
-        } catch (IOException e) {
-            throw new LogbookException("cannot store capture " + file + " in " + capturesDir + ": " + e.getMessage(), e);
-        } catch (NoSuchAlgorithmException e) {
-            throw new IllegalStateException("SHA-256 missing from the JDK", e);
-        } finally {
-            if (tmp != null) {
-                try {
-                    Files.deleteIfExists(tmp);
-                } catch (IOException ignored) {
-                    // a stray temp file is harmless: it is never referenced
-                }
-            }
-        }
+        return engine.storeCapture(file);
     }
 
-    /** The stored copy of a capture, when it is in the folder. */
+    /** The stored copy of a capture as a file (an SQLite logbook; empty for a shared one or when missing). */
     public Optional<Path> capturePath(CaptureRef ref) {
-        Path p = storedPath(ref.sha256(), ref.fileName());
-        return Files.isRegularFile(p) ? Optional.of(p) : Optional.empty();
+        return engine instanceof SqliteEngine e ? e.capturePath(ref) : Optional.empty();
     }
 
-    private Path storedPath(String sha, String originalName) {
-        int dot = originalName.lastIndexOf('.');
-        String ext = dot > 0 ? originalName.substring(dot).toLowerCase(java.util.Locale.ROOT) : "";
-        if (!ext.matches("\\.[a-z0-9]{1,8}")) ext = "";
-        return capturesDir.resolve(sha + ext);
-    }
-
-    private static void syncDirectory(Path dir) {
-        try (FileChannel ch = FileChannel.open(dir, StandardOpenOption.READ)) {
-            ch.force(true);
-        } catch (IOException ignored) {
-            // some file systems cannot open a directory for sync; the rename itself is still atomic
-        }
+    /** The stored bytes of a capture, streamed (either engine), when the store has them. The caller closes it. */
+    public Optional<InputStream> openCapture(CaptureRef ref) {
+        return engine.openCapture(ref);
     }
 
     // ---------------------------------------------------------------- measurements and steps
@@ -403,6 +280,7 @@ public final class Logbook implements AutoCloseable {
     public synchronized BiasStep addBiasStep(long sessionId, BiasStep draft) {
         Objects.requireNonNull(draft, "draft");
         return write(c -> {
+            engine.lockSession(c, sessionId);
             requireOpen(c, sessionId);
             Long mid = draft.measurement().isPresent() ? insertMeasurement(c, sessionId, draft.measurement().get()) : null;
             int seq;
@@ -418,9 +296,18 @@ public final class Logbook implements AutoCloseable {
         });
     }
 
+    private static final String INSERT_STEP = "INSERT INTO bias_steps(session_id, seq, taken_at, reading_value, reading_unit,"
+            + " heatsink_c, ambient_c, channel, measurement_id) VALUES (?,?,?,?,?,?,?,?,?)";
+
     private static void insertStep(Connection c, long sessionId, int seq, BiasStep draft, Long mid) throws SQLException {
-        try (PreparedStatement ins = c.prepareStatement("INSERT INTO bias_steps(session_id, seq, taken_at, reading_value, reading_unit,"
-                + " heatsink_c, ambient_c, channel, measurement_id) VALUES (?,?,?,?,?,?,?,?,?)")) {
+        try (PreparedStatement ins = c.prepareStatement(INSERT_STEP)) {
+            bindStep(ins, sessionId, seq, draft, mid);
+            ins.executeUpdate();
+        }
+    }
+
+    private static void bindStep(PreparedStatement ins, long sessionId, int seq, BiasStep draft, Long mid) throws SQLException {
+        {
             ins.setLong(1, sessionId);
             ins.setInt(2, seq);
             ins.setString(3, draft.takenAt().toString());
@@ -431,7 +318,6 @@ public final class Logbook implements AutoCloseable {
             ins.setInt(8, draft.channel());
             if (mid == null) ins.setNull(9, Types.INTEGER);
             else ins.setLong(9, mid);
-            ins.executeUpdate();
         }
     }
 
@@ -440,47 +326,98 @@ public final class Logbook implements AutoCloseable {
         if (!s.open()) throw new IllegalArgumentException("session " + sessionId + " ended at " + s.endedAt().get() + "; start a new one");
     }
 
+    private static final String INSERT_CAPTURE_ROW =
+            "INSERT INTO captures(sha256, file_name, size_bytes, added_at) VALUES (?,?,?,?) ON CONFLICT (sha256) DO NOTHING";
+    private static final String INSERT_MEASUREMENT = "INSERT INTO measurements(session_id, capture_sha256, capture_name, channel,"
+            + " measured_at, program_version, settings_json, defaulted_json, measurement_json, fundamental_hz, fundamental_rms, unit,"
+            + " thd_ratio, thdn_ratio, residual_rms, power_watts, load_ohms, gain_at_zero, crossover_verdict, clip_asymmetry_ratio,"
+            + " crossover_ratio) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)";
+
+    private static void bindCaptureRow(PreparedStatement ins, CaptureRef ref, Instant at) throws SQLException {
+        ins.setString(1, ref.sha256());
+        ins.setString(2, ref.fileName());
+        ins.setLong(3, ref.sizeBytes());
+        ins.setString(4, at.toString());
+    }
+
     private static long insertMeasurement(Connection c, long sessionId, MeasurementRecord m) throws SQLException {
         if (m.capture().isPresent()) {
-            CaptureRef ref = m.capture().get();
-            try (PreparedStatement ins = c.prepareStatement(
-                    "INSERT OR IGNORE INTO captures(sha256, file_name, size_bytes, added_at) VALUES (?,?,?,?)")) {
-                ins.setString(1, ref.sha256());
-                ins.setString(2, ref.fileName());
-                ins.setLong(3, ref.sizeBytes());
-                ins.setString(4, m.measuredAt().toString());
+            try (PreparedStatement ins = c.prepareStatement(INSERT_CAPTURE_ROW)) {
+                bindCaptureRow(ins, m.capture().get(), m.measuredAt());
                 ins.executeUpdate();
             }
         }
-        KeyFigures f = m.figures();
-        try (PreparedStatement ins = c.prepareStatement("INSERT INTO measurements(session_id, capture_sha256, capture_name, channel,"
-                + " measured_at, program_version, settings_json, defaulted_json, measurement_json, fundamental_hz, fundamental_rms, unit,"
-                + " thd_ratio, thdn_ratio, residual_rms, power_watts, load_ohms, gain_at_zero, crossover_verdict, clip_asymmetry_ratio,"
-                + " crossover_ratio) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", Statement.RETURN_GENERATED_KEYS)) {
-            ins.setLong(1, sessionId);
-            setText(ins, 2, m.capture().map(CaptureRef::sha256));
-            setText(ins, 3, m.capture().map(CaptureRef::fileName));
-            ins.setInt(4, m.channel());
-            ins.setString(5, m.measuredAt().toString());
-            ins.setString(6, m.programVersion());
-            ins.setString(7, Json.write(m.settings()));
-            ins.setString(8, Json.write(new ArrayList<>(m.defaulted())));
-            ins.setString(9, m.measurementJson());
-            ins.setDouble(10, f.fundamentalHz());
-            ins.setDouble(11, f.fundamentalRms());
-            ins.setString(12, f.unit());
-            ins.setDouble(13, f.thdRatio());
-            ins.setDouble(14, f.thdNRatio());
-            setReal(ins, 15, f.residualRms());
-            setReal(ins, 16, f.powerWatts());
-            setReal(ins, 17, f.loadOhms());
-            setReal(ins, 18, f.gainAtZero());
-            setText(ins, 19, f.crossoverVerdict());
-            setReal(ins, 20, f.clipAsymmetryRatio());
-            setReal(ins, 21, f.crossoverRatio());
+        try (PreparedStatement ins = c.prepareStatement(INSERT_MEASUREMENT, ID_COLUMN)) {
+            bindMeasurement(ins, sessionId, m);
             ins.executeUpdate();
             return generatedKey(ins);
         }
+    }
+
+    /**
+     * Inserts many measurements: the capture rows once each, then the measurements. On a server as one batch (the
+     * driver sends them without waiting for each answer, and returns the ids in order); on SQLite one by one (local
+     * calls, no round trips to save). Returns the ids in the order given.
+     */
+    private List<Long> insertMeasurements(Connection c, long sessionId, List<MeasurementRecord> ms) throws SQLException {
+        Map<String, MeasurementRecord> firstByCapture = new LinkedHashMap<>();
+        for (MeasurementRecord m : ms) m.capture().ifPresent(r -> firstByCapture.putIfAbsent(r.sha256(), m));
+        if (!firstByCapture.isEmpty()) {
+            try (PreparedStatement ins = c.prepareStatement(INSERT_CAPTURE_ROW)) {
+                for (MeasurementRecord m : firstByCapture.values()) {
+                    bindCaptureRow(ins, m.capture().get(), m.measuredAt());
+                    ins.addBatch();
+                }
+                ins.executeBatch();
+            }
+        }
+        List<Long> ids = new ArrayList<>(ms.size());
+        try (PreparedStatement ins = c.prepareStatement(INSERT_MEASUREMENT, ID_COLUMN)) {
+            if (!isShared()) {
+                for (MeasurementRecord m : ms) {
+                    bindMeasurement(ins, sessionId, m);
+                    ins.executeUpdate();
+                    ids.add(generatedKey(ins));
+                }
+                return ids;
+            }
+            for (MeasurementRecord m : ms) {
+                bindMeasurement(ins, sessionId, m);
+                ins.addBatch();
+            }
+            if (ms.isEmpty()) return ids;
+            ins.executeBatch();
+            try (ResultSet keys = ins.getGeneratedKeys()) {
+                while (keys.next()) ids.add(keys.getLong(1));
+            }
+        }
+        if (ids.size() != ms.size()) throw new SQLException("the server returned " + ids.size() + " ids for " + ms.size() + " measurements");
+        return ids;
+    }
+
+    private static void bindMeasurement(PreparedStatement ins, long sessionId, MeasurementRecord m) throws SQLException {
+        KeyFigures f = m.figures();
+        ins.setLong(1, sessionId);
+        setText(ins, 2, m.capture().map(CaptureRef::sha256));
+        setText(ins, 3, m.capture().map(CaptureRef::fileName));
+        ins.setInt(4, m.channel());
+        ins.setString(5, m.measuredAt().toString());
+        ins.setString(6, m.programVersion());
+        ins.setString(7, Json.write(m.settings()));
+        ins.setString(8, Json.write(new ArrayList<>(m.defaulted())));
+        ins.setString(9, m.measurementJson());
+        ins.setDouble(10, f.fundamentalHz());
+        ins.setDouble(11, f.fundamentalRms());
+        ins.setString(12, f.unit());
+        ins.setDouble(13, f.thdRatio());
+        ins.setDouble(14, f.thdNRatio());
+        setReal(ins, 15, f.residualRms());
+        setReal(ins, 16, f.powerWatts());
+        setReal(ins, 17, f.loadOhms());
+        setReal(ins, 18, f.gainAtZero());
+        setText(ins, 19, f.crossoverVerdict());
+        setReal(ins, 20, f.clipAsymmetryRatio());
+        setReal(ins, 21, f.crossoverRatio());
     }
 
     private static final String MEASUREMENT_COLUMNS = "m.channel, m.capture_sha256, m.capture_name, c.size_bytes, m.measured_at,"
@@ -580,7 +517,7 @@ public final class Logbook implements AutoCloseable {
 
     /** The whole session: unit, session, steps and the measurements outside steps. */
     public synchronized SessionData sessionData(long sessionId) {
-        Session s = session(sessionId).orElseThrow(() -> new IllegalArgumentException("no session " + sessionId + " in logbook " + path));
+        Session s = session(sessionId).orElseThrow(() -> new IllegalArgumentException("no session " + sessionId + " in logbook " + engine.display()));
         UnitUnderTest u = unit(s.unitName()).orElseThrow();
         return new SessionData(u, s, biasSteps(sessionId), measurements(sessionId));
     }
@@ -595,13 +532,14 @@ public final class Logbook implements AutoCloseable {
             long unitId = unitId(c, data.unit());
             long sid;
             Session s = data.session();
-            try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, ended_at, notes) VALUES (?,?,?,?,?)",
-                    Statement.RETURN_GENERATED_KEYS)) {
+            try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, ended_at, notes, uuid)"
+                    + " VALUES (?,?,?,?,?,?)", ID_COLUMN)) {
                 ins.setLong(1, unitId);
                 ins.setString(2, s.kind().label());
                 ins.setString(3, s.startedAt().toString());
                 setText(ins, 4, s.endedAt().map(Instant::toString));
                 ins.setString(5, s.notes());
+                ins.setString(6, UUID.randomUUID().toString());
                 ins.executeUpdate();
                 sid = generatedKey(ins);
             }
@@ -614,104 +552,181 @@ public final class Logbook implements AutoCloseable {
         });
     }
 
-    /** {@code PRAGMA integrity_check} result ("ok" when the file is sound). */
-    public synchronized String integrityCheck() {
+    /** The stable id of a session (a UUID made at its start; backfilled for sessions older than schema 4). */
+    public synchronized String sessionUuid(long sessionId) {
         return read(c -> {
-            try (Statement s = c.createStatement(); ResultSet rs = s.executeQuery("PRAGMA integrity_check")) {
-                StringBuilder sb = new StringBuilder();
-                while (rs.next()) sb.append(sb.length() == 0 ? "" : "; ").append(rs.getString(1));
-                return sb.toString();
+            try (PreparedStatement q = c.prepareStatement("SELECT uuid FROM sessions WHERE id = ?")) {
+                q.setLong(1, sessionId);
+                try (ResultSet rs = q.executeQuery()) {
+                    if (!rs.next()) throw new IllegalArgumentException("no session " + sessionId + " in logbook " + engine.display());
+                    return rs.getString(1);
+                }
             }
         });
     }
 
+    /** Captures stored per transaction while pushing (and at most this many bytes). */
+    static final int PUSH_CAPTURE_BATCH = 256;
+    static final long PUSH_CAPTURE_BATCH_BYTES = 64L << 20;
+
+    /**
+     * Copies this logbook's units, sessions, steps, measurements and captures into {@code target} (typically a
+     * bench's SQLite file into the shop's server). Idempotent: a session is known by its UUID, a step by its number in
+     * the session, a capture by its SHA-256; pushing twice copies nothing the second time, and pushing a session
+     * again after more steps copies only the new steps (and its end, if it ended since). Measurements outside steps
+     * are copied in their order, those beyond the count the target already has. Each session's rows are one
+     * transaction in the target; its captures go first (so a step never names a capture the target lacks, unless the
+     * source lacked it too).
+     */
+    public PushResult pushTo(Logbook target) {
+        Objects.requireNonNull(target, "target");
+        if (target == this) throw new IllegalArgumentException("cannot push a logbook into itself");
+        int sessionsAdded = 0;
+        int sessionsUpdated = 0;
+        int steps = 0;
+        int measurements = 0;
+        int captures = 0;
+        int missing = 0;
+        List<Session> all = sessions();
+        for (Session s : all) {
+            String uuid = sessionUuid(s.id());
+            SessionData d = sessionData(s.id());
+            Map<String, CaptureRef> refs = new LinkedHashMap<>();
+            for (BiasStep b : d.steps()) b.measurement().flatMap(MeasurementRecord::capture).ifPresent(r -> refs.putIfAbsent(r.sha256(), r));
+            for (MeasurementRecord m : d.measurements()) m.capture().ifPresent(r -> refs.putIfAbsent(r.sha256(), r));
+            Set<String> have = target.engine.presentCaptures(refs.keySet());
+            List<CaptureRef> batch = new ArrayList<>();
+            long batchBytes = 0;
+            for (CaptureRef r : refs.values()) {
+                if (have.contains(r.sha256())) continue;
+                batch.add(r);
+                batchBytes += r.sizeBytes();
+                if (batch.size() >= PUSH_CAPTURE_BATCH || batchBytes >= PUSH_CAPTURE_BATCH_BYTES) {
+                    int n = target.engine.storeCaptures(batch, engine::openCapture).size();
+                    captures += n;
+                    missing += batch.size() - n;
+                    batch = new ArrayList<>();
+                    batchBytes = 0;
+                }
+            }
+            if (!batch.isEmpty()) {
+                int n = target.engine.storeCaptures(batch, engine::openCapture).size();
+                captures += n;
+                missing += batch.size() - n;
+            }
+            int[] r = target.mergeSession(uuid, d);
+            if (r[0] == 1) sessionsAdded++;
+            else if (r[0] == 2) sessionsUpdated++;
+            steps += r[1];
+            measurements += r[2];
+        }
+        return new PushResult(all.size(), sessionsAdded, sessionsUpdated, steps, measurements, captures, missing);
+    }
+
+    /** Merges one pushed session in one transaction: {0 unchanged | 1 added | 2 updated, steps added, measurements added}. */
+    private synchronized int[] mergeSession(String uuid, SessionData d) {
+        return write(c -> {
+            Long sid = null;
+            try (PreparedStatement q = c.prepareStatement("SELECT id, ended_at FROM sessions WHERE uuid = ?")) {
+                q.setString(1, uuid);
+                try (ResultSet rs = q.executeQuery()) {
+                    if (rs.next()) sid = rs.getLong(1);
+                }
+            }
+            int state = 0;
+            Session s = d.session();
+            if (sid == null) {
+                long unitId = unitId(c, d.unit());
+                try (PreparedStatement ins = c.prepareStatement("INSERT INTO sessions(unit_id, kind, started_at, ended_at, notes, uuid)"
+                        + " VALUES (?,?,?,?,?,?)", ID_COLUMN)) {
+                    ins.setLong(1, unitId);
+                    ins.setString(2, s.kind().label());
+                    ins.setString(3, s.startedAt().toString());
+                    setText(ins, 4, s.endedAt().map(Instant::toString));
+                    ins.setString(5, s.notes());
+                    ins.setString(6, uuid);
+                    ins.executeUpdate();
+                    sid = generatedKey(ins);
+                }
+                state = 1;
+            } else {
+                engine.lockSession(c, sid);
+                if (s.endedAt().isPresent()) {
+                    try (PreparedStatement u = c.prepareStatement("UPDATE sessions SET ended_at = ? WHERE id = ? AND ended_at IS NULL")) {
+                        u.setString(1, s.endedAt().get().toString());
+                        u.setLong(2, sid);
+                        if (u.executeUpdate() > 0) state = 2;
+                    }
+                }
+            }
+            Set<Integer> seqs = new java.util.HashSet<>();
+            int outside = 0;
+            if (state != 1) {
+                try (PreparedStatement q = c.prepareStatement("SELECT seq FROM bias_steps WHERE session_id = ?")) {
+                    q.setLong(1, sid);
+                    try (ResultSet rs = q.executeQuery()) {
+                        while (rs.next()) seqs.add(rs.getInt(1));
+                    }
+                }
+                try (PreparedStatement q = c.prepareStatement("SELECT count(*) FROM measurements m WHERE m.session_id = ?"
+                        + " AND NOT EXISTS (SELECT 1 FROM bias_steps b WHERE b.measurement_id = m.id)")) {
+                    q.setLong(1, sid);
+                    try (ResultSet rs = q.executeQuery()) {
+                        rs.next();
+                        outside = rs.getInt(1);
+                    }
+                }
+            }
+            List<BiasStep> fresh = new ArrayList<>();
+            for (BiasStep step : d.steps()) if (!seqs.contains(step.seq())) fresh.add(step);
+            List<MeasurementRecord> stepMeasurements = new ArrayList<>();
+            for (BiasStep step : fresh) step.measurement().ifPresent(stepMeasurements::add);
+            List<Long> mids = insertMeasurements(c, sid, stepMeasurements);
+            try (PreparedStatement ins = c.prepareStatement(INSERT_STEP)) {
+                int k = 0;
+                for (BiasStep step : fresh) {
+                    Long mid = step.measurement().isPresent() ? mids.get(k++) : null;
+                    bindStep(ins, sid, step.seq(), step, mid);
+                    ins.addBatch();
+                }
+                if (!fresh.isEmpty()) ins.executeBatch();
+            }
+            int steps = fresh.size();
+            List<MeasurementRecord> rest = d.measurements().subList(Math.min(outside, d.measurements().size()), d.measurements().size());
+            insertMeasurements(c, sid, rest);
+            int ms = rest.size();
+            if (state == 0 && (steps > 0 || ms > 0)) state = 2;
+            return new int[] {state, steps, ms};
+        });
+    }
+
+    /** A structural check: SQLite's {@code PRAGMA integrity_check}, or the shared schema's links ("ok" when sound). */
+    public synchronized String integrityCheck() {
+        return engine.integrityCheck();
+    }
+
     @Override
     public synchronized void close() {
-        try {
-            conn.close();
-        } catch (SQLException e) {
-            throw new LogbookException("closing logbook " + path + ": " + e.getMessage(), e);
-        }
+        engine.close();
     }
 
     // ---------------------------------------------------------------- transactions
 
-    interface Work<T> {
-        T run(Connection c) throws SQLException;
-    }
+    interface Work<T> extends Engine.Work<T> {}
 
-    /** Runs {@code work} in one write transaction, retrying while another writer holds the lock. */
+    /** Runs {@code work} in one write transaction (retried by the engine while another writer holds a lock). */
     <T> T write(Work<T> work) {
-        try {
-            return withRetry(path, () -> {
-                try (Statement s = conn.createStatement()) {
-                    s.execute("BEGIN IMMEDIATE");
-                }
-                boolean done = false;
-                try {
-                    T r = work.run(conn);
-                    try (Statement s = conn.createStatement()) {
-                        s.execute("COMMIT");
-                    }
-                    done = true;
-                    return r;
-                } finally {
-                    if (!done) {
-                        try (Statement s = conn.createStatement()) {
-                            s.execute("ROLLBACK");
-                        } catch (SQLException ignored) {
-                            // no transaction left to roll back
-                        }
-                    }
-                }
-            });
-        } catch (SQLException e) {
-            throw new LogbookException("logbook " + path + ": " + e.getMessage(), e);
-        }
+        return engine.write(work);
     }
 
     <T> T read(Work<T> work) {
-        try {
-            return withRetry(path, () -> work.run(conn));
-        } catch (SQLException e) {
-            throw new LogbookException("logbook " + path + ": " + e.getMessage(), e);
-        }
-    }
-
-    interface SqlCall<T> {
-        T call() throws SQLException;
-    }
-
-    /** SQLITE_BUSY (5) and SQLITE_LOCKED (6), with or without extended codes. */
-    static boolean isBusy(SQLException e) {
-        int code = e.getErrorCode() & 0xff;
-        return code == 5 || code == 6 || String.valueOf(e.getMessage()).contains("SQLITE_BUSY");
-    }
-
-    private static <T> T withRetry(Path path, SqlCall<T> call) throws SQLException {
-        long start = System.nanoTime();
-        long sleepMs = 20;
-        while (true) {
-            try {
-                return call.call();
-            } catch (SQLException e) {
-                long elapsedMs = (System.nanoTime() - start) / 1_000_000;
-                if (!isBusy(e) || elapsedMs > RETRY_BUDGET_MS) {
-                    if (isBusy(e)) throw new SQLException("still busy after " + elapsedMs / 1000 + " s: another program holds the logbook", e);
-                    throw e;
-                }
-                try {
-                    Thread.sleep(sleepMs);
-                } catch (InterruptedException ie) {
-                    Thread.currentThread().interrupt();
-                    throw e;
-                }
-                sleepMs = Math.min(sleepMs * 2, 500);
-            }
-        }
+        return engine.read(work);
     }
 
     // ---------------------------------------------------------------- column helpers
+
+    /** The generated key asked for by name: PostgreSQL then returns the id alone, not the whole row. */
+    private static final String[] ID_COLUMN = {"id"};
 
     private static long generatedKey(PreparedStatement ins) throws SQLException {
         try (ResultSet keys = ins.getGeneratedKeys()) {

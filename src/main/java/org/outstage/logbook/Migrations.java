@@ -3,9 +3,10 @@ package org.outstage.logbook;
 import java.util.List;
 
 /**
- * The schema as numbered migrations. Migration {@code i} (1-based) takes a logbook from schema version
- * {@code i-1} to {@code i}; {@code PRAGMA user_version} holds the version reached. Never edit a
- * released migration: add the next one.
+ * The hand-rolled migrations 1..3 that made SQLite logbooks before the schema moved to Flyway
+ * ({@link FlywayMigrations}, {@code db/logbook/*}). Frozen: kept to bring a logbook of version 1 or 2 to 3, where
+ * Flyway baselines it, and for tests that build such an old file. Migration {@code i} (1-based) takes a logbook
+ * from {@code PRAGMA user_version} {@code i-1} to {@code i}. New migrations go to Flyway, never here.
  */
 final class Migrations {
     private Migrations() {}
@@ -44,5 +45,6 @@ final class Migrations {
                     "UPDATE measurements SET crossover_ratio = json_extract(measurement_json, '$.crossover.verdict_ratio')"
                             + " WHERE json_valid(measurement_json)"));
 
-    static int latest() { return STEPS.size(); }
+    /** The newest schema version (Flyway's), which {@code PRAGMA user_version} of an SQLite logbook also carries. */
+    static int latest() { return FlywayMigrations.LATEST; }
 }

@@ -37,6 +37,12 @@ final class Fixtures {
                 rnd.nextInt(5) == 0 ? Optional.empty() : Optional.of(measurement(rnd, cap, at)));
     }
 
+    /** A plain reading, no capture and no measurement (the many-writers test: contention, not bytes). */
+    static BiasStep lightStep(Random rnd, int i) {
+        return BiasStep.draft(T0.plusSeconds(i), BiasReading.millivolts(5 + 50 * rnd.nextDouble()), OptionalDouble.empty(),
+                OptionalDouble.empty(), 1, Optional.empty());
+    }
+
     static UnitUnderTest unit() {
         return new UnitUnderTest("DA-60 #7", Optional.of("SN-0007"), Optional.of("emitter follower"), Optional.of("recapped; new drivers"),
                 OptionalDouble.of(60), OptionalDouble.of(8));

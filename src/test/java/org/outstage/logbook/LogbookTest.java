@@ -20,18 +20,22 @@ import java.util.Optional;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.MethodSource;
 
+/** The logbook's contract; the cases with an engine parameter run on SQLite and on PostgreSQL ({@link TestLogbooks}). */
 class LogbookTest {
     @TempDir Path dir;
 
-    @Test
-    void stepsAndMeasurements_roundTripThroughSqlite_equal() {
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("org.outstage.logbook.TestLogbooks#engines")
+    void stepsAndMeasurements_roundTripThroughTheStore_equal(String engine) {
         Random rnd = new Random(42);
-        Path db = dir.resolve("lb.db");
+        String db = TestLogbooks.newLogbook(engine, dir, "lb");
         List<BiasStep> written = new ArrayList<>();
         List<MeasurementRecord> extra = new ArrayList<>();
         long id;
-        try (Logbook lb = Logbook.open(db)) {
+        try (Logbook lb = TestLogbooks.open(db)) {
             id = lb.startSession(Fixtures.unit(), SessionKind.BIAS_ADJUSTMENT, Fixtures.T0, "first try");
             for (int i = 0; i < 12; i++) written.add(lb.addBiasStep(id, Fixtures.step(rnd, i, Optional.empty())));
             for (int i = 0; i < 3; i++) {
@@ -40,7 +44,7 @@ class LogbookTest {
                 extra.add(m);
             }
         }
-        try (Logbook lb = Logbook.open(db)) {
+        try (Logbook lb = TestLogbooks.open(db)) {
             assertEquals(written, lb.biasSteps(id));
             assertEquals(StepPoint.of(written), lb.stepSeries(id), "the light series carries the same figures");
             assertEquals(extra, lb.measurements(id));
@@ -53,26 +57,56 @@ class LogbookTest {
         }
     }
 
-    @Test
-    void storedCapture_isContentAddressed_andSurvivesTheOriginal() throws Exception {
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("org.outstage.logbook.TestLogbooks#engines")
+    void storedCapture_isContentAddressed_andSurvivesTheOriginal(String engine) throws Exception {
         Path original = dir.resolve("take_bias-20mV.wav");
         byte[] bytes = new byte[5000];
         new Random(7).nextBytes(bytes);
         Files.write(original, bytes);
-        try (Logbook lb = Logbook.open(dir.resolve("lb.db"))) {
+        try (Logbook lb = TestLogbooks.open(TestLogbooks.newLogbook(engine, dir, "cap"))) {
             CaptureRef ref = lb.storeCapture(original);
             // oracle: the JDK's SHA-256 of the same bytes
             assertEquals(HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(bytes)), ref.sha256());
             assertEquals(5000, ref.sizeBytes());
             Files.delete(original);
-            Path stored = lb.capturePath(ref).orElseThrow();
-            assertArrayEquals(bytes, Files.readAllBytes(stored));
+            try (var in = lb.openCapture(ref).orElseThrow()) {
+                assertArrayEquals(bytes, in.readAllBytes());
+            }
             Path again = dir.resolve("renamed.wav");
             Files.write(again, bytes);
             assertEquals(ref.sha256(), lb.storeCapture(again).sha256(), "same content gives the same hash");
-            try (var files = Files.list(lb.capturesDir())) {
-                assertEquals(1, files.count(), "no temp files left, one copy per content");
+            if (!lb.isShared()) {
+                assertArrayEquals(bytes, Files.readAllBytes(lb.capturePath(ref).orElseThrow()));
+                try (var files = Files.list(lb.capturesDir()).filter(f -> !f.getFileName().toString().equals(".migrating.lock"))) {
+                    assertEquals(1, files.count(), "no temp files left, one copy per content");
+                }
+            } else {
+                assertEquals(Integer.valueOf(1), lb.<Integer>read(c -> {
+                    try (Statement s = c.createStatement(); ResultSet rs = s.executeQuery("SELECT count(*) FROM capture_blobs")) {
+                        rs.next();
+                        return rs.getInt(1);
+                    }
+                }), "one copy per content");
             }
+        }
+    }
+
+    /** A capture larger than one read slice comes back whole, byte for byte, through the slices. */
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("org.outstage.logbook.TestLogbooks#engines")
+    void largeCapture_streamsBackWhole(String engine) throws Exception {
+        Path original = dir.resolve("long.wav");
+        byte[] bytes = new byte[PostgresEngine.READ_SLICE_BYTES * 2 + 12345];
+        new Random(11).nextBytes(bytes);
+        Files.write(original, bytes);
+        try (Logbook lb = TestLogbooks.open(TestLogbooks.newLogbook(engine, dir, "big"))) {
+            CaptureRef ref = lb.storeCapture(original);
+            assertEquals(bytes.length, ref.sizeBytes());
+            try (var in = lb.openCapture(ref).orElseThrow()) {
+                assertArrayEquals(bytes, in.readAllBytes());
+            }
+            assertTrue(lb.openCapture(new CaptureRef("0".repeat(64), "x.wav", 1)).isEmpty(), "an unknown hash is not there");
         }
     }
 
@@ -194,14 +228,80 @@ class LogbookTest {
         }
     }
 
-    @Test
-    void endedSession_refusesNewSteps() {
-        try (Logbook lb = Logbook.open(dir.resolve("e.db"))) {
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("org.outstage.logbook.TestLogbooks#engines")
+    void endedSession_refusesNewSteps(String engine) {
+        try (Logbook lb = TestLogbooks.open(TestLogbooks.newLogbook(engine, dir, "e"))) {
             long id = lb.startSession(UnitUnderTest.named("DA-60 #2"), SessionKind.BIAS_ADJUSTMENT, Fixtures.T0, "");
             lb.endSession(id, Fixtures.T0.plusSeconds(60));
             IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
                     () -> lb.addBiasStep(id, Fixtures.step(new Random(3), 0, Optional.empty())));
             assertTrue(e.getMessage().contains("ended"), e.getMessage());
+        }
+    }
+
+    /**
+     * Issue 10: a kill -9 cannot see a missing fsync (the page cache survives it), so the settings that make a
+     * commit reach the disk are asserted directly. SQLite: WAL with synchronous=FULL (2) on the writing connection
+     * (WAL + NORMAL may lose the last commits on power loss: sqlite.org/pragma.html#pragma_synchronous). PostgreSQL:
+     * fsync on, synchronous_commit on for our sessions, full_page_writes on (postgresql.org/docs/15/runtime-config-wal.html).
+     */
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("org.outstage.logbook.TestLogbooks#engines")
+    void durabilitySettings_makeACommitReachTheDisk(String engine) {
+        try (Logbook lb = TestLogbooks.open(TestLogbooks.newLogbook(engine, dir, "sync"))) {
+            lb.startSession(UnitUnderTest.named("DA-60 #3"), SessionKind.EVALUATION, Fixtures.T0, "");
+            if (!lb.isShared()) {
+                assertEquals("wal", setting(lb, "PRAGMA journal_mode"));
+                assertEquals("2", setting(lb, "PRAGMA synchronous"), "synchronous=FULL");
+            } else {
+                assertEquals("on", setting(lb, "SHOW fsync"));
+                assertEquals("on", setting(lb, "SHOW synchronous_commit"));
+                assertEquals("on", setting(lb, "SHOW full_page_writes"));
+            }
+        }
+    }
+
+    private static String setting(Logbook lb, String sql) {
+        return lb.read(c -> {
+            try (Statement s = c.createStatement(); ResultSet rs = s.executeQuery(sql)) {
+                rs.next();
+                return rs.getString(1).toLowerCase(java.util.Locale.ROOT);
+            }
+        });
+    }
+
+    /**
+     * A logbook made by the hand-rolled migrations (schema 3, no Flyway history; built here with their SQL, which
+     * {@link Migrations} keeps frozen) opens: Flyway baselines it at 3 and adds 4, giving old sessions a stable id.
+     */
+    @Test
+    void logbookMadeBeforeFlyway_isBaselinedAndMigrated_sessionsGetUuids() throws Exception {
+        Path f = dir.resolve("v3.db");
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement()) {
+            for (int v = 0; v < 3; v++) for (String sql : Migrations.STEPS.get(v)) s.executeUpdate(sql);
+            s.executeUpdate("PRAGMA user_version = 3");
+            s.executeUpdate("PRAGMA application_id = " + Migrations.APPLICATION_ID);
+            s.executeUpdate("INSERT INTO units(name) VALUES ('DA-60 #4')");
+            s.executeUpdate("INSERT INTO sessions(unit_id, kind, started_at) VALUES (1, 'evaluation', '2026-01-01T00:00:00Z')");
+            s.executeUpdate("INSERT INTO sessions(unit_id, kind, started_at) VALUES (1, 'evaluation', '2026-01-02T00:00:00Z')");
+        }
+        try (Logbook lb = Logbook.open(f)) {
+            assertEquals(4, lb.schemaVersion());
+            assertEquals(2, lb.sessions().size());
+        }
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + f); Statement s = c.createStatement()) {
+            try (ResultSet rs = s.executeQuery("SELECT count(DISTINCT uuid), min(length(uuid)), sum(uuid LIKE '________-____-4___-____-____________')"
+                    + " FROM sessions")) {
+                rs.next();
+                assertEquals(2, rs.getInt(1), "each old session has its own id");
+                assertEquals(36, rs.getInt(2));
+                assertEquals(2, rs.getInt(3), "version-4 UUID layout");
+            }
+            try (ResultSet rs = s.executeQuery("SELECT group_concat(version || ':' || type, ' ') FROM flyway_schema_history ORDER BY installed_rank")) {
+                rs.next();
+                assertEquals("3:BASELINE 4:SQL", rs.getString(1));
+            }
         }
     }
 

@@ -1,0 +1,57 @@
+package org.outstage.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.outstage.Launcher;
+import org.outstage.logbook.Logbook;
+
+/**
+ * The pool, the migration tool and the PostgreSQL driver stay off the startup path: a command that does not use
+ * the logbook loads none of them, and an up-to-date SQLite logbook opens without them. Checked from the JVM's own
+ * class-loading log of a child process.
+ */
+class LazyLoadingTest {
+    @TempDir Path dir;
+
+    private List<String> loaded(String... args) throws Exception {
+        Path log = dir.resolve("classes-" + System.nanoTime() + ".log");
+        List<String> cmd = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+                "-Xlog:class+load=info:file=" + log, "-Djava.awt.headless=true", "-XX:TieredStopAtLevel=1",
+                "-cp", System.getProperty("java.class.path"), Launcher.class.getName()));
+        cmd.addAll(List.of(args));
+        Process p = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(ProcessBuilder.Redirect.DISCARD).start();
+        assertTrue(p.waitFor(120, TimeUnit.SECONDS));
+        assertEquals(0, p.exitValue(), String.join(" ", args));
+        return Files.readAllLines(log).stream().filter(l -> l.contains("com.zaxxer") || l.contains("org.flywaydb") || l.contains("org.postgresql"))
+                .toList();
+    }
+
+    @Test
+    void analyze_loadsNoPoolMigrationsOrDriver() throws Exception {
+        Path project = Path.of(System.getProperty("outstage.project.dir", "."));
+        assertEquals(List.of(), loaded("analyze", project.resolve("sample-captures/da60-level-005W.wav").toString()));
+    }
+
+    @Test
+    void sessionListOnUpToDateSqliteLogbook_loadsNoPoolMigrationsOrDriver() throws Exception {
+        Path db = dir.resolve("lb.db");
+        Logbook.open(db).close(); // made and migrated here
+        assertEquals(List.of(), loaded("session", "list", "--logbook", db.toString()));
+    }
+
+    /** The detector's own check: a new logbook is migrated by Flyway, and the log shows it. */
+    @Test
+    void sessionListOnNewSqliteLogbook_loadsFlyway() throws Exception {
+        List<String> l = loaded("session", "list", "--logbook", dir.resolve("new.db").toString());
+        assertTrue(l.stream().anyMatch(x -> x.contains("org.flywaydb")), "Flyway classes loaded: " + l.size());
+        assertTrue(l.stream().noneMatch(x -> x.contains("com.zaxxer") || x.contains("org.postgresql")), "no pool, no driver for SQLite");
+    }
+}
