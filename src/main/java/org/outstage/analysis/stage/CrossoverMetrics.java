@@ -29,7 +29,7 @@ package org.outstage.analysis.stage;
  * band spans about 0.8× to 1.3× the Oliver current. {@code gainAtZero} keeps its stated definition.
  *
  * @param gainAtZero              r = gain at zero / outer mean gain (ratio)
- * @param gainAtZeroStdError      σ of r from the propagated bin standard errors
+ * @param gainAtZeroStdError      σ of r: sample noise, the estimated resolution bias and the outer gain's σ in quadrature
  * @param incrementalGainAtZero   dOut/dIdeal at zero output (not normalised)
  * @param outerMeanGain           mean dOut/dIdeal over the outer swing
  * @param notchWidthVolts         output span around zero where |normalised gain − 1| exceeds the notch tolerance
@@ -47,10 +47,24 @@ package org.outstage.analysis.stage;
  *                                level; NaN when it does not (then the outer mean gain is the reference)
  * @param verdictRatio            what the verdict reads: gain at zero / asymptotic gain when that exists, otherwise
  *                                {@code gainAtZero}
- * @param verdictRatioStdError    σ of {@code verdictRatio}
+ * @param verdictRatioStdError    σ of {@code verdictRatio}, including the resolution bias of the gain at zero
+ * @param resolution              window and error breakdown of the gain at zero
  */
 public record CrossoverMetrics(double gainAtZero, double gainAtZeroStdError, double incrementalGainAtZero,
                                double outerMeanGain, double notchWidthVolts, double notchDepthVolts,
                                double notchDepthFraction, double nearZeroResidualShare, double nearZeroTimeShare,
                                BiasVerdict verdict, double confidence, String explanation,
-                               double asymptoticGain, double verdictRatio, double verdictRatioStdError) {}
+                               double asymptoticGain, double verdictRatio, double verdictRatioStdError,
+                               Resolution resolution) {
+
+    /**
+     * How the gain at zero was resolved (see {@link AdaptiveSlope}): the half width of the window of ideal output
+     * chosen around zero, and the two parts of {@code gainAtZeroStdError} (which is their quadrature sum together
+     * with the outer gain's part): sample noise and resolution bias, both as fractions of the outer mean gain.
+     *
+     * @param windowHalfWidthVolts half width of the local-regression window around zero (capture unit)
+     * @param noiseStdError        noise part of the gain at zero's standard error (ratio)
+     * @param resolutionBias       estimated resolution bias of the gain at zero (ratio, absolute value)
+     */
+    public record Resolution(double windowHalfWidthVolts, double noiseStdError, double resolutionBias) {}
+}

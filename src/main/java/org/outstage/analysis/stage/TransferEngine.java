@@ -134,8 +134,8 @@ final class TransferEngine {
         upPos = Math.max(upPos, 0.6 * peak);
         upNeg = Math.max(upNeg, 0.6 * peak);
         double[] line = lineFit(xs, ys, counts, -Math.min(peak, neg.unaffectedIdealVolts), Math.min(peak, pos.unaffectedIdealVolts));
-        Local p9 = localAt(xs, ds, w, h, upPos), p5 = localAt(xs, ds, w, h, 0.5 * peak);
-        Local n5 = localAt(xs, ds, w, h, -0.5 * peak), n9 = localAt(xs, ds, w, h, -upNeg);
+        Local p9 = resolved(xs, ds, w, h, upPos), p5 = resolved(xs, ds, w, h, 0.5 * peak);
+        Local n5 = resolved(xs, ds, w, h, -0.5 * peak), n9 = resolved(xs, ds, w, h, -upNeg);
         double span = (upPos - 0.5 * peak) + (upNeg - 0.5 * peak);
         double outer = ((upPos + p9.value) - (0.5 * peak + p5.value) + (-0.5 * peak + n5.value) - (-upNeg + n9.value)) / span;
         double outerVar = (p9.valueVar + p5.valueVar + n5.valueVar + n9.valueVar) / (span * span);
@@ -151,11 +151,26 @@ final class TransferEngine {
         MeasuredTransfer transfer = new MeasuredTransfer(curve, counts, se, dev, ng, ngSe, peak, line[0], line[1], outer,
                 noise, hyst, fromReference);
 
-        // crossover
-        Local z = localAt(xs, ds, w, h, 0);
-        double g0 = 1 + z.slope;
+        // crossover: the gain at zero from the raw samples with a data-driven window (AdaptiveSlope); the binned,
+        // ±h-bin fit smears a notch narrower than its window upwards
+        double hMax = (h + 0.5) * width;
+        Optional<AdaptiveSlope.Estimate> a0 = AdaptiveSlope.at(x, y, 0, hMax, noise);
+        double g0, g0NoiseVar, g0Bias, g0Window;
+        if (a0.isPresent()) {
+            g0 = a0.get().slope();
+            g0NoiseVar = a0.get().noiseVariance();
+            g0Bias = a0.get().biasAbs();
+            g0Window = a0.get().bandwidth();
+        } else {
+            Local z = localAt(xs, ds, w, h, 0), z2 = localAt(xs, ds, w, Math.min(2 * h, (m - 1) / 2), 0);
+            g0 = 1 + z.slope;
+            g0NoiseVar = z.slopeVar;
+            g0Bias = Math.abs(z2.slope - z.slope) / 15;  // bias ∝ h⁴: the fit at 2h carries 16 times the bias at h
+            g0Window = hMax;
+        }
+        double g0Var = g0NoiseVar + g0Bias * g0Bias;
         double r = g0 / outer;
-        double rSe = Math.sqrt(z.slopeVar / (outer * outer) + r * r * outerVar / (outer * outer));
+        double rSe = Math.sqrt(g0Var / (outer * outer) + r * r * outerVar / (outer * outer));
         double notchWidth = notchWidth(xs, ng, r, s.notchGainTolerance());
         double depth = 0;
         for (int i = 0; i < m; i++) if (Math.abs(xs[i]) < 0.5 * peak) depth = Math.max(depth, Math.abs(dev[i]));
@@ -176,10 +191,11 @@ final class TransferEngine {
         double aVar = (Math.pow(v2 / (gOut * gOut), 2) * gOutVar + Math.pow(v1 / (gIn * gIn), 2) * gInVar) / ((v2 - v1) * (v2 - v1));
         boolean outerRising = flat - s.verdictSigmas() * flatSe > 0 && a > 0;
         double rInf = outerRising ? g0 * a : r;
-        double rInfSe = outerRising ? Math.sqrt(z.slopeVar * a * a + g0 * g0 * aVar) : rSe;
+        double rInfSe = outerRising ? Math.sqrt(g0Var * a * a + g0 * g0 * aVar) : rSe;
         CrossoverMetrics crossover = verdict(r, rSe, outerRising ? 1 / a : Double.NaN, rInf, rInfSe, g0, outer, notchWidth, depth, peak,
                 nearZeroResidualShare, nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
-                quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, s);
+                quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, s,
+                new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer)));
         return new Result(transfer, clipping, crossover);
     }
 
@@ -276,6 +292,21 @@ final class TransferEngine {
         if (j > 0 && (j == m || Math.abs(xs[j - 1] - x0) < Math.abs(xs[j] - x0))) j--;
         int lo = Math.max(0, Math.min(j - h, m - 2 * h - 1));
         return local(xs, ds, w, lo, lo + 2 * h + 1, x0);
+    }
+
+    /**
+     * {@link #localAt} with its resolution bias added to the variances: a cubic's value and slope carry a bias
+     * ∝ h⁴ on a smooth curve, so the fit over 2h bins differs from the one over h by 15 times the bias at h
+     * (Richardson's extrapolation argument).
+     */
+    static Local resolved(double[] xs, double[] ds, double[] w, int h, double x0) {
+        Local l = localAt(xs, ds, w, h, x0);
+        int h2 = Math.min(2 * h, (xs.length - 1) / 2);
+        if (h2 <= h) return l;
+        Local l2 = localAt(xs, ds, w, h2, x0);
+        double f = Math.pow((double) h2 / h, 4) - 1;
+        double bv = (l2.value - l.value) / f, bs = (l2.slope - l.slope) / f;
+        return new Local(l.value, l.slope, l.valueVar + bv * bv, l.slopeVar + bs * bs);
     }
 
     /** Count-weighted least-squares line y = a·x + b over bins with lo ≤ x ≤ hi; returns {a, b}. */
@@ -419,7 +450,8 @@ final class TransferEngine {
     private static CrossoverMetrics verdict(double rDefined, double rDefinedSe, double asymptote, double r, double rSe, double g0,
                                             double outer, double notchWidth, double depth,
                                             double peak, double nzShare, double nzTime, Hysteresis hyst, boolean outerClipped,
-                                            double outerFall, double coarseStep, StageSettings s) {
+                                            double outerFall, double coarseStep, StageSettings s,
+                                            CrossoverMetrics.Resolution res) {
         double band = s.nearOptimalBand(), k = s.verdictSigmas();
         double lo = 1 - band, hi = 1 + band;
         double pUnder = phi((lo - r), rSe), pOver = phi((r - hi), rSe);
@@ -459,7 +491,7 @@ final class TransferEngine {
             why = rTxt + ": the uncertainty straddles a threshold; average more cycles or reduce the noise";
         }
         return new CrossoverMetrics(rDefined, rDefinedSe, g0, outer, notchWidth, depth, depth / peak, nzShare, nzTime, v, conf, why,
-                asymptote, r, rSe);
+                asymptote, r, rSe, res);
     }
 
     /** P(Z ≤ z/σ) for a standard normal Z; a step when σ = 0. */
