@@ -33,7 +33,8 @@ package org.outstage.analysis.stage;
  * @param incrementalGainAtZero   dOut/dIdeal at zero output (not normalised)
  * @param outerMeanGain           mean dOut/dIdeal over the outer swing
  * @param notchWidthVolts         output span around zero where |normalised gain − 1| exceeds the notch tolerance
- *                                (0 when the gain at zero is within it); resolution is the smoothing window
+ *                                (0 when the gain at zero is within it); edges located with the adaptive slope
+ *                                (σ in {@link Resolution#notchWidthStdErrorVolts})
  * @param notchDepthVolts         largest |deviation from the best line| for |v| &lt; 50 % of peak
  * @param notchDepthFraction      notchDepthVolts / peak
  * @param nearZeroResidualShare   share of the residual energy in samples with |ideal| &lt; nearZeroFraction·peak
@@ -65,6 +66,10 @@ public record CrossoverMetrics(double gainAtZero, double gainAtZeroStdError, dou
      * @param windowHalfWidthVolts half width of the local-regression window around zero (capture unit)
      * @param noiseStdError        noise part of the gain at zero's standard error (ratio)
      * @param resolutionBias       estimated resolution bias of the gain at zero (ratio, absolute value)
+     * @param notchWidthStdErrorVolts σ of {@code notchWidthVolts}: each edge's gain σ (noise and resolution bias) over
+     *                             the rate at which the gain crosses the tolerance there, both edges in quadrature
+     *                             (0 when there is no notch)
      */
-    public record Resolution(double windowHalfWidthVolts, double noiseStdError, double resolutionBias) {}
+    public record Resolution(double windowHalfWidthVolts, double noiseStdError, double resolutionBias,
+                             double notchWidthStdErrorVolts) {}
 }

@@ -171,7 +171,8 @@ final class TransferEngine {
         double g0Var = g0NoiseVar + g0Bias * g0Bias;
         double r = g0 / outer;
         double rSe = Math.sqrt(g0Var / (outer * outer) + r * r * outerVar / (outer * outer));
-        double notchWidth = notchWidth(xs, ng, r, s.notchGainTolerance());
+        double[] notch = notchWidth(x, y, xs, ng, r, outer, s.notchGainTolerance(), hMax, noise);
+        double notchWidth = notch[0];
         double depth = 0;
         for (int i = 0; i < m; i++) if (Math.abs(xs[i]) < 0.5 * peak) depth = Math.max(depth, Math.abs(dev[i]));
         // flatness of the outer swing: past the crossover region one device carries the load and its gain rises
@@ -195,7 +196,7 @@ final class TransferEngine {
         CrossoverMetrics crossover = verdict(r, rSe, outerRising ? 1 / a : Double.NaN, rInf, rInfSe, g0, outer, notchWidth, depth, peak,
                 nearZeroResidualShare, nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
                 quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, s,
-                new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer)));
+                new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer), notch[1]));
         return new Result(transfer, clipping, crossover);
     }
 
@@ -432,19 +433,88 @@ final class TransferEngine {
 
     // ---------------------------------------------------------------- crossover
 
-    private static double notchWidth(double[] xs, double[] ng, double r, double tol) {
-        if (Math.abs(r - 1) <= tol) return 0;
+    /**
+     * Output span around zero where |normalised gain − 1| exceeds {@code tol}. The binned gain (±h-bin window) finds
+     * the bin on each side where the gain is back within the tolerance; the edge is then located with the adaptive
+     * raw-sample slope ({@link AdaptiveSlope}, the same rule as the gain at zero): moved outwards while the adaptive
+     * gain is still outside the tolerance there, inwards by halving while it is already inside one bin nearer zero (a
+     * notch narrower than the bins), then bisected four times and interpolated linearly in |gain − 1|.
+     * Returns {width, σ}: each edge's σ is the adaptive gain's σ there (noise and resolution bias) over the rate at
+     * which |gain − 1| crosses the tolerance (first-order propagation), the two edges in quadrature.
+     */
+    private static double[] notchWidth(double[] x, double[] y, double[] xs, double[] ng, double r, double outer, double tol,
+                                       double hMax, double noise) {
+        if (Math.abs(r - 1) <= tol) return new double[] {0, 0};
+        int m = xs.length;
+        int jp = firstBack(xs, ng, tol, +1), jn = firstBack(xs, ng, tol, -1);
+        double lim = Math.max(Math.abs(xs[Math.min(m - 1, jp + 8)]), Math.abs(xs[Math.max(0, jn - 8)])) + 2 * hMax;
+        int c = 0;
+        for (double v : x) if (Math.abs(v) <= lim) c++;
+        double[] cx = new double[c], cy = new double[c];
+        c = 0;
+        for (int i = 0; i < x.length; i++) if (Math.abs(x[i]) <= lim) { cx[c] = x[i]; cy[c++] = y[i]; }
+        java.util.function.DoubleUnaryOperator excess = v -> {
+            Optional<AdaptiveSlope.Estimate> e = AdaptiveSlope.at(cx, cy, v, hMax, noise);
+            double g = e.isPresent() ? e.get().slope() / outer : interpolate(xs, ng, v);
+            return Math.abs(g - 1) - tol;
+        };
+        double[] right = notchEdge(+1, jp, xs, r, tol, excess), left = notchEdge(-1, jn, xs, r, tol, excess);
+        double se = 0;
+        for (double[] e : new double[][] {right, left}) {
+            // σ of an edge: σ of the normalised gain there over the rate at which |gain − 1| crosses the tolerance
+            Optional<AdaptiveSlope.Estimate> est = e[1] > 0 ? AdaptiveSlope.at(cx, cy, e[2] * e[0], hMax, noise) : Optional.empty();
+            double sg = est.map(q -> Math.sqrt(q.totalVariance()) / Math.abs(outer)).orElse(0.0);
+            se += e[1] > 0 ? Math.pow(sg / e[1], 2) : 0;
+        }
+        return new double[] {right[0] + left[0], Math.sqrt(se)};
+    }
+
+    /** Index of the first bin outwards from zero (direction sgn) whose binned normalised gain is within tol. */
+    private static int firstBack(double[] xs, double[] ng, double tol, int sgn) {
         int m = xs.length;
         int j = Arrays.binarySearch(xs, 0.0);
-        if (j < 0) j = -j - 1;
-        j = Math.min(j, m - 1);
-        int lo = j, hi = j;
-        while (lo - 1 >= 0 && Math.abs(ng[lo - 1] - 1) > tol) lo--;
-        while (hi + 1 < m && Math.abs(ng[hi + 1] - 1) > tol) hi++;
-        // edges halfway to the first bin back inside the tolerance
-        double left = lo > 0 ? 0.5 * (xs[lo] + xs[lo - 1]) : xs[lo];
-        double right = hi < m - 1 ? 0.5 * (xs[hi] + xs[hi + 1]) : xs[hi];
-        return right - left;
+        if (j < 0) j = -j - 1;                       // first index with xs > 0
+        if (sgn < 0) j--;
+        j = Math.max(0, Math.min(m - 1, j));
+        while (j >= 0 && j < m && Math.abs(ng[j] - 1) > tol) j += sgn;
+        return Math.max(0, Math.min(m - 1, j));
+    }
+
+    /**
+     * One side (see {@link #notchWidth}); excess(v) = |gain − 1| − tol, positive inside the notch. Returns {|edge|,
+     * |d excess/dv| across the final bracket (0 when the edge is not bracketed), sgn}.
+     */
+    private static double[] notchEdge(int sgn, int j, double[] xs, double r, double tol, java.util.function.DoubleUnaryOperator excess) {
+        int m = xs.length;
+        double out = xs[j], fo = excess.applyAsDouble(out);
+        for (int k = 0; k < 8 && fo > 0; k++) {
+            if (j + sgn < 0 || j + sgn >= m) return new double[] {Math.abs(out), 0, sgn}; // the notch reaches the end
+            j += sgn;
+            out = xs[j];
+            fo = excess.applyAsDouble(out);
+        }
+        if (fo > 0) return new double[] {Math.abs(out), 0, sgn};
+        int ji = j - sgn;
+        double in = ji >= 0 && ji < m && sgn * xs[ji] > 0 ? xs[ji] : 0.5 * out;
+        double fi = excess.applyAsDouble(in);
+        for (int k = 0; k < 40 && fi <= 0; k++) { out = in; fo = fi; in *= 0.5; fi = excess.applyAsDouble(in); }
+        if (fi <= 0) return new double[] {0, 0, sgn};
+        for (int k = 0; k < 4; k++) {
+            double mid = 0.5 * (in + out), fm = excess.applyAsDouble(mid);
+            if (fm > 0) { in = mid; fi = fm; } else { out = mid; fo = fm; }
+        }
+        return new double[] {Math.abs(in + (out - in) * fi / (fi - fo)), (fi - fo) / Math.abs(out - in), sgn};
+    }
+
+    /** Linear interpolation of v on the curve (xs, ys), clamped at the ends. */
+    private static double interpolate(double[] xs, double[] ys, double v) {
+        int j = Arrays.binarySearch(xs, v);
+        if (j >= 0) return ys[j];
+        j = -j - 1;
+        if (j == 0) return ys[0];
+        if (j == xs.length) return ys[xs.length - 1];
+        double t = (v - xs[j - 1]) / (xs[j] - xs[j - 1]);
+        return ys[j - 1] + t * (ys[j] - ys[j - 1]);
     }
 
     private static CrossoverMetrics verdict(double rDefined, double rDefinedSe, double asymptote, double r, double rSe, double g0,

@@ -15,7 +15,7 @@ public class GainAtZeroLadderRun {
                     StageFixtures.Pair p = PushPullTruth.biasedAt(vq);
                     double a = level * fs0 * (8.22 / 8);
                     int n = (int) (0.5 * fs);
-                    double[] y = StageFixtures.drive(n, fs, 997, a, 0.3, p::out);
+                    double[] y = PushPullTruth.drive(p, n, fs, 997, a, 0.3);
                     y = StageFixtures.quantise(StageFixtures.noisy(y, fs0 * 1e-6, 5), fs0, 24);
                     long t1 = System.nanoTime();
                     SineFit fit = SineFitter.fit(y, fs);
@@ -24,6 +24,8 @@ public class GainAtZeroLadderRun {
                     CrossoverMetrics c = ((StageDiagnosis.Measured) d).crossover();
                     double truth = PushPullTruth.gainAtZero(p, a);
                     double vtruth = Double.isNaN(c.asymptoticGain()) ? truth : PushPullTruth.asymptoticRatio(p, a);
+                    double nw = PushPullTruth.notchWidth(p, a, 0.01);
+                    System.out.printf("notch width truth %.4f got %.4f ± %.4f (bin %.4f) depth %.4f  ", nw, c.notchWidthVolts(), c.resolution().notchWidthStdErrorVolts(), 2 * a / 256, c.notchDepthVolts());
                     System.out.printf("fs %5.0f lvl %.1f Vq %6.1f mV truth %.5f got %.5f err %+.5f se %.5f (noise %.1e bias %.1e h %.2e) | vr truth %.5f got %.5f err %+.5f se %.5f  %s gen %d ms an %d ms%n",
                             fs, level, vq * 1e3, truth, c.gainAtZero(), c.gainAtZero() - truth, c.gainAtZeroStdError(),
                             c.resolution().noiseStdError(), c.resolution().resolutionBias(), c.resolution().windowHalfWidthVolts(),

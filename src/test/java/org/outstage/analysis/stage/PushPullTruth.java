@@ -77,4 +77,34 @@ final class PushPullTruth {
         double g9 = 0.5 * (incrementalGain(p, 0.9 * a) + incrementalGain(p, -0.9 * a));
         return incrementalGain(p, 0) * (0.9 / g9 - 0.5 / g5) / 0.4;
     }
+
+    /** Fundamental amplitude of out(a·cos θ) by the trapezoid rule over one period (spectrally exact for a smooth law). */
+    static double fundamental(StageFixtures.Pair p, double a) {
+        int k = 4096;
+        double sum = 0;
+        for (int i = 0; i < k; i++) {
+            double th = 2 * Math.PI * i / k;
+            sum += p.out(a * Math.cos(th)) * Math.cos(th);
+        }
+        return 2 * sum / k;
+    }
+
+    /**
+     * Truth of notch_width for a drive of peak a (docs/diagnosis.md §5): the span of ideal output around zero where
+     * |g(u)/chord − 1| exceeds tol, with g the incremental gain in drive units and the chord as in
+     * {@link #gainAtZero}; the ideal output is the fundamental b1·cos, so drive u maps to ideal u·b1/a. The edge is
+     * found by a scan outwards in steps of a/4000 and bisection; 0 when the gain at zero is within tol.
+     */
+    static double notchWidth(StageFixtures.Pair p, double a, double tol) {
+        double chord = ((p.out(0.9 * a) - p.out(0.5 * a)) + (p.out(-0.5 * a) - p.out(-0.9 * a))) / (0.8 * a);
+        java.util.function.DoubleUnaryOperator ex = u -> Math.abs(incrementalGain(p, u) / chord - 1) - tol;
+        if (ex.applyAsDouble(0) <= 0) return 0;
+        double step = a / 4000, lo = 0, hi = step;
+        while (ex.applyAsDouble(hi) > 0 && hi < a) { lo = hi; hi += step; }
+        for (int k = 0; k < 60; k++) {
+            double mid = 0.5 * (lo + hi);
+            if (ex.applyAsDouble(mid) > 0) lo = mid; else hi = mid;
+        }
+        return 2 * lo * fundamental(p, a) / a;
+    }
 }
