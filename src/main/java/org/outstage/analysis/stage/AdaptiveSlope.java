@@ -75,12 +75,14 @@ final class AdaptiveSlope {
         double[][] r = new double[RUNGS][P];
         double[] dd = new double[RUNGS];
         int[] cnt = new int[RUNGS];
-        double inv = 1 / hMax, twoOverLn2 = 2 / Math.log(2);
+        double inv = 1 / hMax;
         for (int i = 0; i < x.length; i++) {
             double t = x[i] - x0;
             double at = Math.abs(t);
             if (at > hMax) continue;
-            int sh = at > 0 ? (int) (twoOverLn2 * Math.log(hMax / at)) : RUNGS - 1;
+            // floor(2·log2(hMax/|t|)) = the binary exponent of (hMax/|t|)² (exact, no logarithm)
+            double q = hMax / at;
+            int sh = at > 0 && q < 1e150 ? Math.getExponent(q * q) : RUNGS - 1;
             if (sh >= RUNGS) sh = RUNGS - 1;
             double u = t * inv, d = y[i] - x[i], uk = 1;
             double[] sm = s[sh], rm = r[sh];

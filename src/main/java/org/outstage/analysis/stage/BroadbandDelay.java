@@ -23,8 +23,8 @@ import org.outstage.analysis.Fft;
  * {@link #MAX_SEGMENT} samples; the delay is shorter than a quarter of that segment. Pure and thread-safe.
  */
 final class BroadbandDelay {
-    /** Samples used (from the start of the record): enough for a correlation gain of √131072 ≈ 360. */
-    static final int MAX_SEGMENT = 1 << 17;
+    /** Samples used (from the start of the record): a correlation gain of √65536 = 256, 0.68 s at 96 kHz. */
+    static final int MAX_SEGMENT = 1 << 16;
     /** Peak over the robust standard deviation of the correlation that counts as evidence (a choice made here). */
     static final double MIN_SIGNIFICANCE = 8;
 

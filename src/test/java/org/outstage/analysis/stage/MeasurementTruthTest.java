@@ -71,8 +71,10 @@ class MeasurementTruthTest {
         List<String> failures = new ArrayList<>();
         double worst = 0;
         long seed = 100;
+        StringBuilder perSeries = new StringBuilder();
         for (double fs : RATES)
-            for (double level : LEVELS)
+            for (double level : LEVELS) {
+                double worstHere = 0;
                 for (double vq : VQ) {
                     StageFixtures.Pair p = PushPullTruth.biasedAt(vq);
                     double a = drive(level);
@@ -82,6 +84,7 @@ class MeasurementTruthTest {
                     double err = Math.abs(c.gainAtZero() - truth);
                     double vErr = Math.abs(c.verdictRatio() - verdictTruth(c, p, a));
                     worst = Math.max(worst, Math.max(err, vErr));
+                    worstHere = Math.max(worstHere, Math.max(err, vErr));
                     if (err > 0.02 || vErr > 0.02)
                         failures.add(String.format("fs %.0f level %.1f Vq %.1f mV: truth %.4f got %.4f, verdict ratio error %.4f",
                                 fs, level, vq * 1e3, truth, c.gainAtZero(), vErr));
@@ -94,6 +97,9 @@ class MeasurementTruthTest {
                         failures.add(String.format("fs %.0f level %.1f Vq %.1f mV: notch width truth %.4f got %.4f ± %.4f (bin %.4f)",
                                 fs, level, vq * 1e3, nw, c.notchWidthVolts(), nwSe, bin));
                 }
+                perSeries.append(String.format(" %.0f kHz at %.0f %%: %.1e;", fs / 1000, 100 * level, worstHere));
+            }
+        System.out.println("ladder worst |error| of gain_at_zero and verdict ratio:" + perSeries);
         assertTrue(failures.isEmpty(), "worst " + worst + "; " + failures);
     }
 
