@@ -5,7 +5,10 @@ package org.outstage.analysis.stage;
  *
  * <p><b>gain_at_zero</b> = incremental gain at zero output / mean incremental gain over the outer swing
  * (|v| from 50 % to 90 % of peak). The mean of the derivative over an interval equals the chord
- * (y(b) − y(a))/(b − a), which is how it is computed, from local quadratic fits at ±0.5 and ±0.9 of peak.
+ * (y(b) − y(a))/(b − a), which is how it is computed, from local cubic fits of the bins at ±0.5 and ±0.9 of peak.
+ * The gain at zero itself is read from the raw samples by local cubic regression with a window chosen by Lepski's
+ * method ({@link AdaptiveSlope}; Lepski, Mammen &amp; Spokoiny, Ann. Statist. 25(3), 1997), so a notch narrower than
+ * the bins is resolved; its σ includes the estimated resolution bias ({@link Resolution}).
  * Below 1 the gain dips at the crossing (notch, under-biased); above 1 it rises (gm-doubling, over-biased).
  *
  * <p><b>Thresholds</b> (derivation in docs/diagnosis.md): for an emitter-follower pair with exponential law

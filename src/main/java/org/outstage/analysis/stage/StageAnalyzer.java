@@ -14,11 +14,14 @@ import org.outstage.analysis.SineFitter;
  *   <li>{@link SignalCheck}: silence, DC, a square, two tones, less than a cycle give a reason, not figures;</li>
  *   <li>ideal output x(t) = the fitted fundamental without DC (IEEE Std 1057-2017 fit, given by the caller), or,
  *       with a reference channel, the generator signal delayed and scaled onto the output
- *       ({@link ReferenceAlignment});</li>
+ *       ({@link ReferenceAlignment}; the period and sign of the delay from the broadband cross-correlation,
+ *       {@link BroadbandDelay}, when the capture carries non-periodic content);</li>
  *   <li>residual y − x − DC, optionally band-limited by zero-phase filters ({@link Residual});</li>
  *   <li>transfer curve by binning y against x over all cycles, rising and falling halves apart
  *       ({@link MeasuredTransfer}, {@link Hysteresis});</li>
- *   <li>{@link ClippingMetrics}, then {@link CrossoverMetrics} on the unclipped part of the curve.</li>
+ *   <li>{@link ClippingMetrics}, then {@link CrossoverMetrics} on the unclipped part of the curve; the gain at zero
+ *       and the notch edges from the raw samples by local cubic regression with a Lepski-chosen window
+ *       ({@link AdaptiveSlope}), their standard errors including the estimated resolution bias.</li>
  * </ol>
  * Assumptions: a steady single tone whose frequency is not locked to the sample rate (997 Hz rather than
  * 1 kHz at 48 kHz, AES17 practice; otherwise only a few distinct phases fill the bins); the bias verdict needs a
