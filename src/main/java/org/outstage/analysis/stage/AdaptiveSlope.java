@@ -67,14 +67,14 @@ final class AdaptiveSlope {
     /**
      * Slope dy/dx at {@code x0} using samples with |x − x0| ≤ {@code hMax}, {@code noiseRms} the scatter of single
      * samples about the curve (a floor for each window's own estimate); empty when fewer than two rungs hold
-     * {@link #MIN_SAMPLES} samples with a well-conditioned design.
+     * {@link #MIN_SAMPLES} samples spread over the four quarters of the window with a well-conditioned design.
      */
     static Optional<Estimate> at(double[] x, double[] y, double x0, double hMax, double noiseRms) {
         // moments per shell: shell s holds hMax·2^(−(s+1)/2) < |t| ≤ hMax·2^(−s/2); u = t/hMax
         double[][] s = new double[RUNGS][2 * P - 1];
         double[][] r = new double[RUNGS][P];
         double[] dd = new double[RUNGS];
-        int[] cnt = new int[RUNGS];
+        int[] cnt = new int[RUNGS], pos = new int[RUNGS];
         double inv = 1 / hMax;
         for (int i = 0; i < x.length; i++) {
             double t = x[i] - x0;
@@ -93,6 +93,7 @@ final class AdaptiveSlope {
             }
             dd[sh] += d * d;
             cnt[sh]++;
+            if (t > 0) pos[sh]++;
         }
         // cumulate from the innermost shell outwards; solve at every rung with enough samples
         double[] cs = new double[2 * P - 1], cr = new double[P];
@@ -104,7 +105,7 @@ final class AdaptiveSlope {
             for (int j = 0; j < P; j++) cr[j] += r[k][j];
             cd += dd[k];
             cn += cnt[k];
-            if (cn < MIN_SAMPLES || cnt[k] == 0 && !rungs.isEmpty()) continue;
+            if (cn < MIN_SAMPLES || cnt[k] == 0 && !rungs.isEmpty() || !spread(cnt, pos, k)) continue;
             Rung g = solve(cs, cr, cd, cn, hMax * Math.pow(2, -k / 2.0), hMax, noiseRms);
             if (g != null) rungs.add(g);
         }
@@ -128,6 +129,20 @@ final class AdaptiveSlope {
             bias = Math.abs(w.slope - c.slope) / (Math.pow(w.h / c.h, 4) - 1);
         }
         return Optional.of(new Estimate(1 + c.slope, c.var, bias, c.h, c.n, c.value));
+    }
+
+    /**
+     * True when rung k has samples in each quarter of its window, [−h, −h/2), [−h/2, 0], (0, h/2], (h/2, h] (shells k
+     * and k + 1 hold h/2 &lt; |t| ≤ h): a cubic needs support across the window, and a tone locked to the sample rate
+     * (1 kHz at 48 kHz: 48 phases) leaves only a few clusters of x that would make the fit extrapolate.
+     */
+    private static boolean spread(int[] cnt, int[] pos, int k) {
+        int outerPos = 0, outerNeg = 0, innerPos = 0, innerNeg = 0;
+        for (int j = k; j < cnt.length; j++) {
+            if (j <= k + 1) { outerPos += pos[j]; outerNeg += cnt[j] - pos[j]; }
+            else { innerPos += pos[j]; innerNeg += cnt[j] - pos[j]; }
+        }
+        return outerPos > 0 && outerNeg > 0 && innerPos > 0 && innerNeg > 0;
     }
 
     /** Least squares on the moments of u = t/hMax, rescaled to v = t/h for conditioning; null when singular. */

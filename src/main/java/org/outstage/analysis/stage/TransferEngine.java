@@ -165,7 +165,10 @@ final class TransferEngine {
             Local z = localAt(xs, ds, w, h, 0), z2 = localAt(xs, ds, w, Math.min(2 * h, (m - 1) / 2), 0);
             g0 = 1 + z.slope;
             g0NoiseVar = z.slopeVar;
-            g0Bias = Math.abs(z2.slope - z.slope) / 15;  // bias ∝ h⁴: the fit at 2h carries 16 times the bias at h
+            // the samples near zero do not cover a window (too short a record, or a tone locked to the sample rate):
+            // the kept bins may lie far apart, so no asymptotic rate is assumed; the whole change from h to 2h bins
+            // is taken as the resolution bias
+            g0Bias = Math.abs(z2.slope - z.slope);
             g0Window = hMax;
         }
         double g0Var = g0NoiseVar + g0Bias * g0Bias;
@@ -195,7 +198,7 @@ final class TransferEngine {
         double rInfSe = outerRising ? Math.sqrt(g0Var * a * a + g0 * g0 * aVar) : rSe;
         CrossoverMetrics crossover = verdict(r, rSe, outerRising ? 1 / a : Double.NaN, rInf, rInfSe, g0, outer, notchWidth, depth, peak,
                 nearZeroResidualShare, nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
-                quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, s,
+                quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, a0.isEmpty(), s,
                 new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer), notch[1]));
         return new Result(transfer, clipping, crossover);
     }
@@ -520,7 +523,7 @@ final class TransferEngine {
     private static CrossoverMetrics verdict(double rDefined, double rDefinedSe, double asymptote, double r, double rSe, double g0,
                                             double outer, double notchWidth, double depth,
                                             double peak, double nzShare, double nzTime, Hysteresis hyst, boolean outerClipped,
-                                            double outerFall, double coarseStep, StageSettings s,
+                                            double outerFall, double coarseStep, boolean unresolved, StageSettings s,
                                             CrossoverMetrics.Resolution res) {
         double band = s.nearOptimalBand(), k = s.verdictSigmas();
         double lo = 1 - band, hi = 1 + band;
@@ -533,7 +536,12 @@ final class TransferEngine {
                 ? String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-signal gain", r, rSe)
                 : String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-current asymptote (%.4f of the outer-swing gain, which is still rising at this level)",
                         r, rSe, rDefined);
-        if (hyst.detected()) {
+        if (unresolved) {
+            // first: with the crossing unobserved, the other readings (even hysteresis) come from too few phases
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = "the samples near zero do not cover the crossing (too few distinct phases: a tone locked to the sample rate, or too short a record); use e.g. 997 Hz at 48 kHz, "
+                    + rTxt;
+        } else if (hyst.detected()) {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "rising and falling halves of the transfer curve differ (memory): the curve is not static, " + rTxt;
         } else if (outerClipped) {

@@ -50,6 +50,21 @@ class MeasurementTruthTest {
         return Double.isNaN(c.asymptoticGain()) ? PushPullTruth.gainAtZero(p, a) : PushPullTruth.asymptoticRatio(p, a);
     }
 
+    /**
+     * 1 kHz at 48 kHz repeats 48 sample phases (fs/f = 48 exactly, by construction), so no sample lies within about
+     * ±0.6 V of zero at 29 V peak while the notch of Vq = 0.5 mV is some 20 mV wide: the crossing is not observed, and
+     * the verdict must say so rather than read the fallback's figure.
+     */
+    @Test
+    void toneLockedToSampleRate_crossingNotCovered_verdictUnclearWithReason() {
+        StageFixtures.Pair p = PushPullTruth.biasedAt(0.5e-3);
+        double[] y = StageFixtures.quantise(StageFixtures.noisy(PushPullTruth.drive(p, 48000, 48000, 1000, 29 * 8.22 / 8, 0.3),
+                FULL_SCALE * 1e-6, 9), FULL_SCALE, 24);
+        CrossoverMetrics c = crossover(y, 48000);
+        assertEquals(BiasVerdict.UNCLEAR, c.verdict(), c.explanation());
+        assertTrue(c.explanation().contains("distinct phases"), c.explanation());
+    }
+
     /** The record generator and the fixture's per-point solver solve the same equations: they must agree. */
     @Test
     void recordGenerator_agreesWithPointSolver() {
