@@ -73,12 +73,16 @@ public final class MeasurementJson {
         Map<String, Object> o = new LinkedHashMap<>();
         o.put("gain_at_zero", x.gainAtZero());
         o.put("gain_at_zero_std_error", x.gainAtZeroStdError());
+        o.put("gain_at_zero_noise_std_error", x.resolution().noiseStdError());
+        o.put("gain_at_zero_resolution_bias", x.resolution().resolutionBias());
+        o.put("gain_at_zero_window", x.resolution().windowHalfWidthVolts());
         o.put("verdict", x.verdict().label());
         o.put("verdict_ratio", x.verdictRatio());
         o.put("verdict_ratio_std_error", x.verdictRatioStdError());
         o.put("large_current_asymptote", x.asymptoticGain());
         o.put("confidence", x.confidence());
         o.put("notch_width", x.notchWidthVolts());
+        o.put("notch_width_std_error", x.resolution().notchWidthStdErrorVolts());
         o.put("notch_depth", x.notchDepthVolts());
         o.put("notch_depth_percent", 100 * x.notchDepthFraction());
         o.put("near_zero_residual_share", x.nearZeroResidualShare());
@@ -128,7 +132,8 @@ public final class MeasurementJson {
         o.put("hysteresis", Json.obj("detected", t.hysteresis().detected(), "chi_square_per_bin", t.hysteresis().chiSquarePerBin(),
                 "rms_difference", t.hysteresis().rmsDifferenceVolts()));
         s.reference().ifPresent(a -> o.put("reference", Json.obj("delay_s", a.delaySeconds(), "delay_samples", a.delaySamples(),
-                "gain", a.gain())));
+                "gain", a.gain(), "correlation_delay_samples", a.correlationDelaySamples(),
+                "correlation_significance", a.correlationSignificance())));
         return o;
     }
 

@@ -5,7 +5,10 @@ package org.outstage.analysis.stage;
  *
  * <p><b>gain_at_zero</b> = incremental gain at zero output / mean incremental gain over the outer swing
  * (|v| from 50 % to 90 % of peak). The mean of the derivative over an interval equals the chord
- * (y(b) − y(a))/(b − a), which is how it is computed, from local quadratic fits at ±0.5 and ±0.9 of peak.
+ * (y(b) − y(a))/(b − a), which is how it is computed, from local cubic fits of the bins at ±0.5 and ±0.9 of peak.
+ * The gain at zero itself is read from the raw samples by local cubic regression with a window chosen by Lepski's
+ * method ({@link AdaptiveSlope}; Lepski, Mammen &amp; Spokoiny, Ann. Statist. 25(3), 1997), so a notch narrower than
+ * the bins is resolved; its σ includes the estimated resolution bias ({@link Resolution}).
  * Below 1 the gain dips at the crossing (notch, under-biased); above 1 it rises (gm-doubling, over-biased).
  *
  * <p><b>Thresholds</b> (derivation in docs/diagnosis.md): for an emitter-follower pair with exponential law
@@ -29,11 +32,12 @@ package org.outstage.analysis.stage;
  * band spans about 0.8× to 1.3× the Oliver current. {@code gainAtZero} keeps its stated definition.
  *
  * @param gainAtZero              r = gain at zero / outer mean gain (ratio)
- * @param gainAtZeroStdError      σ of r from the propagated bin standard errors
+ * @param gainAtZeroStdError      σ of r: sample noise, the estimated resolution bias and the outer gain's σ in quadrature
  * @param incrementalGainAtZero   dOut/dIdeal at zero output (not normalised)
  * @param outerMeanGain           mean dOut/dIdeal over the outer swing
  * @param notchWidthVolts         output span around zero where |normalised gain − 1| exceeds the notch tolerance
- *                                (0 when the gain at zero is within it); resolution is the smoothing window
+ *                                (0 when the gain at zero is within it); edges located with the adaptive slope
+ *                                (σ in {@link Resolution#notchWidthStdErrorVolts})
  * @param notchDepthVolts         largest |deviation from the best line| for |v| &lt; 50 % of peak
  * @param notchDepthFraction      notchDepthVolts / peak
  * @param nearZeroResidualShare   share of the residual energy in samples with |ideal| &lt; nearZeroFraction·peak
@@ -47,10 +51,28 @@ package org.outstage.analysis.stage;
  *                                level; NaN when it does not (then the outer mean gain is the reference)
  * @param verdictRatio            what the verdict reads: gain at zero / asymptotic gain when that exists, otherwise
  *                                {@code gainAtZero}
- * @param verdictRatioStdError    σ of {@code verdictRatio}
+ * @param verdictRatioStdError    σ of {@code verdictRatio}, including the resolution bias of the gain at zero
+ * @param resolution              window and error breakdown of the gain at zero
  */
 public record CrossoverMetrics(double gainAtZero, double gainAtZeroStdError, double incrementalGainAtZero,
                                double outerMeanGain, double notchWidthVolts, double notchDepthVolts,
                                double notchDepthFraction, double nearZeroResidualShare, double nearZeroTimeShare,
                                BiasVerdict verdict, double confidence, String explanation,
-                               double asymptoticGain, double verdictRatio, double verdictRatioStdError) {}
+                               double asymptoticGain, double verdictRatio, double verdictRatioStdError,
+                               Resolution resolution) {
+
+    /**
+     * How the gain at zero was resolved (see {@link AdaptiveSlope}): the half width of the window of ideal output
+     * chosen around zero, and the two parts of {@code gainAtZeroStdError} (which is their quadrature sum together
+     * with the outer gain's part): sample noise and resolution bias, both as fractions of the outer mean gain.
+     *
+     * @param windowHalfWidthVolts half width of the local-regression window around zero (capture unit)
+     * @param noiseStdError        noise part of the gain at zero's standard error (ratio)
+     * @param resolutionBias       estimated resolution bias of the gain at zero (ratio, absolute value)
+     * @param notchWidthStdErrorVolts σ of {@code notchWidthVolts}: each edge's gain σ (noise and resolution bias) over
+     *                             the rate at which the gain crosses the tolerance there, both edges in quadrature
+     *                             (0 when there is no notch)
+     */
+    public record Resolution(double windowHalfWidthVolts, double noiseStdError, double resolutionBias,
+                             double notchWidthStdErrorVolts) {}
+}

@@ -14,11 +14,14 @@ import org.outstage.analysis.SineFitter;
  *   <li>{@link SignalCheck}: silence, DC, a square, two tones, less than a cycle give a reason, not figures;</li>
  *   <li>ideal output x(t) = the fitted fundamental without DC (IEEE Std 1057-2017 fit, given by the caller), or,
  *       with a reference channel, the generator signal delayed and scaled onto the output
- *       ({@link ReferenceAlignment});</li>
+ *       ({@link ReferenceAlignment}; the period and sign of the delay from the broadband cross-correlation,
+ *       {@link BroadbandDelay}, when the capture carries non-periodic content);</li>
  *   <li>residual y − x − DC, optionally band-limited by zero-phase filters ({@link Residual});</li>
  *   <li>transfer curve by binning y against x over all cycles, rising and falling halves apart
  *       ({@link MeasuredTransfer}, {@link Hysteresis});</li>
- *   <li>{@link ClippingMetrics}, then {@link CrossoverMetrics} on the unclipped part of the curve.</li>
+ *   <li>{@link ClippingMetrics}, then {@link CrossoverMetrics} on the unclipped part of the curve; the gain at zero
+ *       and the notch edges from the raw samples by local cubic regression with a Lepski-chosen window
+ *       ({@link AdaptiveSlope}), their standard errors including the estimated resolution bias.</li>
  * </ol>
  * Assumptions: a steady single tone whose frequency is not locked to the sample rate (997 Hz rather than
  * 1 kHz at 48 kHz, AES17 practice; otherwise only a few distinct phases fill the bins); the bias verdict needs a
@@ -83,7 +86,7 @@ public final class StageAnalyzer {
         Optional<String> refWhy = SignalCheck.check(reference, sampleRateHz, outputFit);
         if (refWhy.isPresent()) return new StageDiagnosis.NotMeasured("reference channel: " + refWhy.get());
         SineFit refFit = SineFitter.threeParameter(reference, sampleRateHz, outputFit.frequencyHz());
-        ReferenceAlignment al = alignment(outputFit, refFit, sampleRateHz);
+        ReferenceAlignment al = alignment(output, reference, outputFit, refFit, sampleRateHz);
         int n = output.length;
         double[] ideal = new double[n];
         boolean[] rising0 = new boolean[n];
@@ -129,17 +132,39 @@ public final class StageAnalyzer {
         Require.that(output.length == reference.length,
                 "reference.length=" + reference.length + " must equal output.length=" + output.length);
         SineFit refFit = SineFitter.threeParameter(reference, sampleRateHz, outputFit.frequencyHz());
-        return alignment(outputFit, refFit, sampleRateHz);
+        return alignment(output, reference, outputFit, refFit, sampleRateHz);
     }
 
-    private static ReferenceAlignment alignment(SineFit out, SineFit ref, double fs) {
-        double d = wrap(ref.phaseRadians() - out.phaseRadians());
-        double sign = 1;
-        if (Math.abs(d) > Math.PI / 2) { d = wrap(d - Math.PI); sign = -1; }
+    /**
+     * Phase delay of the fundamental, with its ambiguity (whole periods; half a period with inversion) resolved by
+     * the broadband cross-correlation when the capture carries non-periodic content ({@link BroadbandDelay});
+     * otherwise the phase difference is read within ±90° and a larger one as an inverting amplifier.
+     */
+    private static ReferenceAlignment alignment(double[] output, double[] reference, SineFit out, SineFit ref, double fs) {
         double omega = 2 * Math.PI * out.frequencyHz();
-        double delay = d / omega;
+        double halfPeriodSamples = Math.PI / omega * fs;
+        double d0 = wrap(ref.phaseRadians() - out.phaseRadians()) / omega * fs; // non-inverting candidate, samples
+        Optional<BroadbandDelay.Peak> peak = BroadbandDelay.find(output, reference, 2 * halfPeriodSamples);
+        double delay;
+        int sign;
+        if (peak.isPresent()) {
+            // candidates d0 + j·T/2, inverting for odd j: the one of the correlation's sign nearest its peak
+            double lag = peak.get().lagSamples();
+            long j = Math.round((lag - d0) / halfPeriodSamples);
+            if (Math.floorMod(j, 2) != (peak.get().sign() > 0 ? 0 : 1)) {
+                j += (lag - d0) / halfPeriodSamples > j ? 1 : -1;
+            }
+            delay = d0 + j * halfPeriodSamples;
+            sign = Math.floorMod(j, 2) == 0 ? 1 : -1;
+        } else {
+            delay = d0;
+            sign = 1;
+            if (Math.abs(d0) > 0.5 * halfPeriodSamples) { delay = d0 - Math.copySign(halfPeriodSamples, d0); sign = -1; }
+        }
         double gain = sign * out.amplitudePeak() / ref.amplitudePeak();
-        return new ReferenceAlignment(delay, delay * fs, gain, ref.amplitudePeak(), ref.residualRms() / ref.rms());
+        return new ReferenceAlignment(delay / fs, delay, gain, ref.amplitudePeak(), ref.residualRms() / ref.rms(),
+                peak.map(BroadbandDelay.Peak::lagSamples).orElse(Double.NaN),
+                peak.map(BroadbandDelay.Peak::significance).orElse(0.0));
     }
 
     private static double wrap(double a) {

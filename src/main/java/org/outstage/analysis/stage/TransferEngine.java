@@ -134,8 +134,8 @@ final class TransferEngine {
         upPos = Math.max(upPos, 0.6 * peak);
         upNeg = Math.max(upNeg, 0.6 * peak);
         double[] line = lineFit(xs, ys, counts, -Math.min(peak, neg.unaffectedIdealVolts), Math.min(peak, pos.unaffectedIdealVolts));
-        Local p9 = localAt(xs, ds, w, h, upPos), p5 = localAt(xs, ds, w, h, 0.5 * peak);
-        Local n5 = localAt(xs, ds, w, h, -0.5 * peak), n9 = localAt(xs, ds, w, h, -upNeg);
+        Local p9 = resolved(xs, ds, w, h, upPos), p5 = resolved(xs, ds, w, h, 0.5 * peak);
+        Local n5 = resolved(xs, ds, w, h, -0.5 * peak), n9 = resolved(xs, ds, w, h, -upNeg);
         double span = (upPos - 0.5 * peak) + (upNeg - 0.5 * peak);
         double outer = ((upPos + p9.value) - (0.5 * peak + p5.value) + (-0.5 * peak + n5.value) - (-upNeg + n9.value)) / span;
         double outerVar = (p9.valueVar + p5.valueVar + n5.valueVar + n9.valueVar) / (span * span);
@@ -151,12 +151,31 @@ final class TransferEngine {
         MeasuredTransfer transfer = new MeasuredTransfer(curve, counts, se, dev, ng, ngSe, peak, line[0], line[1], outer,
                 noise, hyst, fromReference);
 
-        // crossover
-        Local z = localAt(xs, ds, w, h, 0);
-        double g0 = 1 + z.slope;
+        // crossover: the gain at zero from the raw samples with a data-driven window (AdaptiveSlope); the binned,
+        // ±h-bin fit smears a notch narrower than its window upwards
+        double hMax = (h + 0.5) * width;
+        Optional<AdaptiveSlope.Estimate> a0 = AdaptiveSlope.at(x, y, 0, hMax, noise);
+        double g0, g0NoiseVar, g0Bias, g0Window;
+        if (a0.isPresent()) {
+            g0 = a0.get().slope();
+            g0NoiseVar = a0.get().noiseVariance();
+            g0Bias = a0.get().biasAbs();
+            g0Window = a0.get().bandwidth();
+        } else {
+            Local z = localAt(xs, ds, w, h, 0), z2 = localAt(xs, ds, w, Math.min(2 * h, (m - 1) / 2), 0);
+            g0 = 1 + z.slope;
+            g0NoiseVar = z.slopeVar;
+            // the samples near zero do not cover a window (too short a record, or a tone locked to the sample rate):
+            // the kept bins may lie far apart, so no asymptotic rate is assumed; the whole change from h to 2h bins
+            // is taken as the resolution bias
+            g0Bias = Math.abs(z2.slope - z.slope);
+            g0Window = hMax;
+        }
+        double g0Var = g0NoiseVar + g0Bias * g0Bias;
         double r = g0 / outer;
-        double rSe = Math.sqrt(z.slopeVar / (outer * outer) + r * r * outerVar / (outer * outer));
-        double notchWidth = notchWidth(xs, ng, r, s.notchGainTolerance());
+        double rSe = Math.sqrt(g0Var / (outer * outer) + r * r * outerVar / (outer * outer));
+        double[] notch = notchWidth(x, y, xs, ng, r, outer, s.notchGainTolerance(), hMax, noise);
+        double notchWidth = notch[0];
         double depth = 0;
         for (int i = 0; i < m; i++) if (Math.abs(xs[i]) < 0.5 * peak) depth = Math.max(depth, Math.abs(dev[i]));
         // flatness of the outer swing: past the crossover region one device carries the load and its gain rises
@@ -176,10 +195,11 @@ final class TransferEngine {
         double aVar = (Math.pow(v2 / (gOut * gOut), 2) * gOutVar + Math.pow(v1 / (gIn * gIn), 2) * gInVar) / ((v2 - v1) * (v2 - v1));
         boolean outerRising = flat - s.verdictSigmas() * flatSe > 0 && a > 0;
         double rInf = outerRising ? g0 * a : r;
-        double rInfSe = outerRising ? Math.sqrt(z.slopeVar * a * a + g0 * g0 * aVar) : rSe;
+        double rInfSe = outerRising ? Math.sqrt(g0Var * a * a + g0 * g0 * aVar) : rSe;
         CrossoverMetrics crossover = verdict(r, rSe, outerRising ? 1 / a : Double.NaN, rInf, rInfSe, g0, outer, notchWidth, depth, peak,
                 nearZeroResidualShare, nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
-                quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, s);
+                quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, a0.isEmpty(), s,
+                new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer), notch[1]));
         return new Result(transfer, clipping, crossover);
     }
 
@@ -276,6 +296,21 @@ final class TransferEngine {
         if (j > 0 && (j == m || Math.abs(xs[j - 1] - x0) < Math.abs(xs[j] - x0))) j--;
         int lo = Math.max(0, Math.min(j - h, m - 2 * h - 1));
         return local(xs, ds, w, lo, lo + 2 * h + 1, x0);
+    }
+
+    /**
+     * {@link #localAt} with its resolution bias added to the variances: a cubic's value and slope carry a bias
+     * ∝ h⁴ on a smooth curve, so the fit over 2h bins differs from the one over h by 15 times the bias at h
+     * (Richardson's extrapolation argument).
+     */
+    static Local resolved(double[] xs, double[] ds, double[] w, int h, double x0) {
+        Local l = localAt(xs, ds, w, h, x0);
+        int h2 = Math.min(2 * h, (xs.length - 1) / 2);
+        if (h2 <= h) return l;
+        Local l2 = localAt(xs, ds, w, h2, x0);
+        double f = Math.pow((double) h2 / h, 4) - 1;
+        double bv = (l2.value - l.value) / f, bs = (l2.slope - l.slope) / f;
+        return new Local(l.value, l.slope, l.valueVar + bv * bv, l.slopeVar + bs * bs);
     }
 
     /** Count-weighted least-squares line y = a·x + b over bins with lo ≤ x ≤ hi; returns {a, b}. */
@@ -401,25 +436,95 @@ final class TransferEngine {
 
     // ---------------------------------------------------------------- crossover
 
-    private static double notchWidth(double[] xs, double[] ng, double r, double tol) {
-        if (Math.abs(r - 1) <= tol) return 0;
+    /**
+     * Output span around zero where |normalised gain − 1| exceeds {@code tol}. The binned gain (±h-bin window) finds
+     * the bin on each side where the gain is back within the tolerance; the edge is then located with the adaptive
+     * raw-sample slope ({@link AdaptiveSlope}, the same rule as the gain at zero): moved outwards while the adaptive
+     * gain is still outside the tolerance there, inwards by halving while it is already inside one bin nearer zero (a
+     * notch narrower than the bins), then bisected four times and interpolated linearly in |gain − 1|.
+     * Returns {width, σ}: each edge's σ is the adaptive gain's σ there (noise and resolution bias) over the rate at
+     * which |gain − 1| crosses the tolerance (first-order propagation), the two edges in quadrature.
+     */
+    private static double[] notchWidth(double[] x, double[] y, double[] xs, double[] ng, double r, double outer, double tol,
+                                       double hMax, double noise) {
+        if (Math.abs(r - 1) <= tol) return new double[] {0, 0};
+        int m = xs.length;
+        int jp = firstBack(xs, ng, tol, +1), jn = firstBack(xs, ng, tol, -1);
+        double lim = Math.max(Math.abs(xs[Math.min(m - 1, jp + 8)]), Math.abs(xs[Math.max(0, jn - 8)])) + 2 * hMax;
+        int c = 0;
+        for (double v : x) if (Math.abs(v) <= lim) c++;
+        double[] cx = new double[c], cy = new double[c];
+        c = 0;
+        for (int i = 0; i < x.length; i++) if (Math.abs(x[i]) <= lim) { cx[c] = x[i]; cy[c++] = y[i]; }
+        java.util.function.DoubleUnaryOperator excess = v -> {
+            Optional<AdaptiveSlope.Estimate> e = AdaptiveSlope.at(cx, cy, v, hMax, noise);
+            double g = e.isPresent() ? e.get().slope() / outer : interpolate(xs, ng, v);
+            return Math.abs(g - 1) - tol;
+        };
+        double[] right = notchEdge(+1, jp, xs, r, tol, excess), left = notchEdge(-1, jn, xs, r, tol, excess);
+        double se = 0;
+        for (double[] e : new double[][] {right, left}) {
+            // σ of an edge: σ of the normalised gain there over the rate at which |gain − 1| crosses the tolerance
+            Optional<AdaptiveSlope.Estimate> est = e[1] > 0 ? AdaptiveSlope.at(cx, cy, e[2] * e[0], hMax, noise) : Optional.empty();
+            double sg = est.map(q -> Math.sqrt(q.totalVariance()) / Math.abs(outer)).orElse(0.0);
+            se += e[1] > 0 ? Math.pow(sg / e[1], 2) : 0;
+        }
+        return new double[] {right[0] + left[0], Math.sqrt(se)};
+    }
+
+    /** Index of the first bin outwards from zero (direction sgn) whose binned normalised gain is within tol. */
+    private static int firstBack(double[] xs, double[] ng, double tol, int sgn) {
         int m = xs.length;
         int j = Arrays.binarySearch(xs, 0.0);
-        if (j < 0) j = -j - 1;
-        j = Math.min(j, m - 1);
-        int lo = j, hi = j;
-        while (lo - 1 >= 0 && Math.abs(ng[lo - 1] - 1) > tol) lo--;
-        while (hi + 1 < m && Math.abs(ng[hi + 1] - 1) > tol) hi++;
-        // edges halfway to the first bin back inside the tolerance
-        double left = lo > 0 ? 0.5 * (xs[lo] + xs[lo - 1]) : xs[lo];
-        double right = hi < m - 1 ? 0.5 * (xs[hi] + xs[hi + 1]) : xs[hi];
-        return right - left;
+        if (j < 0) j = -j - 1;                       // first index with xs > 0
+        if (sgn < 0) j--;
+        j = Math.max(0, Math.min(m - 1, j));
+        while (j >= 0 && j < m && Math.abs(ng[j] - 1) > tol) j += sgn;
+        return Math.max(0, Math.min(m - 1, j));
+    }
+
+    /**
+     * One side (see {@link #notchWidth}); excess(v) = |gain − 1| − tol, positive inside the notch. Returns {|edge|,
+     * |d excess/dv| across the final bracket (0 when the edge is not bracketed), sgn}.
+     */
+    private static double[] notchEdge(int sgn, int j, double[] xs, double r, double tol, java.util.function.DoubleUnaryOperator excess) {
+        int m = xs.length;
+        double out = xs[j], fo = excess.applyAsDouble(out);
+        for (int k = 0; k < 8 && fo > 0; k++) {
+            if (j + sgn < 0 || j + sgn >= m) return new double[] {Math.abs(out), 0, sgn}; // the notch reaches the end
+            j += sgn;
+            out = xs[j];
+            fo = excess.applyAsDouble(out);
+        }
+        if (fo > 0) return new double[] {Math.abs(out), 0, sgn};
+        int ji = j - sgn;
+        double in = ji >= 0 && ji < m && sgn * xs[ji] > 0 ? xs[ji] : 0.5 * out;
+        double fi = excess.applyAsDouble(in);
+        for (int k = 0; k < 40 && fi <= 0; k++) { out = in; fo = fi; in *= 0.5; fi = excess.applyAsDouble(in); }
+        if (fi <= 0) return new double[] {0, 0, sgn};
+        for (int k = 0; k < 4; k++) {
+            double mid = 0.5 * (in + out), fm = excess.applyAsDouble(mid);
+            if (fm > 0) { in = mid; fi = fm; } else { out = mid; fo = fm; }
+        }
+        return new double[] {Math.abs(in + (out - in) * fi / (fi - fo)), (fi - fo) / Math.abs(out - in), sgn};
+    }
+
+    /** Linear interpolation of v on the curve (xs, ys), clamped at the ends. */
+    private static double interpolate(double[] xs, double[] ys, double v) {
+        int j = Arrays.binarySearch(xs, v);
+        if (j >= 0) return ys[j];
+        j = -j - 1;
+        if (j == 0) return ys[0];
+        if (j == xs.length) return ys[xs.length - 1];
+        double t = (v - xs[j - 1]) / (xs[j] - xs[j - 1]);
+        return ys[j - 1] + t * (ys[j] - ys[j - 1]);
     }
 
     private static CrossoverMetrics verdict(double rDefined, double rDefinedSe, double asymptote, double r, double rSe, double g0,
                                             double outer, double notchWidth, double depth,
                                             double peak, double nzShare, double nzTime, Hysteresis hyst, boolean outerClipped,
-                                            double outerFall, double coarseStep, StageSettings s) {
+                                            double outerFall, double coarseStep, boolean unresolved, StageSettings s,
+                                            CrossoverMetrics.Resolution res) {
         double band = s.nearOptimalBand(), k = s.verdictSigmas();
         double lo = 1 - band, hi = 1 + band;
         double pUnder = phi((lo - r), rSe), pOver = phi((r - hi), rSe);
@@ -431,7 +536,12 @@ final class TransferEngine {
                 ? String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-signal gain", r, rSe)
                 : String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-current asymptote (%.4f of the outer-swing gain, which is still rising at this level)",
                         r, rSe, rDefined);
-        if (hyst.detected()) {
+        if (unresolved) {
+            // first: with the crossing unobserved, the other readings (even hysteresis) come from too few phases
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = "the samples near zero do not cover the crossing (too few distinct phases: a tone locked to the sample rate, or too short a record); use e.g. 997 Hz at 48 kHz, "
+                    + rTxt;
+        } else if (hyst.detected()) {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "rising and falling halves of the transfer curve differ (memory): the curve is not static, " + rTxt;
         } else if (outerClipped) {
@@ -459,7 +569,7 @@ final class TransferEngine {
             why = rTxt + ": the uncertainty straddles a threshold; average more cycles or reduce the noise";
         }
         return new CrossoverMetrics(rDefined, rDefinedSe, g0, outer, notchWidth, depth, depth / peak, nzShare, nzTime, v, conf, why,
-                asymptote, r, rSe);
+                asymptote, r, rSe, res);
     }
 
     /** P(Z ≤ z/σ) for a standard normal Z; a step when σ = 0. */
