@@ -80,8 +80,17 @@ public final class ModelCommand implements Callable<Integer> {
         for (int i = 0; i < vin.length; i++) out.println(fmt("%.9g,%.9g,%.9g", vin[i], vout[i], g[i]));
     }
 
-    record Summary(StageModel m, double gainZero, double gainLarge, double levelVolts, OptimumBias optimum, ClipLevels clip,
-                   List<Distortion> thd, ThermalSensitivity thermalFixed, ThermalSensitivity thermalTracked) {
+    record Summary(StageModel m, double gainZero, double gainLarge, double gainPositive, double gainNegative, double levelVolts, OptimumBias optimum,
+                   ClipLevels clip, List<Distortion> thd, ThermalSensitivity thermalFixed, ThermalSensitivity thermalTracked) {
+
+        /** (g(+level) − g(−level)) / mean: how much the halves' large-signal gains differ (0 for a symmetric stage). */
+        double gainAsymmetry() { return (gainPositive - gainNegative) / ((gainPositive + gainNegative) / 2); }
+
+        /** (I_upper − I_lower) / mean at rest. */
+        double currentAsymmetry() {
+            double u = m.quiescentUpperAmps(), l = m.quiescentLowerAmps();
+            return (u - l) / ((u + l) / 2);
+        }
 
         Map<String, Object> json() {
             StageParameters p = m.parameters();
@@ -94,7 +103,8 @@ public final class ModelCommand implements Callable<Integer> {
             List<Object> thdList = new ArrayList<>();
             for (Distortion d : thd)
                 thdList.add(Json.obj("level_v", d.outputPeakVolts(), "input_peak_v", d.inputPeakVolts(), "thd", d.thd(), "thd_percent", d.thd() * 100,
-                        "h2", d.harmonic(2), "h3", d.harmonic(3), "h5", d.harmonic(5)));
+                        "h2", d.harmonic(2), "h3", d.harmonic(3), "h5", d.harmonic(5),
+                        "h2_percent", d.harmonic(2) * 100, "h3_percent", d.harmonic(3) * 100, "h5_percent", d.harmonic(5) * 100));
             return Json.obj("topology", p.topology().name(), "parameters", params,
                     "bias_v", m.biasVolts(), "vq_mv", m.vqVolts() * 1e3, "quiescent_current_a", m.quiescentAmps(), "devices", devices,
                     "optimum_vq_mv", optimum.vqVolts() * 1e3, "optimum_level_v", levelVolts, "optimum_max_gain_deviation", optimum.maxGainDeviation(),
@@ -104,7 +114,12 @@ public final class ModelCommand implements Callable<Integer> {
                     "thermal", Json.obj("junctions_in_bias_loop", thermalFixed.junctionsInLoop(), "diq_dvbias_a_per_v", thermalFixed.ampsPerBiasVolt(),
                             "diq_dt_fixed_bias_a_per_k", thermalFixed.untrackedAmpsPerKelvin(),
                             "tracked_junctions", thermalTracked.trackedJunctions(), "diq_dt_tracked_a_per_k", thermalTracked.trackedAmpsPerKelvin()),
-                    "warnings", m.warnings(), "thermal_voltage_v", p.thermalVolts());
+                    "warnings", m.warnings(), "thermal_voltage_v", p.thermalVolts(),
+                    "rest_input_offset_v", m.inputOffsetVolts(), "rest_output_v", m.quiescent().outputVolts(),
+                    "quiescent_upper_a", m.quiescentUpperAmps(), "quiescent_lower_a", m.quiescentLowerAmps(),
+                    "quiescent_current_asymmetry", currentAsymmetry(), "gain_positive_large_signal", gainPositive,
+                    "gain_negative_large_signal", gainNegative, "gain_asymmetry", gainAsymmetry(),
+                    "rbe_source", rbeSource(p));
         }
 
         void print(PrintWriter o) {
@@ -116,7 +131,11 @@ public final class ModelCommand implements Callable<Integer> {
                         q.unit(), q.defaulted() ? "" : " *"));
             o.println("Quiescent point (Vin = 0):");
             o.println(fmt("  bias generator %12.4f V", m.biasVolts()));
-            o.println(fmt("  Vq per Re      %12.2f mV  (Iq %.1f mA per emitter resistor)", m.vqVolts() * 1e3, m.quiescentAmps() * 1e3));
+            o.println(fmt("  Vq per Re      %12.2f mV  (Iq %.1f mA per emitter resistor, mean of the halves)", m.vqVolts() * 1e3, m.quiescentAmps() * 1e3));
+            o.println(fmt("  rest point     output %.6f V, held there by an input offset of %+.3f mV (as global feedback does)",
+                    Math.abs(m.quiescent().outputVolts()) < 5e-7 ? 0.0 : m.quiescent().outputVolts(), m.inputOffsetVolts() * 1e3 + 0.0));
+            o.println(fmt("  halves at rest upper %.2f mA, lower %.2f mA (difference %+.2f %% of the mean)", m.quiescentUpperAmps() * 1e3,
+                    m.quiescentLowerAmps() * 1e3, currentAsymmetry() * 100));
             for (OperatingPoint.DeviceCurrent d : m.quiescent().devices())
                 o.println(fmt("  %-3s %-13s Ic %9.3f mA  Ib %8.4f mA", d.name(), d.role(), d.collectorAmps() * 1e3, d.baseAmps() * 1e3));
             if (optimum.atSearchLimit())
@@ -127,9 +146,12 @@ public final class ModelCommand implements Callable<Integer> {
                         levelVolts, optimum.maxGainDeviation() * 100));
             o.println(fmt("Clip levels    %+12.3f V / %+.3f V", clip.positiveVolts(), clip.negativeVolts()));
             o.println(fmt("Gain at zero   %12.5f    (large-signal %.5f at |Vout| = %.3g V)", gainZero, gainLarge, levelVolts));
+            o.println(fmt("Gain asymmetry %+12.3f %%  (large-signal %.5f at +%.3g V, %.5f at -%.3g V)", gainAsymmetry() * 100, gainPositive, levelVolts,
+                    gainNegative, levelVolts));
             o.println("Predicted THD (static curve, sine of " + StageModel.SAMPLES_PER_CYCLE + " points per cycle):");
             for (Distortion d : thd)
-                o.println(fmt("  %8.3g V peak  THD %9.4f %%   H2 %9.2e  H3 %9.2e", d.outputPeakVolts(), d.thd() * 100, d.harmonic(2), d.harmonic(3)));
+                o.println(fmt("  %8.3g V peak  THD %9.4f %%   H2 %9.4f %%   H3 %9.4f %%", d.outputPeakVolts(), d.thd() * 100, d.harmonic(2) * 100,
+                        d.harmonic(3) * 100));
             o.println(fmt("Thermal (common practice -2 mV/degC per junction): dIq/dT %+.2f mA/degC with a fixed bias voltage (%d junctions in the bias loop); "
                     + "%+.2f mA/degC when the bias generator tracks all %d", thermalFixed.untrackedAmpsPerKelvin() * 1e3, thermalFixed.junctionsInLoop(),
                     thermalTracked.trackedAmpsPerKelvin() * 1e3, thermalTracked.trackedJunctions()));
@@ -137,10 +159,21 @@ public final class ModelCommand implements Callable<Integer> {
             else for (String w : m.warnings()) o.println("Warning: " + w);
             boolean noRbe = p.topology() instanceof org.outstage.model.Topology.Cfp c ? Double.isInfinite(c.outputBaseEmitterOhms())
                     : p.topology() instanceof org.outstage.model.Topology.Quasi q && Double.isInfinite(q.outputBaseEmitterOhms());
+            String src = rbeSource(p);
+            if (!src.isEmpty()) o.println("Rbe: " + src);
             if (noRbe)
                 o.println("Note: without a base-emitter resistor on the output device (--rbe) the CFP's crossover behaves like a plain pair's;"
                         + " with one (e.g. --rbe 100) the driver carries the small currents and the optimum bias falls (docs/model.md).");
         }
+    }
+
+    /** Where the CFP's Rbe came from, for the cfp and quasi topologies; empty for the others. */
+    static String rbeSource(StageParameters p) {
+        double rbe = p.topology() instanceof org.outstage.model.Topology.Cfp c ? c.outputBaseEmitterOhms()
+                : p.topology() instanceof org.outstage.model.Topology.Quasi q ? q.outputBaseEmitterOhms() : Double.NaN;
+        if (Double.isNaN(rbe)) return "";
+        if (!p.isDefaulted("rbe")) return Double.isInfinite(rbe) ? "none (given)" : num(rbe) + " ohm (given)";
+        return num(rbe) + " ohm (default; " + StageParameters.DEFAULT_CFP_RBE_SOURCE + ")";
     }
 
     static String describe(StageParameters p) {
@@ -161,9 +194,10 @@ public final class ModelCommand implements Callable<Integer> {
     static Summary summary(StageModel m, TransferCurve curve, double level, double[] thdLevels) {
         double[] out = curve.outputVolts(), g = curve.incrementalGain();
         double gz = m.transferCurve(-1e-6, 1e-6, 3).curve().incrementalGain()[1];
-        double gl = (interp(out, g, level) + interp(out, g, -level)) / 2;
+        double gp = interp(out, g, level), gn = interp(out, g, -level);
+        double gl = (gp + gn) / 2;
         OptimumBias opt = m.optimumBias(level);
-        return new Summary(m, gz, gl, level, opt, m.clipLevels(), m.distortionVersusLevel(thdLevels),
+        return new Summary(m, gz, gl, gp, gn, level, opt, m.clipLevels(), m.distortionVersusLevel(thdLevels),
                 m.thermalSensitivity(0), m.thermalSensitivity(m.parameters().topology().junctionsInBiasLoop()));
     }
 
