@@ -9,7 +9,10 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import org.outstage.analysis.TransferCurve;
 import org.outstage.json.Json;
+import org.outstage.analysis.stage.BiasCriterion;
+import org.outstage.model.BiasFit;
 import org.outstage.model.ClipLevels;
+import org.outstage.model.CrossoverOptimum;
 import org.outstage.model.Distortion;
 import org.outstage.model.OperatingPoint;
 import org.outstage.model.OptimumBias;
@@ -81,7 +84,7 @@ public final class ModelCommand implements Callable<Integer> {
     }
 
     record Summary(StageModel m, double gainZero, double gainLarge, double gainPositive, double gainNegative, double levelVolts, OptimumBias optimum,
-                   ClipLevels clip, List<Distortion> thd, ThermalSensitivity thermalFixed, ThermalSensitivity thermalTracked) {
+                   java.util.Optional<CrossoverOptimum> crossoverOptimum, ClipLevels clip, List<Distortion> thd, ThermalSensitivity thermalFixed, ThermalSensitivity thermalTracked) {
 
         /** (g(+level) − g(−level)) / mean: how much the halves' large-signal gains differ (0 for a symmetric stage). */
         double gainAsymmetry() { return (gainPositive - gainNegative) / ((gainPositive + gainNegative) / 2); }
@@ -109,6 +112,11 @@ public final class ModelCommand implements Callable<Integer> {
                     "bias_v", m.biasVolts(), "vq_mv", m.vqVolts() * 1e3, "quiescent_current_a", m.quiescentAmps(), "devices", devices,
                     "optimum_vq_mv", optimum.vqVolts() * 1e3, "optimum_level_v", levelVolts, "optimum_max_gain_deviation", optimum.maxGainDeviation(),
                     "optimum_at_search_limit", optimum.atSearchLimit(),
+                    "optimum_criterion", "flattest gain over |Vout| <= optimum_level_v (model criterion, not the bias advice)",
+                    "crossover_optimum_vq_mv", crossoverOptimum.map(c -> (Object) (c.vqVolts() * 1e3)).orElse(null),
+                    "crossover_band_low_vq_mv", crossoverOptimum.map(c -> (Object) (c.bandLowVqVolts() * 1e3)).orElse(null),
+                    "crossover_band_high_vq_mv", crossoverOptimum.map(c -> (Object) (c.bandHighVqVolts() * 1e3)).orElse(null),
+                    "crossover_criterion", BiasCriterion.DEFINITION,
                     "clip_positive_v", clip.positiveVolts(), "clip_negative_v", clip.negativeVolts(),
                     "gain_at_zero", gainZero, "gain_large_signal", gainLarge, "thd", thdList,
                     "thermal", Json.obj("junctions_in_bias_loop", thermalFixed.junctionsInLoop(), "diq_dvbias_a_per_v", thermalFixed.ampsPerBiasVolt(),
@@ -138,12 +146,19 @@ public final class ModelCommand implements Callable<Integer> {
                     m.quiescentLowerAmps() * 1e3, currentAsymmetry() * 100));
             for (OperatingPoint.DeviceCurrent d : m.quiescent().devices())
                 o.println(fmt("  %-3s %-13s Ic %9.3f mA  Ib %8.4f mA", d.name(), d.role(), d.collectorAmps() * 1e3, d.baseAmps() * 1e3));
+            if (crossoverOptimum.isPresent())
+                o.println(fmt("Optimum Vq     %12.2f mV  near-optimal %.2f to %.2f mV (crossover ratio 1 +/- %.1f %% read at %.3g V peak, Oliver 1971)",
+                        crossoverOptimum.get().vqVolts() * 1e3, crossoverOptimum.get().bandLowVqVolts() * 1e3, crossoverOptimum.get().bandHighVqVolts() * 1e3,
+                        BiasCriterion.BAND * 100, levelVolts));
+            else
+                o.println(fmt("Optimum Vq       none: the crossover ratio (gain at zero / large-current gain at %.3g V peak) does not reach 1 below 200 mV",
+                        levelVolts));
             if (optimum.atSearchLimit())
-                o.println(fmt("Optimum Vq       none below class A (gain flattens steadily with bias up to %.0f mV; criterion level %.3g V)",
+                o.println(fmt("Flattest gain    none below class A (other criterion: gain flattens steadily with bias up to %.0f mV; level %.3g V)",
                         optimum.vqVolts() * 1e3, levelVolts));
             else
-                o.println(fmt("Optimum Vq     %12.2f mV  (flattest gain over |Vout| <= %.3g V, max deviation %.3f %%)", optimum.vqVolts() * 1e3,
-                        levelVolts, optimum.maxGainDeviation() * 100));
+                o.println(fmt("Flattest gain  %12.2f mV  (other criterion, not advice: flattest gain over |Vout| <= %.3g V, max deviation %.3f %%)",
+                        optimum.vqVolts() * 1e3, levelVolts, optimum.maxGainDeviation() * 100));
             o.println(fmt("Clip levels    %+12.3f V / %+.3f V", clip.positiveVolts(), clip.negativeVolts()));
             o.println(fmt("Gain at zero   %12.5f    (large-signal %.5f at |Vout| = %.3g V)", gainZero, gainLarge, levelVolts));
             o.println(fmt("Gain asymmetry %+12.3f %%  (large-signal %.5f at +%.3g V, %.5f at -%.3g V)", gainAsymmetry() * 100, gainPositive, levelVolts,
@@ -197,7 +212,8 @@ public final class ModelCommand implements Callable<Integer> {
         double gp = interp(out, g, level), gn = interp(out, g, -level);
         double gl = (gp + gn) / 2;
         OptimumBias opt = m.optimumBias(level);
-        return new Summary(m, gz, gl, gp, gn, level, opt, m.clipLevels(), m.distortionVersusLevel(thdLevels),
+        java.util.Optional<CrossoverOptimum> co = BiasFit.crossoverOptimum(m.parameters(), level, m.solverSettings());
+        return new Summary(m, gz, gl, gp, gn, level, opt, co, m.clipLevels(), m.distortionVersusLevel(thdLevels),
                 m.thermalSensitivity(0), m.thermalSensitivity(m.parameters().topology().junctionsInBiasLoop()));
     }
 

@@ -196,6 +196,9 @@ public final class StageModel {
 
     public StageParameters parameters() { return params; }
 
+    /** The solver settings this model was built with. */
+    public SolverSettings solverSettings() { return settings; }
+
     /** The bias-generator voltage (given, or solved from Vq or Iq). */
     public double biasVolts() { return biasVolts; }
 

@@ -38,17 +38,22 @@ class BiasFitTest {
         assertTrue(r.rmsResidual() < 2e-4, "rms " + r.rmsResidual());
         assertEquals(1e-4, r.gainNoise(), 2e-5);
         String expected = "raise the drop across each emitter resistor by about " + BiasFit.mv(r.optimumVqVolts() - r.vqVolts())
-                + " mV (from 9 mV to " + BiasFit.mv(r.optimumVqVolts()) + " mV)";
+                + " mV (from 9 mV to " + BiasFit.mv(r.optimumVqVolts()) + " mV; near-optimal band " + BiasFit.mv(r.bandLowVqVolts()) + " to "
+                + BiasFit.mv(r.bandHighVqVolts()) + " mV: crossover ratio 1 ± 0.3 %, Oliver's optimum " + BiasFit.mv(r.optimumVqVolts()) + " mV)";
         assertEquals(expected, r.advice());
+        // The band brackets the optimum, and 9 mV is below it.
+        assertTrue(r.bandLowVqVolts() < r.optimumVqVolts() && r.optimumVqVolts() < r.bandHighVqVolts() && 0.009 < r.bandLowVqVolts());
     }
 
     @Test
     void pairNearOptimum_advisesLeaveIt_andAboveAdvisesLower() {
+        // Oliver (HP Journal 1971; docs/references.md §7): for the emitter-follower pair the optimum is Vq = VT.
         StageParameters base = StageParameters.builder().build();
-        double opt = StageModel.of(base, S).optimumBias(21).vqVolts();
-        StageParameters near = base.withBias(new Bias.EmitterDropVolts(opt + 0.001));
+        double vt = base.thermalVolts();
+        StageParameters near = base.withBias(new Bias.EmitterDropVolts(vt + 0.001));
         BiasFitResult r = BiasFit.fit(synthesise(near, 1e-4, 7), base, 21, 0.002, S);
-        assertTrue(r.advice().startsWith("leave it: within 2.0 mV of the optimum"), r.advice());
+        assertTrue(r.advice().startsWith("leave it: "), r.advice());
+        assertEquals(vt, r.optimumVqVolts(), 0.02 * vt, "optimum against Oliver's VT");
         StageParameters high = base.withBias(new Bias.EmitterDropVolts(0.08));
         BiasFitResult h = BiasFit.fit(synthesise(high, 1e-4, 8), base, 21, 0.002, S);
         assertTrue(h.advice().startsWith("lower the drop across each emitter resistor by about"), h.advice());
