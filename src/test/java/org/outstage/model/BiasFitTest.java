@@ -53,7 +53,9 @@ class BiasFitTest {
         StageParameters near = base.withBias(new Bias.EmitterDropVolts(vt + 0.001));
         BiasFitResult r = BiasFit.fit(synthesise(near, 1e-4, 7), base, 21, 0.002, S);
         assertTrue(r.advice().startsWith("leave it: "), r.advice());
-        assertEquals(vt, r.optimumVqVolts(), 0.02 * vt, "optimum against Oliver's VT");
+        // 3 %: the ratio is read at 50 % and 90 % of a 9.7 V peak, where the idle device still carries a little current,
+        // which the large-current law 1/g = a + b/|v| neglects (docs/diagnosis.md §5: 1.0008 instead of 1 at 5 W).
+        assertEquals(vt, r.optimumVqVolts(), 0.03 * vt, "optimum against Oliver's VT");
         StageParameters high = base.withBias(new Bias.EmitterDropVolts(0.08));
         BiasFitResult h = BiasFit.fit(synthesise(high, 1e-4, 8), base, 21, 0.002, S);
         assertTrue(h.advice().startsWith("lower the drop across each emitter resistor by about"), h.advice());
