@@ -201,6 +201,7 @@ class StagePhysicsTest {
 
     @Test
     void gainFromJacobian_matchesCentralDifferenceOfModel() {
+        // Invariant: the derivative of the model's own output (a naive central difference, kept here) equals its Jacobian gain.
         for (String t : List.of("pair", "darlington", "cfp", "quasi")) {
             StageModel m = model(StageParameters.builder().topology(t).bias(new Bias.EmitterDropVolts(0.01)));
             double h = 1e-5;
@@ -267,6 +268,8 @@ class StagePhysicsTest {
         double vbe = op.nodeVolts().get("dtop") - op.nodeVolts().get("e1");
         assertEquals(34.8 - vbe - c.positiveVolts() / 8 * 0.22, c.positiveVolts(), 1e-3);
         assertEquals(-c.positiveVolts(), c.negativeVolts(), 1e-9);
+        // Common practice: a silicon power device's Vbe at a few amps is 0.7–0.9 V (value from memory); here Is 1e-12 A at
+        // about 4 A gives VT·ln(4/1e-12) = 0.74 V by the device law itself.
         assertTrue(vbe > 0.7 && vbe < 0.9);
     }
 }
