@@ -209,6 +209,13 @@ final class Solver {
         return dx[c.out - Circuit.FIRST_UNKNOWN];
     }
 
+    /** dv/dVin at every node from the last {@link #gain} call (zero at the fixed nodes). */
+    double[] inputSensitivity() {
+        double[] dv = new double[n];
+        for (int k = 0; k < m; k++) dv[k + Circuit.FIRST_UNKNOWN] = dx[k];
+        return dv;
+    }
+
     /** v + (dv/dVin)·delta using the sensitivities of the last {@link #gain} call: a predictor for continuation. */
     double[] predict(double[] v, double delta) {
         double[] p = v.clone();

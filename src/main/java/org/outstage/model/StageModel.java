@@ -467,14 +467,20 @@ public final class StageModel {
 
     /**
      * Thermal sensitivity of the quiescent current when the bias generator tracks {@code trackedJunctions}
-     * of the bias loop's junctions (see {@link ThermalSensitivity}). dIq/dVbias comes from the Jacobian.
+     * of the bias loop's junctions (see {@link ThermalSensitivity}). dIq/dVbias comes from the Jacobian, with the output
+     * held at 0 V at rest (the input offset follows, as global feedback makes it).
      */
     public ThermalSensitivity thermalSensitivity(int trackedJunctions) {
         int loop = params.topology().junctionsInBiasLoop();
         Require.inRange("trackedJunctions", trackedJunctions, 0, loop);
         Solver sv = new Solver(circuit, settings, biasVolts, inputOffsetVolts);
-        sv.biasDerivative(quiescentNodes, 0);
-        double[] dv = sv.lastBiasDerivative;
+        // With the rest point held at Vout = 0 (global feedback), a change of bias also moves the input offset:
+        // dv/dVb|Vout=0 = dv/dVb − dv/dVin · (dVout/dVb)/(dVout/dVin). Zero correction for a symmetric stage.
+        double gIn = sv.gain(quiescentNodes, 0);
+        double[] dIn = sv.inputSensitivity();
+        double dOutdVb = sv.biasDerivative(quiescentNodes, 0);
+        double[] dv = sv.lastBiasDerivative.clone();
+        if (gIn > 0) for (int k = 0; k < dv.length; k++) dv[k] -= dIn[k] * dOutdVb / gIn;
         Circuit.Resistor rt = circuit.resistors.get(circuit.emitterResistorTop);
         Circuit.Resistor rb = circuit.resistors.get(circuit.emitterResistorBottom);
         double dTop = (dv[rt.a()] - dv[rt.b()]) / rt.ohms();

@@ -227,6 +227,12 @@ class StagePhysicsTest {
         assertEquals(0, tracked.trackedAmpsPerKelvin(), 1e-15);
         assertEquals(4, fixed.junctionsInLoop());
         assertEquals(2, model(StageParameters.builder().topology("cfp")).thermalSensitivity(0).junctionsInLoop());
+        // The quasi stage's rest point moves with the bias (the offset holds Vout at 0): the Jacobian figure must match
+        // re-solving the rest point at ±0.1 mV of bias (each re-solve finds its own offset).
+        StageModel q = model(StageParameters.builder().topology("quasi"));
+        double qUp = StageModel.of(q.parameters().withBias(new Bias.GeneratorVolts(q.biasVolts() + dv)), S).quiescentAmps();
+        double qDn = StageModel.of(q.parameters().withBias(new Bias.GeneratorVolts(q.biasVolts() - dv)), S).quiescentAmps();
+        assertEquals((qUp - qDn) / (2 * dv), q.thermalSensitivity(0).ampsPerBiasVolt(), 1e-4 * q.thermalSensitivity(0).ampsPerBiasVolt());
     }
 
     @Test
