@@ -113,6 +113,7 @@ public final class ModelCommand implements Callable<Integer> {
                     "optimum_vq_mv", optimum.vqVolts() * 1e3, "optimum_level_v", levelVolts, "optimum_max_gain_deviation", optimum.maxGainDeviation(),
                     "optimum_at_search_limit", optimum.atSearchLimit(),
                     "optimum_criterion", "flattest gain over |Vout| <= optimum_level_v (model criterion, not the bias advice)",
+                    "flattest_gain_vq_mv", optimum.vqVolts() * 1e3,
                     "crossover_optimum_vq_mv", crossoverOptimum.map(c -> (Object) (c.vqVolts() * 1e3)).orElse(null),
                     "crossover_band_low_vq_mv", crossoverOptimum.map(c -> (Object) (c.bandLowVqVolts() * 1e3)).orElse(null),
                     "crossover_band_high_vq_mv", crossoverOptimum.map(c -> (Object) (c.bandHighVqVolts() * 1e3)).orElse(null),
@@ -187,8 +188,9 @@ public final class ModelCommand implements Callable<Integer> {
         double rbe = p.topology() instanceof org.outstage.model.Topology.Cfp c ? c.outputBaseEmitterOhms()
                 : p.topology() instanceof org.outstage.model.Topology.Quasi q ? q.outputBaseEmitterOhms() : Double.NaN;
         if (Double.isNaN(rbe)) return "";
-        if (!p.isDefaulted("rbe")) return Double.isInfinite(rbe) ? "none (given)" : num(rbe) + " ohm (given)";
-        return num(rbe) + " ohm (default; " + StageParameters.DEFAULT_CFP_RBE_SOURCE + ")";
+        String v = Double.isInfinite(rbe) ? "none" : rbe == Math.rint(rbe) ? fmt("%.0f ohm", rbe) : fmt("%.4g ohm", rbe);
+        if (!p.isDefaulted("rbe")) return v + " (given)";
+        return v + " (default; " + StageParameters.DEFAULT_CFP_RBE_SOURCE + ")";
     }
 
     static String describe(StageParameters p) {
