@@ -7,7 +7,9 @@ import org.outstage.analysis.TransferCurve;
 import org.outstage.analysis.stage.BiasCriterion;
 
 /**
- * Estimates a stage's bias from a measured transfer curve and advises how to change it.
+ * Estimates a stage's bias from a measured transfer curve and advises how to change it, by the project's one optimum
+ * ({@link BiasCriterion}: the model's crossover ratio, read at the measured peak as the analysis reads a capture, equal
+ * to 1 (Oliver 1971), near-optimal within ±0.3 %; docs/model.md §6).
  *
  * <p>The measured curve's input is the ideal output (e.g. the fitted fundamental) and its output the measured
  * output; its incremental gain, normalised to the large-signal gain, is a function of the output voltage. The same
@@ -26,7 +28,7 @@ import org.outstage.analysis.stage.BiasCriterion;
  * the fit would read a bias that is too high).
  */
 public final class BiasFit {
-    /** Default tolerance for "leave it": 2 mV of Vq. */
+    /** Former default tolerance for "leave it" (2 mV of Vq); kept for callers, no longer used: the band is {@link BiasCriterion#BAND}. */
     public static final double DEFAULT_TOLERANCE_VOLTS = 0.002;
 
     private BiasFit() {}
@@ -36,8 +38,8 @@ public final class BiasFit {
      *
      * @param measured       the measured transfer curve
      * @param stage          the stage (its bias is ignored; everything else is used)
-     * @param levelVolts     output level of the optimum criterion ({@link StageModel#optimumBias})
-     * @param toleranceVolts within this distance of the optimum Vq the advice is "leave it"
+     * @param levelVolts     output level of the flattest-gain criterion ({@link StageModel#optimumBias}), reported beside the advice, not used for it
+     * @param toleranceVolts no longer used ("leave it" means inside the one near-optimal band, {@link BiasCriterion}); must be &gt; 0
      * @param solver         solver settings
      */
     public static BiasFitResult fit(TransferCurve measured, StageParameters stage, double levelVolts, double toleranceVolts, SolverSettings solver) {
