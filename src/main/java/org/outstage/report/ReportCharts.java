@@ -70,6 +70,13 @@ public final class ReportCharts {
      * advice's are left out. Empty without two readings that carry figures.
      */
     public static List<String> forBiasSession(List<StepPoint> steps, BiasAdvice advice, double tolerance) {
+        List<String> out = new ArrayList<>();
+        for (ChartSpec c : biasSessionCharts(steps, advice, tolerance)) out.add(SvgRenderer.render(c, WIDTH, HEIGHT));
+        return out;
+    }
+
+    /** The chart descriptions behind {@link #forBiasSession} (crossover ratio, THD); empty without two readings with figures. */
+    public static List<ChartSpec> biasSessionCharts(List<StepPoint> steps, BiasAdvice advice, double tolerance) {
         java.util.TreeMap<Double, double[]> acc = new java.util.TreeMap<>();
         for (StepPoint s : steps) {
             if (s.reading().unit() != advice.unit() || s.figures().isEmpty() || s.figures().get().crossoverReading().isEmpty()) continue;
@@ -90,7 +97,7 @@ public final class ReportCharts {
             log &= b[i] > 0;
             i++;
         }
-        int sub = 24;
+        int sub = 64;
         double[] bx = new double[(n - 1) * sub + 1], ry = new double[bx.length];
         for (int k = 0; k + 1 < n; k++) {
             for (int j = 0; j < sub; j++) {
@@ -111,6 +118,6 @@ public final class ReportCharts {
                         new HorizontalLine(1 - tolerance, "notch below", Series.Role.LIMIT)));
         ChartSpec dist = new ChartSpec("THD against the bias reading", x, Axis.log("THD", "%"),
                 List.of(new Series("THD", b, thd, Series.Style.LINE, Series.Role.MEASURED)), List.of(), bands, List.of());
-        return List.of(SvgRenderer.render(gain, WIDTH, HEIGHT), SvgRenderer.render(dist, WIDTH, HEIGHT));
+        return List.of(gain, dist);
     }
 }
