@@ -14,6 +14,8 @@ import java.util.TreeMap;
 import java.util.concurrent.Callable;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.TransferCurve;
+import org.outstage.analysis.stage.BiasCriterion;
+import org.outstage.analysis.stage.BiasVerdict;
 import org.outstage.analysis.stage.StageDiagnosis;
 import org.outstage.json.Json;
 import org.outstage.model.BiasFit;
@@ -43,7 +45,7 @@ public final class FitCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "FILE", description = "Capture (WAV or scope CSV) or transfer-curve CSV (columns output_v,gain).") Path file;
     @Mixin ModelOptions stage;
     @Option(names = "--level-v", paramLabel = "V", converter = Units.Volts.class, description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
-    @Option(names = "--tolerance-mv", paramLabel = "MV", converter = Units.MilliVolts.class, description = "Within this of the optimum the advice is 'leave it' (default 2).") double toleranceMv = 2;
+    @Option(names = "--tolerance-mv", paramLabel = "MV", converter = Units.MilliVolts.class, description = "No longer used (kept for scripts): 'leave it' now means inside the near-optimal band, crossover ratio 1 +/- 0.3 %.") double toleranceMv = 2;
     @Option(names = "--json", description = "Print the result as JSON.") boolean json;
     @Option(names = "--fs-volts", paramLabel = "V", converter = Units.Volts.class, description = "Capture: WAV calibration, peak volts at the output that reach full scale (divider included).") Double fsVolts;
     @Option(names = "--probe", paramLabel = "X", description = "Capture: scope CSV calibration, multiply values by X.") Double probe;
@@ -62,6 +64,8 @@ public final class FitCommand implements Callable<Integer> {
         BiasFitResult r;
         try {
             r = BiasFit.fit(curve, p, level, toleranceMv / 1e3, stage.solver());
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException(file + ": no bias fit: " + e.getMessage());
         } catch (SolverFailureException e) {
             PrintWriter err = spec.commandLine().getErr();
             err.println("outstage: fit: solver failure: " + e.getMessage());
@@ -70,14 +74,22 @@ public final class FitCommand implements Callable<Integer> {
         }
         if (json) {
             out.println(Json.pretty(Json.obj("file", file.toString(), "topology", p.topology().name(), "vq_mv", r.vqVolts() * 1e3,
-                    "bias_v", r.biasVolts(), "optimum_vq_mv", r.optimumVqVolts() * 1e3, "optimum_at_search_limit", r.optimumAtSearchLimit(),
+                    "bias_v", r.biasVolts(), "optimum_vq_mv", nullIfNaN(r.optimumVqVolts() * 1e3), "optimum_at_search_limit", r.optimumAtSearchLimit(),
                     "optimum_level_v", r.levelVolts(), "fit_rms_residual", r.rmsResidual(), "gain_noise", r.gainNoise(),
-                    "residual_limit", r.residualLimit(), "advice_given", r.adviceGiven(), "advice", r.advice(), "points", r.points())));
+                    "residual_limit", r.residualLimit(), "advice_given", r.adviceGiven(), "advice", r.advice(), "points", r.points(),
+                    "optimum_criterion", BiasCriterion.DEFINITION,
+                    "optimum_band_low_vq_mv", nullIfNaN(r.bandLowVqVolts() * 1e3), "optimum_band_high_vq_mv", nullIfNaN(r.bandHighVqVolts() * 1e3),
+                    "crossover_ratio", nullIfNaN(r.crossoverRatio()),
+                    "flattest_gain_vq_mv", r.flattestGainVqVolts() * 1e3, "flattest_gain_at_search_limit", r.flattestGainAtSearchLimit())));
         } else {
             out.println("Bias fit: " + file + " as a " + p.topology().name() + " stage (" + ModelCommand.describe(p) + ")");
             out.println(fmt("  estimated Vq   %8.2f mV per emitter resistor (bias generator %.4f V)", r.vqVolts() * 1e3, r.biasVolts()));
-            if (r.optimumAtSearchLimit()) out.println("  optimum Vq     none below class A for this model");
-            else out.println(fmt("  optimum Vq     %8.2f mV (flattest gain over |Vout| <= %.3g V)", r.optimumVqVolts() * 1e3, r.levelVolts()));
+            out.println(fmt("  model's crossover ratio at the estimate %.4f (gain at zero / large-current gain, as the verdict reads it)", r.crossoverRatio()));
+            if (r.optimumAtSearchLimit()) out.println("  optimum Vq     none: the model's crossover ratio does not reach 1 between Vq 0.1 and 200 mV");
+            else out.println(fmt("  optimum Vq     %8.2f mV, near-optimal %.2f to %.2f mV (crossover ratio 1 +/- %.1f %%, Oliver 1971)", r.optimumVqVolts() * 1e3,
+                    r.bandLowVqVolts() * 1e3, r.bandHighVqVolts() * 1e3, BiasCriterion.BAND * 100));
+            out.println(fmt("  other criterion, not advice: flattest gain over |Vout| <= %.3g V at Vq %s", r.levelVolts(),
+                    r.flattestGainAtSearchLimit() ? "above 200 mV (none below class A)" : fmt("%.2f mV", r.flattestGainVqVolts() * 1e3)));
             out.println(fmt("  fit residual   %8.3f %% RMS over %d points (measurement noise %.3f %%, limit %.3f %%)", r.rmsResidual() * 100,
                     r.points(), r.gainNoise() * 100, r.residualLimit() * 100));
             out.println("Advice: " + r.advice());
@@ -85,6 +97,8 @@ public final class FitCommand implements Callable<Integer> {
         out.flush();
         return 0;
     }
+
+    private static Object nullIfNaN(double v) { return Double.isFinite(v) ? v : null; }
 
     /** True when the file's first non-comment line names the columns output_v (or vout, as {@code model --csv} writes) and gain. */
     static boolean isCurveCsv(Path file) {
@@ -113,7 +127,17 @@ public final class FitCommand implements Callable<Integer> {
         if (ms.isEmpty()) throw new BadInputException(file + ": no channel to fit");
         if (ms.size() > 1) throw new BadInputException(file + ": " + ms.size() + " channels measured; choose one with --channel");
         Measurement m = ms.get(0);
-        if (m.stage() instanceof StageDiagnosis.Measured d) return d.transfer().curve();
+        if (m.stage() instanceof StageDiagnosis.Measured d) {
+            // A bias in millivolts can only be read from a curve in volts: refuse an uncalibrated capture.
+            if (!"V".equals(d.transfer().curve().unit()))
+                throw new BadInputException(file + ": the capture is not calibrated in volts (unit " + d.transfer().curve().unit()
+                        + "): a bias in mV cannot be read from it; give --fs-volts V (WAV: peak volts at full scale, divider included) or --probe X");
+            // The fit assumes a static curve with a clean outer swing, as the crossover verdict does: refuse where the verdict
+            // refuses for a reason other than noise (memory, clipping in the outer swing, coarse resolution, level too low).
+            if (d.crossover().verdict() == BiasVerdict.UNCLEAR && d.crossover().confidence() == 0)
+                throw new BadInputException(file + " channel " + m.channel() + ": no bias fit: " + d.crossover().explanation());
+            return d.transfer().curve();
+        }
         throw new BadInputException(file + " channel " + m.channel() + ": no transfer curve: " + ((StageDiagnosis.NotMeasured) m.stage()).reason());
     }
 

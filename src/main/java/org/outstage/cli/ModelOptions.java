@@ -50,7 +50,7 @@ final class ModelOptions {
     @Option(names = "--n", paramLabel = "N", description = "Emission coefficient of every junction (default 1).") Double n;
     @Option(names = "--temperature-c", paramLabel = "C", description = "Junction temperature, degC (default 25).") Double temperatureC;
     @Option(names = "--r-driver", paramLabel = "OHMS", converter = Units.Ohms.class, description = "Darlington driver emitter resistor (darlington, quasi; default 200).") Double rDriver;
-    @Option(names = "--rbe", paramLabel = "OHMS", converter = Units.Ohms.class, description = "CFP output base-emitter resistor (cfp, quasi; default none).") Double rbe;
+    @Option(names = "--rbe", paramLabel = "OHMS", description = "CFP output base-emitter resistor, ohms or 'none' (cfp, quasi; default 100, common practice).") String rbe;
     @Option(names = "--cfp-re-in-loop", arity = "0..1", paramLabel = "BOOL",
             description = "CFP halves: Re inside the local loop (driver emitter at the output) instead of outside (default false).") Boolean cfpReInLoop;
     @Option(names = "--ikf-output", paramLabel = "A", converter = Units.Amps.class, description = "Output-device knee current for beta fall-off (default none).") Double ikfOutput;
@@ -82,6 +82,7 @@ final class ModelOptions {
             String k = e.getKey();
             if (k.equals("topology")) { b.topology(e.getValue()); continue; }
             if (k.equals("cfp_re_in_loop")) { b.cfpEmitterResistorInLoop(bool(k, e.getValue(), where)); continue; }
+            if (k.equals("rbe") && e.getValue().strip().equalsIgnoreCase("none")) { b.outputBaseEmitterOhms(Double.POSITIVE_INFINITY); continue; }
             double x = number(k, e.getValue(), where);
             switch (k) {
                 case "vq_mv" -> b.bias(new Bias.EmitterDropVolts(checkPositive("vq_mv", x) / 1e3));
@@ -154,7 +155,7 @@ final class ModelOptions {
             if (!KEYS.contains(key)) throw new BadInputException(file + " line " + (i + 1) + ": unknown key '" + key + "' (known: " + String.join(", ", KEYS) + ")");
             if (value.isEmpty()) throw new BadInputException(file + " line " + (i + 1) + ": key '" + key + "' has no value");
             if (v.containsKey(key)) throw new BadInputException(file + " line " + (i + 1) + ": key '" + key + "' given twice");
-            if (!key.equals("topology") && !key.equals("cfp_re_in_loop")) {
+            if (!key.equals("topology") && !key.equals("cfp_re_in_loop") && !(key.equals("rbe") && value.equalsIgnoreCase("none"))) {
                 try {
                     Double.parseDouble(value);
                 } catch (NumberFormatException e) {

@@ -125,7 +125,10 @@ final class SessionSupport {
         s.heatsinkCelsius().ifPresent(t -> sb.append(String.format(Locale.ROOT, "  heatsink %.1f °C", t)));
         if (s.measurement().isPresent()) {
             KeyFigures f = s.measurement().get().figures();
-            if (f.gainAtZero().isPresent()) sb.append(String.format(Locale.ROOT, "  gain at zero %.4f", f.gainAtZero().getAsDouble()));
+            // the ratio the verdict and the advice read, named; gain_at_zero (against the outer-swing gain) beside it when it differs
+            if (f.crossoverReading().isPresent()) sb.append(String.format(Locale.ROOT, "  crossover ratio %.4f", f.crossoverReading().getAsDouble()));
+            if (f.gainAtZero().isPresent() && f.crossoverReading().isPresent() && f.gainAtZero().getAsDouble() != f.crossoverReading().getAsDouble())
+                sb.append(String.format(Locale.ROOT, " (gain at zero %.4f of the outer-swing gain)", f.gainAtZero().getAsDouble()));
             f.crossoverVerdict().ifPresent(v -> sb.append(" (").append(v).append(')'));
             sb.append(String.format(Locale.ROOT, "  THD %.4f %%  THD+N %.4f %%", f.thdRatio() * 100, f.thdNRatio() * 100));
         }

@@ -4,9 +4,12 @@ import java.util.Arrays;
 import java.util.Locale;
 import org.outstage.Require;
 import org.outstage.analysis.TransferCurve;
+import org.outstage.analysis.stage.BiasCriterion;
 
 /**
- * Estimates a stage's bias from a measured transfer curve and advises how to change it.
+ * Estimates a stage's bias from a measured transfer curve and advises how to change it, by the project's one optimum
+ * ({@link BiasCriterion}: the model's crossover ratio, read at the measured peak as the analysis reads a capture, equal
+ * to 1 (Oliver 1971), near-optimal within ±0.3 %; docs/model.md §6).
  *
  * <p>The measured curve's input is the ideal output (e.g. the fitted fundamental) and its output the measured
  * output; its incremental gain, normalised to the large-signal gain, is a function of the output voltage. The same
@@ -25,7 +28,7 @@ import org.outstage.analysis.TransferCurve;
  * the fit would read a bias that is too high).
  */
 public final class BiasFit {
-    /** Default tolerance for "leave it": 2 mV of Vq. */
+    /** Former default tolerance for "leave it" (2 mV of Vq); kept for callers, no longer used: the band is {@link BiasCriterion#BAND}. */
     public static final double DEFAULT_TOLERANCE_VOLTS = 0.002;
 
     private BiasFit() {}
@@ -35,8 +38,8 @@ public final class BiasFit {
      *
      * @param measured       the measured transfer curve
      * @param stage          the stage (its bias is ignored; everything else is used)
-     * @param levelVolts     output level of the optimum criterion ({@link StageModel#optimumBias})
-     * @param toleranceVolts within this distance of the optimum Vq the advice is "leave it"
+     * @param levelVolts     output level of the flattest-gain criterion ({@link StageModel#optimumBias}), reported beside the advice, not used for it
+     * @param toleranceVolts no longer used ("leave it" means inside the one near-optimal band, {@link BiasCriterion}); must be &gt; 0
      * @param solver         solver settings
      */
     public static BiasFitResult fit(TransferCurve measured, StageParameters stage, double levelVolts, double toleranceVolts, SolverSettings solver) {
@@ -49,7 +52,14 @@ public final class BiasFit {
         for (int i = 0; i < n; i++) order[i] = i;
         Arrays.sort(order, (a, b) -> Double.compare(xRaw[a], xRaw[b]));
         double[] x = new double[n], y = new double[n];
-        for (int i = 0; i < n; i++) { x[i] = xRaw[order[i]]; y[i] = yRaw[order[i]]; }
+        int finite = 0;
+        for (int i = 0; i < n; i++) {
+            double xv = xRaw[order[i]], yv = yRaw[order[i]];
+            if (Double.isFinite(xv) && Double.isFinite(yv)) { x[finite] = xv; y[finite] = yv; finite++; }
+        }
+        x = Arrays.copyOf(x, finite);
+        y = Arrays.copyOf(y, finite);
+        n = finite;
         double peak = 0;
         for (double v : x) peak = Math.max(peak, Math.abs(v));
         Require.that(peak > 0, "measured curve: the output is zero everywhere");
@@ -62,13 +72,15 @@ public final class BiasFit {
         for (double v : x) if (Math.abs(v) <= 0.95 * p) used++;
         Require.that(used >= 10, "measured curve: needs at least 10 points, got " + used);
         double noise = noise(yn);
+        Require.that(Double.isFinite(noise), "measured curve: its gain noise cannot be estimated");
         StageModel base = StageModel.of(stage.withBias(new Bias.EmitterDropVolts(0.02)), solver);
         double g0 = stage.loadOhms() / (stage.loadOhms() + stage.emitterOhms());
         double[] vin = StageModel.denseGrid(p / g0 * 1.05);
         double vbLo = base.biasFor(StageModel.MIN_SEARCH_VQ_VOLTS), vbHi = base.biasFor(StageModel.MAX_SEARCH_VQ_VOLTS);
+        final double[] xs = x;
         java.util.function.DoubleUnaryOperator cost = vb -> {
             try {
-                return rms(base.curveAtBias(vb, vin), x, yn, p);
+                return rms(base.curveAtBias(vb, vin), xs, yn, p);
             } catch (SolverFailureException e) {
                 return Double.POSITIVE_INFINITY;
             }
@@ -76,7 +88,20 @@ public final class BiasFit {
         double[] best = Search.scanThenGolden(cost, vbLo, vbHi, 16, 1e-6);
         StageModel fitted = StageModel.of(stage.withBias(new Bias.GeneratorVolts(best[0])), solver);
         double vq = fitted.vqVolts();
-        OptimumBias opt = fitted.optimumBias(levelVolts);
+        // The one optimum (analysis.stage.BiasCriterion, Oliver 1971): the model's crossover ratio, read at the measured
+        // peak as the analysis reads it, equals 1; near-optimal within ±0.3 %. The flattest-gain bias at levelVolts is
+        // another criterion, reported under its own name.
+        final double[] grid = vin;
+        java.util.function.DoubleUnaryOperator ratio = vb -> {
+            try {
+                return modelRatio(base.curveAtBias(vb, grid), p);
+            } catch (SolverFailureException e) {
+                return Double.NaN;
+            }
+        };
+        double ratioAtFit = ratio.applyAsDouble(best[0]);
+        CrossoverOptimum oliver = oliverOptimum(ratio, vbLo, vbHi, stage, solver, p).orElse(null);
+        OptimumBias flattest = fitted.optimumBias(levelVolts);
         double limit = Math.min(0.005, 3 * noise + 0.0005);
         double rms = best[1];
         String advice;
@@ -85,21 +110,108 @@ public final class BiasFit {
             given = false;
             advice = String.format(Locale.ROOT, "no advice: the %s model fits the measured gain poorly (RMS residual %.3f %% > limit %.3f %%)",
                     stage.topology().name(), rms * 100, limit * 100);
-        } else if (opt.atSearchLimit()) {
+        } else if (oliver == null) {
             given = false;
-            advice = String.format(Locale.ROOT, "no advice: about %s mV across each emitter resistor; the %s model's gain flattens steadily with bias "
-                    + "and has no crossover optimum below class A", mv(vq), stage.topology().name());
+            advice = String.format(Locale.ROOT, "no advice: about %s mV across each emitter resistor; the %s model's crossover ratio does not reach 1"
+                    + " (gain at zero equal to the large-current gain) between Vq 0.1 and 200 mV", mv(vq), stage.topology().name());
         } else {
             given = true;
-            double d = opt.vqVolts() - vq;
-            if (Math.abs(d) <= toleranceVolts)
-                advice = String.format(Locale.ROOT, "leave it: within %s mV of the optimum (%s mV across each emitter resistor, optimum %s mV)",
-                        mv(toleranceVolts), mv(vq), mv(opt.vqVolts()));
+            String band = String.format(Locale.ROOT, "near-optimal band %s to %s mV: crossover ratio 1 ± %.1f %%, Oliver's optimum %s mV",
+                    mv(oliver.bandLowVqVolts()), mv(oliver.bandHighVqVolts()), BiasCriterion.BAND * 100, mv(oliver.vqVolts()));
+            if (vq < oliver.bandLowVqVolts())
+                advice = String.format(Locale.ROOT, "raise the drop across each emitter resistor by about %s mV (from %s mV to %s mV; %s)",
+                        mv(oliver.vqVolts() - vq), mv(vq), mv(oliver.vqVolts()), band);
+            else if (vq > oliver.bandHighVqVolts())
+                advice = String.format(Locale.ROOT, "lower the drop across each emitter resistor by about %s mV (from %s mV to %s mV; %s)",
+                        mv(vq - oliver.vqVolts()), mv(vq), mv(oliver.vqVolts()), band);
             else
-                advice = String.format(Locale.ROOT, "%s the drop across each emitter resistor by about %s mV (from %s mV to %s mV)",
-                        d > 0 ? "raise" : "lower", mv(Math.abs(d)), mv(vq), mv(opt.vqVolts()));
+                advice = String.format(Locale.ROOT, "leave it: %s mV across each emitter resistor is in the %s", mv(vq), band);
         }
-        return new BiasFitResult(vq, best[0], opt.vqVolts(), opt.atSearchLimit(), levelVolts, rms, noise, limit, given, advice, used);
+        return new BiasFitResult(vq, best[0], oliver != null ? oliver.vqVolts() : Double.NaN, oliver == null, levelVolts, rms, noise, limit, given, advice, used,
+                oliver != null ? oliver.bandLowVqVolts() : Double.NaN, oliver != null ? oliver.bandHighVqVolts() : Double.NaN, ratioAtFit,
+                flattest.vqVolts(), flattest.atSearchLimit());
+    }
+
+    /**
+     * The one optimum (crossover ratio 1, {@link BiasCriterion}) of a stage whose output swings to ±peakVolts: what the
+     * analysis would call near-optimal on a capture at that level. Empty when the ratio never reaches 1 between Vq 0.1
+     * and 200 mV.
+     */
+    public static java.util.Optional<CrossoverOptimum> crossoverOptimum(StageParameters stage, double peakVolts, SolverSettings solver) {
+        Require.positive("peakVolts", peakVolts);
+        StageModel base = StageModel.of(stage.withBias(new Bias.EmitterDropVolts(0.02)), solver);
+        double g0 = stage.loadOhms() / (stage.loadOhms() + stage.emitterOhms());
+        double[] vin = StageModel.denseGrid(peakVolts / g0 * 1.05);
+        double vbLo = base.biasFor(StageModel.MIN_SEARCH_VQ_VOLTS), vbHi = base.biasFor(StageModel.MAX_SEARCH_VQ_VOLTS);
+        java.util.function.DoubleUnaryOperator ratio = vb -> {
+            try {
+                return modelRatio(base.curveAtBias(vb, vin), peakVolts);
+            } catch (SolverFailureException e) {
+                return Double.NaN;
+            }
+        };
+        return oliverOptimum(ratio, vbLo, vbHi, stage, solver, peakVolts);
+    }
+
+    /**
+     * Where the model's crossover ratio crosses 1 and 1 ± band, as Vq: a 24-point scan of the bias voltage, the series
+     * handed to {@link BiasCriterion#recommend} (the same function the session advice uses), then each crossing refined
+     * by bisection on the bias voltage. Empty when the ratio never enters the band.
+     */
+    private static java.util.Optional<CrossoverOptimum> oliverOptimum(java.util.function.DoubleUnaryOperator ratio, double vbLo, double vbHi,
+                                                                      StageParameters stage, SolverSettings solver, double peak) {
+        int cells = 24;
+        double[] vbs = new double[cells + 1], vqs = new double[cells + 1], rs = new double[cells + 1];
+        int k = 0;
+        for (int i = 0; i <= cells; i++) {
+            double vb = vbLo + (vbHi - vbLo) * i / cells;
+            double r = ratio.applyAsDouble(vb);
+            if (!Double.isFinite(r)) continue;
+            double vq = StageModel.of(stage.withBias(new Bias.GeneratorVolts(vb)), solver).vqVolts();
+            if (k > 0 && !(vq > vqs[k - 1])) continue;
+            vbs[k] = vb; vqs[k] = vq; rs[k] = r; k++;
+        }
+        if (k == 0) return java.util.Optional.empty();
+        vbs = Arrays.copyOf(vbs, k); vqs = Arrays.copyOf(vqs, k); rs = Arrays.copyOf(rs, k);
+        BiasCriterion.Recommendation rec = BiasCriterion.recommend(vqs, rs);
+        if (rec.low().isEmpty()) return java.util.Optional.empty();
+        double best = refine(ratio, vbs, vqs, rs, rec.best(), 1, stage, solver);
+        double lo = refine(ratio, vbs, vqs, rs, rec.low().getAsDouble(), 1 - BiasCriterion.BAND, stage, solver);
+        double hi = refine(ratio, vbs, vqs, rs, rec.high().getAsDouble(), 1 + BiasCriterion.BAND, stage, solver);
+        return java.util.Optional.of(new CrossoverOptimum(best, Math.min(lo, best), Math.max(hi, best), peak));
+    }
+
+    /** Refines the Vq near {@code nearVq} where the ratio equals target, by bisection on the bias voltage in the scan cell holding it. */
+    private static double refine(java.util.function.DoubleUnaryOperator ratio, double[] vbs, double[] vqs, double[] rs, double nearVq, double target,
+                                 StageParameters stage, SolverSettings solver) {
+        for (int i = 0; i + 1 < vqs.length; i++) {
+            if (nearVq < vqs[i] - 1e-15 || nearVq > vqs[i + 1] + 1e-15) continue;
+            double a = vbs[i], b = vbs[i + 1], fa = rs[i] - target, fb = rs[i + 1] - target;
+            if (fa * fb > 0) continue;
+            for (int it = 0; it < 40 && b - a > 1e-7; it++) {
+                double m = (a + b) / 2, fm = ratio.applyAsDouble(m) - target;
+                if (fa * fm <= 0) { b = m; fb = fm; } else { a = m; fa = fm; }
+            }
+            return StageModel.of(stage.withBias(new Bias.GeneratorVolts((a + b) / 2)), solver).vqVolts();
+        }
+        return nearVq; // at an end of the scan: the scan's own value
+    }
+
+    /**
+     * The model's crossover ratio as the analysis reads a capture (docs/diagnosis.md §5): g(0) against the large-current
+     * asymptote from the gains at 50 % and 90 % of the peak p when the outer gain still rises, else against the mean
+     * gain over 50–90 % of peak. {@code model} is {vout, gain} on the dense grid (Vin = 0, the rest point, is on it).
+     */
+    static double modelRatio(double[][] model, double p) {
+        double[] mx = model[0], mg = model[1];
+        double g0 = Interp.at(mx, mg, 0);
+        double gIn = (Interp.at(mx, mg, 0.5 * p) + Interp.at(mx, mg, -0.5 * p)) / 2;
+        double gOut = (Interp.at(mx, mg, 0.9 * p) + Interp.at(mx, mg, -0.9 * p)) / 2;
+        if (gOut > gIn) return g0 * BiasCriterion.asymptoteCoefficient(0.5 * p, gIn, 0.9 * p, gOut);
+        double s = 0;
+        int c = 0;
+        for (int i = 0; i < mx.length; i++) if (Math.abs(mx[i]) >= 0.5 * p && Math.abs(mx[i]) <= 0.9 * p) { s += mg[i]; c++; }
+        return g0 / (c > 0 ? s / c : (gIn + gOut) / 2);
     }
 
     static String mv(double volts) {

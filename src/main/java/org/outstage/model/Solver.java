@@ -16,11 +16,21 @@ final class Solver {
     final Circuit c;
     final SolverSettings s;
     double biasVolts;
+    /**
+     * Input offset added to every input: the drive that holds the output at 0 V at rest, as an amplifier's global
+     * feedback (or DC servo) does. Inputs given to the solver are relative to it.
+     */
+    double inputOffsetVolts;
     private final int n, m;
     private final double[] f, j, work, a, rhs, dx;
     private final int[] piv;
     private final double driveLimit;
     int iterations, points, subdivided, gminUsed, sourceUsed;
+
+    Solver(Circuit c, SolverSettings s, double biasVolts, double inputOffsetVolts) {
+        this(c, s, biasVolts);
+        this.inputOffsetVolts = inputOffsetVolts;
+    }
 
     Solver(Circuit c, SolverSettings s, double biasVolts) {
         this.c = c;
@@ -45,8 +55,9 @@ final class Solver {
         v[Circuit.GND] = 0;
         v[Circuit.VPOS] = lambda * c.params.railVolts();
         v[Circuit.VNEG] = -lambda * c.params.railVolts();
-        v[Circuit.DRIVE_TOP] = lambda * Math.min(vin + biasVolts / 2, driveLimit);
-        v[Circuit.DRIVE_BOTTOM] = lambda * Math.max(vin - biasVolts / 2, -driveLimit);
+        double x = vin + inputOffsetVolts;
+        v[Circuit.DRIVE_TOP] = lambda * Math.min(x + biasVolts / 2, driveLimit);
+        v[Circuit.DRIVE_BOTTOM] = lambda * Math.max(x - biasVolts / 2, -driveLimit);
     }
 
     /** Newton at the fixed voltages already in v. Returns true on convergence; v holds the result. */
@@ -186,8 +197,9 @@ final class Solver {
      */
     double gain(double[] v, double vin) {
         c.assemble(v, 0, f, j, work);
-        double dTop = vin + biasVolts / 2 < driveLimit ? 1 : 0;
-        double dBot = vin - biasVolts / 2 > -driveLimit ? 1 : 0;
+        double x = vin + inputOffsetVolts;
+        double dTop = x + biasVolts / 2 < driveLimit ? 1 : 0;
+        double dBot = x - biasVolts / 2 > -driveLimit ? 1 : 0;
         for (int r = 0; r < m; r++) {
             int node = r + Circuit.FIRST_UNKNOWN;
             System.arraycopy(j, node * n + Circuit.FIRST_UNKNOWN, a, r * m, m);
@@ -195,6 +207,13 @@ final class Solver {
         }
         if (!solveLinear()) return Double.NaN;
         return dx[c.out - Circuit.FIRST_UNKNOWN];
+    }
+
+    /** dv/dVin at every node from the last {@link #gain} call (zero at the fixed nodes). */
+    double[] inputSensitivity() {
+        double[] dv = new double[n];
+        for (int k = 0; k < m; k++) dv[k + Circuit.FIRST_UNKNOWN] = dx[k];
+        return dv;
     }
 
     /** v + (dv/dVin)·delta using the sensitivities of the last {@link #gain} call: a predictor for continuation. */
@@ -207,8 +226,9 @@ final class Solver {
     /** dVout/dVbias at v (bias sensitivity), same method as {@link #gain}. */
     double biasDerivative(double[] v, double vin) {
         c.assemble(v, 0, f, j, work);
-        double dTop = vin + biasVolts / 2 < driveLimit ? 0.5 : 0;
-        double dBot = vin - biasVolts / 2 > -driveLimit ? -0.5 : 0;
+        double x = vin + inputOffsetVolts;
+        double dTop = x + biasVolts / 2 < driveLimit ? 0.5 : 0;
+        double dBot = x - biasVolts / 2 > -driveLimit ? -0.5 : 0;
         for (int r = 0; r < m; r++) {
             int node = r + Circuit.FIRST_UNKNOWN;
             System.arraycopy(j, node * n + Circuit.FIRST_UNKNOWN, a, r * m, m);

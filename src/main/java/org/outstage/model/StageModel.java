@@ -26,19 +26,21 @@ public final class StageModel {
     private final SolverSettings settings;
     private final Circuit circuit;
     private final double biasVolts;
+    private final double inputOffsetVolts;
     private final double[] quiescentNodes;
     private final OperatingPoint quiescent;
     private final List<String> warnings;
     private final SolveReport resolveReport;
 
-    private StageModel(StageParameters p, SolverSettings s, Circuit c, double vb, double[] q, SolveReport r) {
+    private StageModel(StageParameters p, SolverSettings s, Circuit c, double vb, double offset, double[] q, SolveReport r) {
         params = p;
         settings = s;
         circuit = c;
         biasVolts = vb;
+        inputOffsetVolts = offset;
         quiescentNodes = q;
         resolveReport = r;
-        Solver sv = new Solver(c, s, vb);
+        Solver sv = new Solver(c, s, vb, offset);
         quiescent = operatingPoint(sv, 0, q);
         List<String> w = new ArrayList<>(p.warnings());
         double vq = vqOf(q);
@@ -68,67 +70,106 @@ public final class StageModel {
         if (p.bias() instanceof Bias.GeneratorVolts g) {
             vb = g.volts();
             sv.biasVolts = vb;
-            q = sv.quiescent(null);
+            q = rest(c, sv, sv.quiescent(null));
         } else {
             double target = p.bias() instanceof Bias.EmitterDropVolts e ? e.volts() : ((Bias.QuiescentAmps) p.bias()).amps() * p.emitterOhms();
             double[] res = biasForVq(c, sv, target, p);
             vb = res[0];
             sv.biasVolts = vb;
-            q = sv.quiescent(Arrays.copyOfRange(res, 1, res.length));
+            sv.inputOffsetVolts = res[1];
+            q = rest(c, sv, sv.solve(0, 0, Arrays.copyOfRange(res, 2, res.length)));
         }
-        return new StageModel(p, s, c, vb, q, sv.report());
+        return new StageModel(p, s, c, vb, sv.inputOffsetVolts, q, sv.report());
     }
 
-    /** Searches the bias voltage whose quiescent Vq equals target; returns {vb, nodes...}. */
+    /**
+     * The rest point: moves the solver's input offset until the output is 0 V at Vin = 0, as an amplifier's global
+     * feedback holds it (Vout is monotonic in the input: safeguarded Newton, steps limited to 0.5 V, bisection when a
+     * Newton step leaves the bracket). {@code v} is a solution at the present offset; returns the nodes at the new one.
+     * A symmetric stage rests at 0 V with no offset; an asymmetric one (quasi) needs a few millivolts.
+     */
+    static double[] rest(Circuit c, Solver sv, double[] v) {
+        double lo = Double.NEGATIVE_INFINITY, hi = Double.POSITIVE_INFINITY;
+        for (int it = 0; it < 100; it++) {
+            double out = v[c.out];
+            if (Math.abs(out) <= REST_TOLERANCE_VOLTS) break;
+            double x = sv.inputOffsetVolts;
+            if (out > 0) hi = Math.min(hi, x); else lo = Math.max(lo, x);
+            if (hi - lo < 1e-13) break;
+            double g = sv.gain(v, 0);
+            double step = g > 1e-6 ? -out / g : -Math.signum(out) * 0.05;
+            step = Math.max(-0.5, Math.min(0.5, step));
+            double next = x + step;
+            if (!(next > lo && next < hi)) next = Double.isFinite(lo) && Double.isFinite(hi) ? (lo + hi) / 2 : x + step;
+            v = sv.solve(next - x, 0, v);
+            sv.inputOffsetVolts = next;
+            // v was solved with the old offset and input next − x: the same drive as input 0 with the new offset
+        }
+        return v;
+    }
+
+    /** The rest point holds |Vout| below this (the solver's own tolerance is 1 nV). */
+    static final double REST_TOLERANCE_VOLTS = 1e-9;
+
+    /** Searches the bias voltage whose quiescent Vq (at the rest point, Vout = 0) equals target; returns {vb, offset, nodes...}. */
     private static double[] biasForVq(Circuit c, Solver sv, double target, StageParameters p) {
         double limit = 2 * (p.railVolts() - p.driveSaturationVolts());
         double lo = 0;
         sv.biasVolts = lo;
-        double[] vLo = sv.quiescent(null);
+        sv.inputOffsetVolts = 0;
+        double[] vLo = rest(c, sv, sv.quiescent(null));
+        double oLo = sv.inputOffsetVolts;
         double hLo = Math.log(Math.max(vqOf(c, vLo), 1e-300) / target);
         while (hLo > 0) {
             lo -= 0.2;
             sv.biasVolts = lo;
-            vLo = sv.solve(0, 0, vLo);
+            vLo = rest(c, sv, sv.solve(0, 0, vLo));
+            oLo = sv.inputOffsetVolts;
             hLo = Math.log(Math.max(vqOf(c, vLo), 1e-300) / target);
             if (lo < -limit) throw new IllegalArgumentException("vq=" + target + " V must be reachable with a bias source inside the rails");
         }
         double hi = lo;
         double[] vHi = vLo;
-        double hHi = hLo;
+        double hHi = hLo, oHi = oLo;
         while (hHi <= 0) {
-            lo = hi; vLo = vHi; hLo = hHi;
+            lo = hi; vLo = vHi; hLo = hHi; oLo = oHi;
             hi += 0.1;
             if (hi / 2 >= p.railVolts() - p.driveSaturationVolts())
                 throw new IllegalArgumentException("vq=" + StageParameters.fmt(target * 1e3) + " mV must be reachable with a bias source inside the rails (rails="
                         + StageParameters.fmt(p.railVolts()) + " V)");
             sv.biasVolts = hi;
-            vHi = sv.solve(0, 0, vHi);
+            vHi = rest(c, sv, sv.solve(0, 0, vHi));
+            oHi = sv.inputOffsetVolts;
             hHi = Math.log(vqOf(c, vHi) / target);
         }
         // Illinois regula falsi on ln(Vq/target), which is smooth and nearly linear in Vbias.
         int side = 0;
         double x = hi;
         double[] vx = vHi;
+        double ox = oHi;
         for (int it = 0; it < 200; it++) {
             x = (lo * hHi - hi * hLo) / (hHi - hLo);
             sv.biasVolts = x;
-            vx = sv.solve(0, 0, hLo < -hHi ? vHi : vLo);
+            boolean nearHi = hLo < -hHi;
+            sv.inputOffsetVolts = nearHi ? oHi : oLo;
+            vx = rest(c, sv, sv.solve(0, 0, nearHi ? vHi : vLo));
+            ox = sv.inputOffsetVolts;
             double hx = Math.log(vqOf(c, vx) / target);
             if (Math.abs(hx) < 1e-12 || hi - lo < 1e-13) break;
             if (hx > 0) {
-                hi = x; hHi = hx; vHi = vx;
+                hi = x; hHi = hx; vHi = vx; oHi = ox;
                 if (side == 1) hLo /= 2;
                 side = 1;
             } else {
-                lo = x; hLo = hx; vLo = vx;
+                lo = x; hLo = hx; vLo = vx; oLo = ox;
                 if (side == -1) hHi /= 2;
                 side = -1;
             }
         }
-        double[] r = new double[vx.length + 1];
+        double[] r = new double[vx.length + 2];
         r[0] = x;
-        System.arraycopy(vx, 0, r, 1, vx.length);
+        r[1] = ox;
+        System.arraycopy(vx, 0, r, 2, vx.length);
         return r;
     }
 
@@ -155,8 +196,24 @@ public final class StageModel {
 
     public StageParameters parameters() { return params; }
 
+    /** The solver settings this model was built with. */
+    public SolverSettings solverSettings() { return settings; }
+
     /** The bias-generator voltage (given, or solved from Vq or Iq). */
     public double biasVolts() { return biasVolts; }
+
+    /**
+     * The input offset that holds the output at 0 V at rest, as global feedback does in an amplifier; every input
+     * of this model (curves, operating points, the sine of the distortion) is relative to it. Zero for a symmetric
+     * stage; a few millivolts for the quasi-complementary one, whose halves differ.
+     */
+    public double inputOffsetVolts() { return inputOffsetVolts; }
+
+    /** Quiescent current through the upper emitter resistor at the rest point (Vout = 0). */
+    public double quiescentUpperAmps() { return quiescent.emitterDropUpperVolts() / params.emitterOhms(); }
+
+    /** Quiescent current through the lower emitter resistor at the rest point (Vout = 0). */
+    public double quiescentLowerAmps() { return quiescent.emitterDropLowerVolts() / params.emitterOhms(); }
 
     /** The quiescent point (Vin = 0). */
     public OperatingPoint quiescent() { return quiescent; }
@@ -179,7 +236,7 @@ public final class StageModel {
     /** An operating point at one input value (reached by continuation from the quiescent point). */
     public OperatingPoint operatingPoint(double vin) {
         Require.finite("vin", vin);
-        Solver sv = new Solver(circuit, settings, biasVolts);
+        Solver sv = new Solver(circuit, settings, biasVolts, inputOffsetVolts);
         double[] v = walk(sv, vin);
         return operatingPoint(sv, vin, v);
     }
@@ -200,7 +257,7 @@ public final class StageModel {
         double[] vin = new double[points];
         for (int k = 0; k < points; k++) vin[k] = vinMinVolts + (vinMaxVolts - vinMinVolts) * k / (points - 1);
         vin[points - 1] = vinMaxVolts;
-        Solver sv = new Solver(circuit, settings, biasVolts);
+        Solver sv = new Solver(circuit, settings, biasVolts, inputOffsetVolts);
         double[][] r = sweep(sv, vin);
         return new ModelCurve(new TransferCurve(vin, r[0], r[1], "V"), sv.report());
     }
@@ -249,7 +306,7 @@ public final class StageModel {
     /** The clip levels: the output with each half's drive at its limit (rail less the drive saturation). */
     public ClipLevels clipLevels() {
         double vinTop = params.railVolts() - params.driveSaturationVolts() + Math.abs(biasVolts) / 2;
-        return new ClipLevels(operatingPoint(vinTop).outputVolts(), operatingPoint(-vinTop).outputVolts());
+        return new ClipLevels(operatingPoint(vinTop - inputOffsetVolts).outputVolts(), operatingPoint(-vinTop - inputOffsetVolts).outputVolts());
     }
 
     /**
@@ -266,7 +323,7 @@ public final class StageModel {
         double g = largeSignalGainEstimate(null);
         double maxLevel = 0;
         for (double level : outputPeakVolts) maxLevel = Math.max(maxLevel, Require.positive("outputPeakVolts", level));
-        Solver sv = new Solver(circuit, settings, biasVolts);
+        Solver sv = new Solver(circuit, settings, biasVolts, inputOffsetVolts);
         // A curve with exact gains, for cubic Hermite interpolation: finds the drive amplitude cheaply before the exact passes.
         double span = Math.min(maxLevel / g * 1.5 + 1, params.railVolts() + Math.abs(biasVolts));
         double[] gridIn = new double[2001];
@@ -384,7 +441,7 @@ public final class StageModel {
     /** {vout, gain} on the given ascending inputs, for this stage at bias voltage vb (package use: the fit). */
     double[][] curveAtBias(double vb, double[] vin) {
         StageModel at = of(params.withBias(new Bias.GeneratorVolts(vb)), settings);
-        return at.sweep(new Solver(at.circuit, settings, vb), vin);
+        return at.sweep(new Solver(at.circuit, settings, vb, at.inputOffsetVolts), vin);
     }
 
     /** max |g/g_L − 1| over |Vout| ≤ level for bias voltage vb (a 301-point curve, dense near zero). */
@@ -398,7 +455,7 @@ public final class StageModel {
         double g0 = largeSignalGainEstimate(null);
         double span = level / g0 * 1.05;
         double[] vin = denseGrid(span);
-        Solver sv = new Solver(at.circuit, settings, vb);
+        Solver sv = new Solver(at.circuit, settings, vb, at.inputOffsetVolts);
         double[][] r = at.sweep(sv, vin);
         double gp = Interp.at(r[0], r[1], level), gm = Interp.at(r[0], r[1], -level);
         double gl = (gp + gm) / 2;
@@ -410,14 +467,20 @@ public final class StageModel {
 
     /**
      * Thermal sensitivity of the quiescent current when the bias generator tracks {@code trackedJunctions}
-     * of the bias loop's junctions (see {@link ThermalSensitivity}). dIq/dVbias comes from the Jacobian.
+     * of the bias loop's junctions (see {@link ThermalSensitivity}). dIq/dVbias comes from the Jacobian, with the output
+     * held at 0 V at rest (the input offset follows, as global feedback makes it).
      */
     public ThermalSensitivity thermalSensitivity(int trackedJunctions) {
         int loop = params.topology().junctionsInBiasLoop();
         Require.inRange("trackedJunctions", trackedJunctions, 0, loop);
-        Solver sv = new Solver(circuit, settings, biasVolts);
-        sv.biasDerivative(quiescentNodes, 0);
-        double[] dv = sv.lastBiasDerivative;
+        Solver sv = new Solver(circuit, settings, biasVolts, inputOffsetVolts);
+        // With the rest point held at Vout = 0 (global feedback), a change of bias also moves the input offset:
+        // dv/dVb|Vout=0 = dv/dVb − dv/dVin · (dVout/dVb)/(dVout/dVin). Zero correction for a symmetric stage.
+        double gIn = sv.gain(quiescentNodes, 0);
+        double[] dIn = sv.inputSensitivity();
+        double dOutdVb = sv.biasDerivative(quiescentNodes, 0);
+        double[] dv = sv.lastBiasDerivative.clone();
+        if (gIn > 0) for (int k = 0; k < dv.length; k++) dv[k] -= dIn[k] * dOutdVb / gIn;
         Circuit.Resistor rt = circuit.resistors.get(circuit.emitterResistorTop);
         Circuit.Resistor rb = circuit.resistors.get(circuit.emitterResistorBottom);
         double dTop = (dv[rt.a()] - dv[rt.b()]) / rt.ohms();

@@ -15,8 +15,9 @@ import org.outstage.Require;
  * defaulted.
  *
  * <p>Defaults describe a stage of about 60 W into 8 Ω: rails ±35 V, Re 0.22 Ω, driver β 150 and Is 1e-14 A,
- * output β 60 and Is 1e-12 A, n = 1, 25 °C, Vq 20 mV, Darlington driver emitter resistor 200 Ω, no output
- * base-emitter resistor in a CFP and its Re outside the local loop, driver (VAS) saturation 0.2 V from each rail.
+ * output β 60 and Is 1e-12 A, n = 1, 25 °C, Vq 20 mV, Darlington driver emitter resistor 200 Ω, a CFP's output
+ * base-emitter resistor (the driver's collector load) {@value #DEFAULT_CFP_RBE_OHMS} Ω in the cfp and quasi topologies
+ * (none in the others) and its Re outside the local loop, driver (VAS) saturation 0.2 V from each rail.
  */
 public record StageParameters(Topology topology, Bias bias, double emitterOhms, double loadOhms, double railVolts,
                               DeviceParameters driver, DeviceParameters output, double temperatureCelsius,
@@ -34,6 +35,15 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
     public static final double DEFAULT_VQ_VOLTS = 0.020;
     public static final double DEFAULT_DRIVER_EMITTER_OHMS = 200;
     public static final double DEFAULT_DRIVE_SATURATION_VOLTS = 0.2;
+    /**
+     * Default resistor across a CFP output device's base-emitter junction (the driver's collector load), ohms.
+     * Common practice, value from memory (not checked against a published schematic): CFP output stages carry a
+     * resistor of the order of 100 Ω there, so the driver runs a standing current of about Vbe/Rbe ≈ 6 mA and the
+     * stored charge of the output device has a path out. Without it the CFP's crossover is that of a plain pair.
+     */
+    public static final double DEFAULT_CFP_RBE_OHMS = 100;
+    /** Where {@link #DEFAULT_CFP_RBE_OHMS} comes from, as the summary prints it. */
+    public static final String DEFAULT_CFP_RBE_SOURCE = "common practice, value from memory: about 100 ohm, driver standing current ~ Vbe/Rbe = 6 mA";
 
     public StageParameters {
         Require.notNull("topology", topology);
@@ -156,7 +166,9 @@ public record StageParameters(Topology topology, Bias bias, double emitterOhms, 
             if (bias instanceof Bias.GeneratorVolts g && !(Math.abs(g.volts()) / 2 < rails - driveSat))
                 throw new IllegalArgumentException("bias_v=" + g.volts() + " must be < 2*(rails - drive_sat_v) = " + fmt(2 * (rails - driveSat))
                         + " so the bias source fits between the rails");
-            Topology t = switch (topologyName.toLowerCase(Locale.ROOT)) {
+            String tn = topologyName.toLowerCase(Locale.ROOT);
+            if (!set.contains("rbe") && (tn.equals("cfp") || tn.equals("quasi"))) rbe = DEFAULT_CFP_RBE_OHMS;
+            Topology t = switch (tn) {
                 case "pair" -> new Topology.Pair();
                 case "darlington" -> new Topology.Darlington(rDriver);
                 case "cfp" -> new Topology.Cfp(rbe, reInLoop);

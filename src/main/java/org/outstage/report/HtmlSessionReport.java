@@ -35,20 +35,22 @@ public final class HtmlSessionReport {
             for (String svg : charts) h.append("<figure>").append(svg).append("</figure>\n");
         }
         h.append("<h2>Steps</h2>\n<table>\n<thead><tr><th class=\"num\">Step</th><th>Time</th><th class=\"num\">Reading</th><th class=\"num\">Heatsink</th>"
-                + "<th class=\"num\">Gain at zero</th><th>Crossover</th><th class=\"num\">THD</th><th class=\"num\">THD+N</th><th>Capture</th></tr></thead>\n<tbody>\n");
+                + "<th class=\"num\">Crossover ratio</th><th class=\"num\">Gain at zero</th><th>Crossover</th><th class=\"num\">THD</th><th class=\"num\">THD+N</th><th>Capture</th></tr></thead>\n<tbody>\n");
         for (BiasStep s : d.steps()) {
             h.append("<tr><td class=\"num\">").append(s.seq()).append("</td><td>").append(HtmlReport.esc(s.takenAt().toString())).append("</td>");
             h.append("<td class=\"num\">").append(HtmlReport.esc(s.reading().toString())).append("</td>");
             h.append("<td class=\"num\">").append(s.heatsinkCelsius().isPresent() ? HtmlReport.num(s.heatsinkCelsius().getAsDouble()) + " °C" : "—").append("</td>");
             if (s.measurement().isPresent()) {
                 KeyFigures f = s.measurement().get().figures();
+                h.append("<td class=\"num\">").append(f.crossoverReading().isPresent() ? String.format(Locale.ROOT, "%.4f", f.crossoverReading().getAsDouble()) : "—")
+                        .append("</td>");
                 h.append("<td class=\"num\">").append(f.gainAtZero().isPresent() ? String.format(Locale.ROOT, "%.4f", f.gainAtZero().getAsDouble()) : "—")
                         .append("</td><td>").append(HtmlReport.esc(f.crossoverVerdict().orElse("—"))).append("</td>");
                 h.append("<td class=\"num\">").append(HtmlReport.num(f.thdRatio() * 100)).append(" %</td><td class=\"num\">")
                         .append(HtmlReport.num(f.thdNRatio() * 100)).append(" %</td>");
                 h.append("<td>").append(HtmlReport.esc(s.measurement().get().capture().map(c -> c.fileName()).orElse("—"))).append("</td>");
             } else {
-                h.append("<td class=\"num\">—</td><td>—</td><td class=\"num\">—</td><td class=\"num\">—</td><td>—</td>");
+                h.append("<td class=\"num\">—</td><td class=\"num\">—</td><td>—</td><td class=\"num\">—</td><td class=\"num\">—</td><td>—</td>");
             }
             h.append("</tr>\n");
         }

@@ -63,35 +63,61 @@ public final class ReportCharts {
     }
 
     /**
-     * The trend of a bias session against the reading: gain at zero (with the near-optimal band as lines and the
-     * recommended range shaded) and THD. Steps in another unit than the advice's are left out. Empty without
-     * two steps that carry figures.
+     * The trend of a bias session against the reading: the crossover ratio the advice reads (gain at zero against the
+     * large-current gain, {@code KeyFigures.crossoverReading()}; equal readings averaged), drawn as the same interpolant
+     * the advice uses (linear in ln(reading) between steps, {@code analysis.stage.BiasCriterion}), so the shaded
+     * recommended range ends exactly where the line crosses the band's limits; and THD. Steps in another unit than the
+     * advice's are left out. Empty without two readings that carry figures.
      */
     public static List<String> forBiasSession(List<StepPoint> steps, BiasAdvice advice, double tolerance) {
-        List<StepPoint> pts = new ArrayList<>();
+        List<String> out = new ArrayList<>();
+        for (ChartSpec c : biasSessionCharts(steps, advice, tolerance)) out.add(SvgRenderer.render(c, WIDTH, HEIGHT));
+        return out;
+    }
+
+    /** The chart descriptions behind {@link #forBiasSession} (crossover ratio, THD); empty without two readings with figures. */
+    public static List<ChartSpec> biasSessionCharts(List<StepPoint> steps, BiasAdvice advice, double tolerance) {
+        java.util.TreeMap<Double, double[]> acc = new java.util.TreeMap<>();
         for (StepPoint s : steps) {
-            if (s.reading().unit() == advice.unit() && s.figures().isPresent() && s.figures().get().gainAtZero().isPresent()) pts.add(s);
+            if (s.reading().unit() != advice.unit() || s.figures().isEmpty() || s.figures().get().crossoverReading().isEmpty()) continue;
+            double[] a = acc.computeIfAbsent(s.reading().value(), k -> new double[3]);
+            a[0] += s.figures().get().crossoverReading().getAsDouble();
+            a[1] += s.figures().get().thdRatio() * 100;
+            a[2]++;
         }
-        if (pts.size() < 2) return List.of();
-        pts.sort(Comparator.comparingDouble(s -> s.reading().value()));
-        double[] b = new double[pts.size()];
-        double[] g = new double[pts.size()];
-        double[] thd = new double[pts.size()];
-        for (int i = 0; i < b.length; i++) {
-            b[i] = pts.get(i).reading().value();
-            g[i] = pts.get(i).figures().get().gainAtZero().getAsDouble();
-            thd[i] = pts.get(i).figures().get().thdRatio() * 100;
+        if (acc.size() < 2) return List.of();
+        int n = acc.size();
+        double[] b = new double[n], r = new double[n], thd = new double[n];
+        int i = 0;
+        boolean log = true;
+        for (var e : acc.entrySet()) {
+            b[i] = e.getKey();
+            r[i] = e.getValue()[0] / e.getValue()[2];
+            thd[i] = e.getValue()[1] / e.getValue()[2];
+            log &= b[i] > 0;
+            i++;
         }
+        int sub = 64;
+        double[] bx = new double[(n - 1) * sub + 1], ry = new double[bx.length];
+        for (int k = 0; k + 1 < n; k++) {
+            for (int j = 0; j < sub; j++) {
+                double t = (double) j / sub;
+                bx[k * sub + j] = log ? Math.exp(Math.log(b[k]) + t * (Math.log(b[k + 1]) - Math.log(b[k]))) : b[k] + t * (b[k + 1] - b[k]);
+                ry[k * sub + j] = r[k] + t * (r[k + 1] - r[k]);
+            }
+        }
+        bx[bx.length - 1] = b[n - 1];
+        ry[ry.length - 1] = r[n - 1];
         String unit = advice.unit().symbol();
         Axis x = Axis.linear("Bias reading", unit);
         List<Band> bands = advice.low().isPresent()
                 ? List.of(new Band(advice.low().getAsDouble(), advice.high().getAsDouble(), "recommended")) : List.of();
-        ChartSpec gain = new ChartSpec("Gain at zero against the bias reading", x, Axis.linear("Gain at zero", ""),
-                List.of(new Series("gain at zero", b, g, Series.Style.LINE, Series.Role.MEASURED)), List.of(), bands,
+        ChartSpec gain = new ChartSpec("Crossover ratio against the bias reading", x, Axis.linear("Crossover ratio (gain at zero / large-current gain)", ""),
+                List.of(new Series("crossover ratio", bx, ry, Series.Style.LINE, Series.Role.MEASURED)), List.of(), bands,
                 List.of(new HorizontalLine(1 + tolerance, "gm-doubling above", Series.Role.LIMIT),
                         new HorizontalLine(1 - tolerance, "notch below", Series.Role.LIMIT)));
         ChartSpec dist = new ChartSpec("THD against the bias reading", x, Axis.log("THD", "%"),
                 List.of(new Series("THD", b, thd, Series.Style.LINE, Series.Role.MEASURED)), List.of(), bands, List.of());
-        return List.of(SvgRenderer.render(gain, WIDTH, HEIGHT), SvgRenderer.render(dist, WIDTH, HEIGHT));
+        return List.of(gain, dist);
     }
 }

@@ -50,6 +50,19 @@ class ModelCommandTest {
     }
 
     @Test
+    void quasiSummary_restsAtZero_namesHalvesRbeSource_andHarmonicsInPercent() {
+        // Issue 10 item 4. Physical invariant: global feedback holds the output at 0 V at rest; the summary reports the
+        // halves' currents and the gain asymmetry as figures; harmonics in % like THD; the default Rbe's source is named.
+        Run r = run("model", "--topology", "quasi", "--vq-mv", "5", "--thd-levels", "5");
+        assertEquals(0, r.code(), r.err());
+        assertTrue(r.out().contains("rest point     output 0.000000 V"), r.out());
+        assertTrue(r.out().contains("halves at rest upper ") && r.out().contains("Gain asymmetry"), r.out());
+        assertTrue(r.out().matches("(?s).*THD +[0-9.]+ %   H2 +[0-9.]+ %   H3 +[0-9.]+ %.*"), r.out());
+        assertTrue(r.out().contains("Rbe: 100 ohm (default; common practice, value from memory"), r.out());
+        assertTrue(r.out().contains("Optimum Vq") && r.out().contains("Flattest gain") && r.out().contains("other criterion, not advice"), r.out());
+    }
+
+    @Test
     void csv_printsVinVoutGain() {
         Run r = run("model", "--csv", "--points", "11", "--vin-max", "5", "--topology", "darlington");
         assertEquals(0, r.code(), r.err());

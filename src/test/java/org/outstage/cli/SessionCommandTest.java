@@ -66,15 +66,16 @@ class SessionCommandTest {
         assertEquals(0.990, first.get("gain_at_zero"));
         assertEquals(0.11, (Double) first.get("thd_percent"), 1e-12);
         Map<String, Object> rec = (Map<String, Object>) show.get("recommendation");
-        // linear interpolation of the steps, default band ±0.3 %: g0 = 0.997 between 15 mV (0.994) and 20 mV (0.998) at
-        // 15 + 5*(0.003/0.004) = 18.75 mV; g0 = 1.003 between 25 mV (1.001) and 30 mV (1.004) at 25 + 5*(0.002/0.003) = 28.333 mV
-        assertEquals(18.75, (Double) rec.get("bias_mv_low"), 1e-9);
-        assertEquals(25 + 5 * (0.002 / 0.003), (Double) rec.get("bias_mv_high"), 1e-9);
+        // interpolation of the steps linearly in ln(reading) (docs/logbook.md), default band ±0.3 %: g0 = 0.997 between
+        // 15 mV (0.994) and 20 mV (0.998) at 15·(20/15)^(0.003/0.004); g0 = 1.003 between 25 mV (1.001) and 30 mV (1.004)
+        // at 25·(30/25)^(0.002/0.003)
+        assertEquals(15 * Math.pow(20.0 / 15, 0.003 / 0.004), (Double) rec.get("bias_mv_low"), 1e-9);
+        assertEquals(25 * Math.pow(30.0 / 25, 0.002 / 0.003), (Double) rec.get("bias_mv_high"), 1e-9);
         assertTrue(((String) rec.get("advice")).contains("less bias"), rec.toString());
         Path page = dir.resolve("session.html");
         assertEquals(0, run("session", "show", Long.toString(id), "--logbook", db, "--report", page.toString()), err);
         String html = Files.readString(page);
-        assertTrue(html.contains("<svg") && html.contains("Gain at zero against the bias reading") && html.contains("@media print"), html);
+        assertTrue(html.contains("<svg") && html.contains("Crossover ratio against the bias reading") && html.contains("@media print"), html);
         assertTrue(html.contains("DA-60 #3") && html.contains("thermal runaway"));
         // the stored capture holds provenance
         try (Logbook lb = Logbook.open(Path.of(db))) {

@@ -27,7 +27,8 @@ class StagePhysicsTest {
     void cfpCompositeCurrentGain_isBeta1TimesBeta2PlusBeta1() {
         // Common practice (docs/references.md §7): CFP composite gain β1·β2 + β1; driver β 120, output β 40 gives 4920.
         // Measured on the model: current the upper pair draws from the rail (output emitter) over the driver's base current.
-        StageModel m = model(StageParameters.builder().topology("cfp").betaDriver(120).betaOutput(40));
+        // The formula is for the bare pair, so no Rbe here (the default CFP has one: it takes part of the driver's current).
+        StageModel m = model(StageParameters.builder().topology("cfp").betaDriver(120).betaOutput(40).outputBaseEmitterOhms(Double.POSITIVE_INFINITY));
         OperatingPoint op = m.operatingPoint(10);
         OperatingPoint.DeviceCurrent drv = op.device("upper driver"), out = op.device("upper output");
         double composite = (out.collectorAmps() + out.baseAmps()) / drv.baseAmps();
@@ -152,7 +153,7 @@ class StagePhysicsTest {
     void cfpWithoutRbe_behavesExactlyLikeOnePairAtTheSameVq() {
         // Without Rbe and with Re outside the loop, a CFP half's current through Re is If1·(1 + 1/β1 + β2): a single
         // exponential of the driver's Vbe, like one emitter follower's If·(1 + 1/β). At equal Vq the curves coincide.
-        TransferCurve cfp = model(StageParameters.builder().topology("cfp")).transferCurve(-3, 3, 61).curve();
+        TransferCurve cfp = model(StageParameters.builder().topology("cfp").outputBaseEmitterOhms(Double.POSITIVE_INFINITY)).transferCurve(-3, 3, 61).curve();
         TransferCurve pair = model(StageParameters.builder()).transferCurve(-3, 3, 61).curve();
         for (int i = 0; i < 61; i++) {
             assertEquals(pair.outputVolts()[i], cfp.outputVolts()[i], 1e-9);
@@ -165,7 +166,7 @@ class StagePhysicsTest {
         // A finding of this model: with Re inside the local loop (in series with the output device's collector, a
         // current source) a CFP half's output resistance is VT/I and Re does not appear, so the crossover gain rises
         // towards the large-signal gain steadily with bias; the optimum search ends at its top.
-        StageModel m = model(StageParameters.builder().topology("cfp").cfpEmitterResistorInLoop(true));
+        StageModel m = model(StageParameters.builder().topology("cfp").cfpEmitterResistorInLoop(true).outputBaseEmitterOhms(Double.POSITIVE_INFINITY));
         double prev = Double.POSITIVE_INFINITY;
         for (double vq : new double[] {0.002, 0.005, 0.01, 0.02, 0.05, 0.1}) {
             StageModel at = m.withBias(new Bias.EmitterDropVolts(vq));
@@ -200,6 +201,7 @@ class StagePhysicsTest {
 
     @Test
     void gainFromJacobian_matchesCentralDifferenceOfModel() {
+        // Invariant: the derivative of the model's own output (a naive central difference, kept here) equals its Jacobian gain.
         for (String t : List.of("pair", "darlington", "cfp", "quasi")) {
             StageModel m = model(StageParameters.builder().topology(t).bias(new Bias.EmitterDropVolts(0.01)));
             double h = 1e-5;
@@ -219,10 +221,48 @@ class StagePhysicsTest {
         double up = StageModel.of(m.parameters().withBias(new Bias.GeneratorVolts(m.biasVolts() + dv)), S).quiescentAmps();
         double dn = StageModel.of(m.parameters().withBias(new Bias.GeneratorVolts(m.biasVolts() - dv)), S).quiescentAmps();
         assertEquals((up - dn) / (2 * dv), fixed.ampsPerBiasVolt(), 1e-4 * fixed.ampsPerBiasVolt());
+        // −2 mV/K per junction at constant current: Sedra & Smith, Microelectronic Circuits, as quoted in
+        // docs/references.md §7 (CONFIRMED there); also common practice (domain.md). Four junctions in a Darlington's loop.
         assertEquals(fixed.ampsPerBiasVolt() * 4 * 2e-3, fixed.untrackedAmpsPerKelvin(), 1e-12);
         assertEquals(0, tracked.trackedAmpsPerKelvin(), 1e-15);
         assertEquals(4, fixed.junctionsInLoop());
         assertEquals(2, model(StageParameters.builder().topology("cfp")).thermalSensitivity(0).junctionsInLoop());
+        // The quasi stage's rest point moves with the bias (the offset holds Vout at 0): the Jacobian figure must match
+        // re-solving the rest point at ±0.1 mV of bias (each re-solve finds its own offset).
+        StageModel q = model(StageParameters.builder().topology("quasi"));
+        double qUp = StageModel.of(q.parameters().withBias(new Bias.GeneratorVolts(q.biasVolts() + dv)), S).quiescentAmps();
+        double qDn = StageModel.of(q.parameters().withBias(new Bias.GeneratorVolts(q.biasVolts() - dv)), S).quiescentAmps();
+        assertEquals((qUp - qDn) / (2 * dv), q.thermalSensitivity(0).ampsPerBiasVolt(), 1e-4 * q.thermalSensitivity(0).ampsPerBiasVolt());
+    }
+
+    @Test
+    void quasiRestPoint_outputHeldAtZero_vqHolds_halvesObeyKcl() {
+        // Physical invariants. Global feedback holds the output at 0 V at rest: the model moves the input offset until
+        // Vout = 0 (a real amplifier's loop does the same), then sets the bias so the stated Vq (mean of the two
+        // emitter-resistor drops) holds. With no load current, KCL at the output node: the upper emitter resistor's
+        // current plus the Darlington driver's Rd current equals the lower emitter resistor's current.
+        StageModel m = model(StageParameters.builder().topology("quasi").bias(new Bias.EmitterDropVolts(0.005)));
+        OperatingPoint q = m.quiescent();
+        assertEquals(0, q.outputVolts(), 1e-9);
+        assertEquals(0.005, m.vqVolts(), 1e-9);
+        double rd = (q.nodeVolts().get("b3") - q.nodeVolts().get("out")) / StageParameters.DEFAULT_DRIVER_EMITTER_OHMS;
+        assertEquals(m.quiescentLowerAmps(), m.quiescentUpperAmps() + rd, 1e-9);
+        // Both halves conduct at the same order of current (before: 2.9 mA against 41.8 mA at −0.29 V output).
+        assertTrue(m.quiescentUpperAmps() > 0.5 * m.quiescentLowerAmps(), "upper " + m.quiescentUpperAmps() + " lower " + m.quiescentLowerAmps());
+        // A symmetric stage rests at 0 V without any offset (symmetry).
+        assertEquals(0, model(StageParameters.builder().topology("darlington")).inputOffsetVolts(), 1e-12);
+    }
+
+    @Test
+    void cfpDefault_hasBaseEmitterResistor_andLowOptimum() {
+        // Common practice (value from memory, StageParameters.DEFAULT_CFP_RBE_OHMS): a CFP's output device has a
+        // resistor across its base-emitter junction (the driver's collector load), of the order of 100 ohm.
+        StageParameters p = StageParameters.builder().topology("cfp").build();
+        assertEquals(100, ((Topology.Cfp) p.topology()).outputBaseEmitterOhms(), 0);
+        assertTrue(p.isDefaulted("rbe"));
+        assertEquals(100, ((Topology.Quasi) StageParameters.builder().topology("quasi").build().topology()).outputBaseEmitterOhms(), 0);
+        assertTrue(Double.isInfinite(((Topology.Cfp) StageParameters.builder().topology("cfp").outputBaseEmitterOhms(Double.POSITIVE_INFINITY)
+                .build().topology()).outputBaseEmitterOhms()));
     }
 
     @Test
@@ -234,6 +274,8 @@ class StagePhysicsTest {
         double vbe = op.nodeVolts().get("dtop") - op.nodeVolts().get("e1");
         assertEquals(34.8 - vbe - c.positiveVolts() / 8 * 0.22, c.positiveVolts(), 1e-3);
         assertEquals(-c.positiveVolts(), c.negativeVolts(), 1e-9);
+        // Common practice: a silicon power device's Vbe at a few amps is 0.7–0.9 V (value from memory); here Is 1e-12 A at
+        // about 4 A gives VT·ln(4/1e-12) = 0.74 V by the device law itself.
         assertTrue(vbe > 0.7 && vbe < 0.9);
     }
 }

@@ -37,7 +37,7 @@ public record StageSettings(int binCount, int smoothingHalfWidthBins, double res
 
     /** 256 bins, ±4-bin smoothing, residual unfiltered, ±10 % near zero, 1 % notch, ±0.3 % near-optimal band, 2σ, volts. */
     public static StageSettings defaults() {
-        return new StageSettings(256, 4, 0, 0, 0.10, 0.01, 0.003, 2.0, "V");
+        return new StageSettings(256, 4, 0, 0, 0.10, 0.01, BiasCriterion.BAND, BiasCriterion.COVERAGE, "V");
     }
 
     /** Copy with another unit label ("V" or "FS"). */

@@ -190,7 +190,7 @@ final class TransferEngine {
         // reached it (VT/I still adds), and g(0)/outer reads high; the verdict uses g(0)·a instead when the outer gain
         // rises measurably (b > 0 beyond the noise). At Oliver's condition g(0) equals that asymptote exactly.
         double v1 = 0.5 * peak, v2 = 0.5 * (upPos + upNeg);
-        double a = (v2 / gOut - v1 / gIn) / (v2 - v1);
+        double a = BiasCriterion.asymptoteCoefficient(v1, gIn, v2, gOut);
         double gInVar = 0.25 * (p5.slopeVar + n5.slopeVar), gOutVar = 0.25 * (p9.slopeVar + n9.slopeVar);
         double aVar = (Math.pow(v2 / (gOut * gOut), 2) * gOutVar + Math.pow(v1 / (gIn * gIn), 2) * gInVar) / ((v2 - v1) * (v2 - v1));
         boolean outerRising = flat - s.verdictSigmas() * flatSe > 0 && a > 0;
@@ -555,18 +555,18 @@ final class TransferEngine {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = String.format(java.util.Locale.ROOT, "the gain falls by %.2f %% from 50 %% to 90 %% of peak: the outer swing is still in the crossover region; measure at a higher level, ",
                     -100 * outerFall) + rTxt;
-        } else if (r + k * rSe < lo) {
-            v = BiasVerdict.UNDERBIASED; conf = pUnder;
-            why = rTxt + ": the gain dips at the crossing (notch); raise the quiescent current";
-        } else if (r - k * rSe > hi) {
-            v = BiasVerdict.OVERBIASED; conf = pOver;
-            why = rTxt + ": the gain rises at the crossing (gm-doubling); lower the quiescent current";
-        } else if (Math.abs(r - 1) + k * rSe <= band) {
-            v = BiasVerdict.NEAR_OPTIMAL; conf = pNear;
-            why = rTxt + ": within ±" + String.format(java.util.Locale.ROOT, "%.2f", band * 100) + " % of flat";
         } else {
-            v = BiasVerdict.UNCLEAR; conf = Math.max(pNear, Math.max(pUnder, pOver));
-            why = rTxt + ": the uncertainty straddles a threshold; average more cycles or reduce the noise";
+            // the one definition and band of the optimum bias (BiasCriterion), shared with fit and the session advice
+            v = BiasCriterion.classify(r, rSe, band, k);
+            switch (v) {
+                case UNDERBIASED -> { conf = pUnder; why = rTxt + ": the gain dips at the crossing (notch); raise the quiescent current"; }
+                case OVERBIASED -> { conf = pOver; why = rTxt + ": the gain rises at the crossing (gm-doubling); lower the quiescent current"; }
+                case NEAR_OPTIMAL -> { conf = pNear; why = rTxt + ": within ±" + String.format(java.util.Locale.ROOT, "%.2f", band * 100) + " % of flat"; }
+                default -> {
+                    conf = Math.max(pNear, Math.max(pUnder, pOver));
+                    why = rTxt + ": the uncertainty straddles a threshold; average more cycles or reduce the noise";
+                }
+            }
         }
         return new CrossoverMetrics(rDefined, rDefinedSe, g0, outer, notchWidth, depth, depth / peak, nzShare, nzTime, v, conf, why,
                 asymptote, r, rSe, res);
