@@ -223,7 +223,7 @@ class WorkbenchTest {
     @Test
     void sampleSession_opensCalibrated_figuresAndSweepEqualTheAnalysis(FxRobot robot) throws Exception {
         Path dir = Path.of("sample-captures");
-        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isDirectory(dir), "sample-captures/ is part of the repository");
+        org.junit.jupiter.api.Assertions.assertTrue(Files.isDirectory(dir), "sample-captures/ is part of the repository");
         robot.interact(() -> pane.openPaths(List.of(dir), Workbench.SAMPLE_SESSION));
         idle();
         long files;
@@ -262,7 +262,7 @@ class WorkbenchTest {
     @Test
     void referenceChannel_transferViewShowsTheXyCurveOfTheAnalysis(FxRobot robot) throws Exception {
         Path xy = Path.of("sample-captures", "da60-xy-gen-ch1-amp-ch2-10mV-20W.wav");
-        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isRegularFile(xy), "sample X-Y capture present");
+        org.junit.jupiter.api.Assertions.assertTrue(Files.isRegularFile(xy), "sample X-Y capture present");
         robot.interact(() -> pane.openPaths(List.of(xy), Workbench.SAMPLE_SESSION));
         idle();
         robot.interact(() -> pane.channelChoice.setValue(2));

@@ -64,7 +64,7 @@ class ReferenceDelayTest {
             assertFalse(al.inverting(), frac + " T must not read as inverting: " + al);
             assertEquals(d, al.delaySamples(), 0.01, frac + " T (construction)");
             assertEquals(d, al.correlationDelaySamples(), 0.25, "broadband peak at " + frac + " T (construction)");
-            assertEquals(3.2 * 0.9731, al.gain(), 0.01 * 3.2, "gain ≈ g·RL/(RL + Re) at Oliver bias (references.md §7)");
+            assertEquals(3.2 * 0.9731, al.gain(), 0.01 * 3.2, "gain ≈ g·RL/(RL + Re) at Oliver bias (docs/references.md §7)");
         }
     }
 
@@ -90,7 +90,7 @@ class ReferenceDelayTest {
         assertEquals(d, m.reference().orElseThrow().delaySamples(), 0.01);
         assertFalse(m.transfer().hysteresis().detected(), m.transfer().hysteresis().toString());
         StageFixtures.Pair pair = StageFixtures.Pair.of(StageFixtures.oliverAmps());
-        // truth: implicit differentiation of the pair (references.md §7); σ covers noise and resolution
+        // truth: implicit differentiation of the pair (docs/references.md §7); σ covers noise and resolution
         double truth = PushPullTruth.gainAtZero(pair, 3.2 * 5);
         assertEquals(truth, m.crossover().gainAtZero(), 3 * m.crossover().gainAtZeroStdError() + 1e-3);
     }
