@@ -203,9 +203,9 @@ class WorkbenchTest {
         Path svg = dir.resolve("s.svg"), csv = dir.resolve("s.csv"), png = dir.resolve("s.png");
         robot.interact(() -> {
             try {
-                WorkbenchPane.export(pane.spectrumChart, "svg", svg);
-                WorkbenchPane.export(pane.spectrumChart, "csv", csv);
-                WorkbenchPane.export(pane.waveformChart, "png", png);
+                ChartExport.export(pane.spectrumChart, "svg", svg);
+                ChartExport.export(pane.spectrumChart, "csv", csv);
+                ChartExport.export(pane.waveformChart, "png", png);
             } catch (java.io.IOException e) {
                 throw new java.io.UncheckedIOException(e);
             }
