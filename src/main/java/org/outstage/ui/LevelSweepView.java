@@ -48,10 +48,17 @@ final class LevelSweepView implements WorkbenchView {
     /** The captures the sweep is over, and how it says so. */
     record Choice(List<CaptureEntry> entries, String description) {}
 
-    /** The selected captures when two or more are selected, otherwise all opened captures. */
+    /** Chooses the series: the selection when it holds two or more captures, else a named series of the notes. */
     static Optional<Choice> choose(List<CaptureEntry> selected, List<CaptureEntry> all, CaptureEntry focus) {
         if (selected.size() >= 2) return Optional.of(new Choice(List.copyOf(selected), "The " + selected.size() + " selected captures"));
-        return Optional.of(new Choice(List.copyOf(all), "All opened captures"));
+        Optional<String> name = focus != null && focus.series.isPresent() ? focus.series
+                : all.stream().filter(e -> e.series.isPresent()).map(e -> e.series.get()).findFirst();
+        if (name.isEmpty()) return Optional.empty();
+        List<CaptureEntry> members = all.stream().filter(e -> e.series.equals(name)).toList();
+        List<String> others = all.stream().filter(e -> e.series.isPresent() && !e.series.equals(name)).map(e -> e.series.get()).distinct().toList();
+        return Optional.of(new Choice(members, "Level series “" + name.get() + "” of the calibration notes (" + members.size() + " captures)"
+                + (others.isEmpty() ? "" : "; other series: " + String.join(", ", others) + " (select one of its captures)")
+                + ". Ctrl-click two or more captures for another set."));
     }
 
     /** Draws the sweep over the chosen captures' analysis results. */
@@ -71,6 +78,15 @@ final class LevelSweepView implements WorkbenchView {
             if (e.data == null) { if (!e.failed()) waiting++; continue; }
             Optional<ViewData.SweepPoint> p = e.data.sweepPoint();
             if (p.isPresent()) pts.add(p.get().point()); else without.add(e.name);
+        }
+        if (waiting > 0) {
+            sweepChart.setMessage("Analysing the series: " + pts.size() + " of " + choice.get().entries().size() + " captures done…");
+            return;
+        }
+        if (!without.isEmpty() && choice.get().entries().size() >= 2) {
+            sweepChart.setMessage("Not one level series: " + String.join(", ", without)
+                    + " has no output power (give the full-scale volts and the load).");
+            return;
         }
         if (pts.size() < 2) {
             sweepChart.setMessage("The level sweep needs two or more captures at rising level, in volts, with a load set ("

@@ -55,6 +55,7 @@ import javafx.scene.control.cell.PropertyValueFactory;
 import javafx.beans.property.ReadOnlyStringWrapper;
 import javafx.stage.FileChooser;
 import javafx.stage.Window;
+import org.outstage.capture.BenchManifest;
 import org.outstage.capture.Capture;
 
 /**
@@ -250,14 +251,27 @@ final class WorkbenchPane extends BorderPane {
         harmonicsSpinner.setEditable(true);
         harmonicsSpinner.setPrefWidth(80);
         referenceChoice.setId("referenceChoice");
+        referenceChoice.setButtonCell(new ListCell<>() {
+            @Override protected void updateItem(String item, boolean empty) {
+                super.updateItem(item, empty);
+                setText(empty || item == null ? null : item);
+            }
+        });
+        referenceChoice.getButtonCell().setId("referenceCell");
         referenceChoice.getItems().setAll("none");
         referenceChoice.setValue("none");
         bandChoice.valueProperty().addListener((o, a, b) -> { if (b != null) changeSettings(settings.withBand(b)); });
         weightingBox.selectedProperty().addListener((o, a, b) -> changeSettings(settings.withAWeighting(b)));
         harmonicsSpinner.valueProperty().addListener((o, a, b) -> { if (b != null) changeSettings(settings.withHarmonics(b)); });
+        // the generator channel is a role of the selected capture's channels (from its notes or chosen here)
         referenceChoice.valueProperty().addListener((o, a, b) -> {
-            if (b == null || updatingControls) return;
-            changeSettings(settings.withReference(b.equals("none") ? OptionalInt.empty() : OptionalInt.of(Integer.parseInt(b) - 1)));
+            CaptureEntry e = selected();
+            if (b == null || updatingControls || e == null) return;
+            OptionalInt ref = b.equals("none") ? OptionalInt.empty() : OptionalInt.of(Integer.parseInt(b) - 1);
+            if (ref.equals(e.reference)) return;
+            e.reference = ref;
+            e.data = null;
+            analyzeSelected();
         });
         GridPane g = new GridPane();
         g.setHgap(6);
@@ -309,7 +323,13 @@ final class WorkbenchPane extends BorderPane {
 
     void openPaths(List<Path> paths) { openPaths(paths, Calibration.NONE); }
 
-    /** Opens files, and the capture files inside folders, with a calibration; each failure stays beside its file. */
+    /**
+     * Opens files, and the capture files inside folders. Each file takes the calibration notes of its folder
+     * ({@code bench.txt}, {@link BenchManifest}): full-scale volts, probe, sample rate, load, the channel roles
+     * (output, reference = generator) and the level series; a file no rule of the notes names takes
+     * {@code calibration}. Each failure stays beside its file; a bad notes file is reported and its folder opens
+     * with {@code calibration}.
+     */
     void openPaths(List<Path> paths, Calibration calibration) {
         List<Path> files = new ArrayList<>();
         for (Path p : paths) {
@@ -331,38 +351,83 @@ final class WorkbenchPane extends BorderPane {
             entries.add(e);
         }
         captureList.getItems().addAll(entries);
-        Task<List<Object>> t = new Task<>() {
-            @Override protected List<Object> call() {
-                List<Object> out = new ArrayList<>();
+        record Opened(Object captureOrError, Optional<BenchManifest.Entry> notes, String notesSource) {}
+        List<String> notesErrors = new ArrayList<>();
+        Task<List<Opened>> t = new Task<>() {
+            @Override protected List<Opened> call() {
+                java.util.Map<Path, Optional<BenchManifest>> manifests = new java.util.HashMap<>();
+                List<Opened> out = new ArrayList<>();
                 for (int i = 0; i < entries.size(); i++) {
                     if (isCancelled()) break;
-                    updateMessage("Opening " + entries.get(i).name + "…");
+                    CaptureEntry en = entries.get(i);
+                    updateMessage("Opening " + en.name + "…");
                     updateProgress(i, entries.size());
+                    Path file = en.path.get().toAbsolutePath();
+                    Path folder = file.getParent();
+                    Optional<BenchManifest> man = manifests.computeIfAbsent(folder, d -> {
+                        try {
+                            return Optional.of(BenchManifest.forFolder(d));
+                        } catch (Exception ex) {
+                            synchronized (notesErrors) { notesErrors.add(folder.resolve(BenchManifest.FILE_NAME) + ": " + oneLine(ex)); }
+                            return Optional.empty();
+                        }
+                    });
+                    Optional<BenchManifest.Entry> notes = man.flatMap(m -> m.firstPatternFor(file).map(x -> m.entryFor(file)));
+                    String source = notes.isPresent() ? folder.resolve(BenchManifest.FILE_NAME).toString() : "";
+                    Calibration cal = notes.map(Calibration::of).orElse(en.calibration);
                     try {
-                        out.add(backend.open(entries.get(i).path.get(), entries.get(i).calibration));
+                        out.add(new Opened(backend.open(en.path.get(), cal), notes, source));
                     } catch (Exception e) {
-                        out.add(oneLine(e));
+                        out.add(new Opened(oneLine(e), notes, source));
                     }
                 }
                 return out;
             }
         };
         t.setOnSucceeded(e -> {
-            List<Object> r = t.getValue();
+            List<Opened> r = t.getValue();
             for (int i = 0; i < r.size(); i++) {
                 CaptureEntry en = entries.get(i);
-                if (r.get(i) instanceof Capture c) en.capture = c; else en.error = (String) r.get(i);
+                Opened o = r.get(i);
+                if (o.notes().isPresent()) applyNotes(en, o.notes().get(), o.notesSource());
+                if (o.captureOrError() instanceof Capture c) {
+                    en.capture = c;
+                    settleChannels(en, o.notes());
+                } else en.error = (String) o.captureOrError();
             }
             captureList.refresh();
             long failed = entries.stream().filter(CaptureEntry::failed).count();
             statusText.setText("Opened " + (entries.size() - failed) + " of " + entries.size() + " file(s)"
-                    + (failed > 0 ? "; " + failed + " could not be read (see the list)" : ""));
+                    + (failed > 0 ? "; " + failed + " could not be read (see the list)" : "")
+                    + (notesErrors.isEmpty() ? "" : "; calibration notes not used: " + String.join("; ", notesErrors)));
+            if (!notesErrors.isEmpty()) importError.setText("Calibration notes not used: " + String.join("; ", notesErrors));
             CaptureEntry first = entries.stream().filter(x -> !x.failed()).findFirst().orElse(entries.get(0));
             if (captureList.getSelectionModel().getSelectedItem() == first) onSelect(first);
             else captureList.getSelectionModel().select(first);
             analyzeAllForSweep();
         });
         run(t, "Opening files");
+    }
+
+    /** Takes a capture's calibration, channel roles and series from its folder's notes. */
+    private static void applyNotes(CaptureEntry en, BenchManifest.Entry notes, String source) {
+        en.calibration = Calibration.of(notes);
+        en.reference = notes.referenceChannel().isPresent() ? OptionalInt.of(notes.referenceChannel().getAsInt() - 1) : OptionalInt.empty();
+        en.series = notes.series();
+        en.notes = "Calibration from " + source;
+    }
+
+    /**
+     * The channels of an opened capture: the notes' channel and reference (from 1) when they exist in the file;
+     * with a reference and no channel, the output is the first other channel (as {@code analyze --reference} does).
+     */
+    private static void settleChannels(CaptureEntry en, Optional<BenchManifest.Entry> notes) {
+        int n = en.capture.channelCount();
+        if (en.reference.isPresent() && (en.reference.getAsInt() >= n || n < 2)) en.reference = OptionalInt.empty();
+        OptionalInt ch = notes.map(BenchManifest.Entry::channel).orElse(OptionalInt.empty());
+        if (ch.isPresent() && ch.getAsInt() <= n) en.channel = ch.getAsInt() - 1;
+        if (en.reference.isPresent() && en.channel == en.reference.getAsInt()) en.channel = en.reference.getAsInt() == 0 ? 1 : 0;
+        if (en.channel >= n) en.channel = 0;
     }
 
     /** Adds a capture already in memory (tests, generated signals). */
@@ -393,20 +458,28 @@ final class WorkbenchPane extends BorderPane {
         updatingControls = true;
         try {
             importError.setText(e != null && e.failed() ? e.name + ": " + e.error : "");
-            captureWarnings.setText(e != null && e.capture != null ? String.join("\n", e.capture.warnings()) : "");
+            List<String> notes = new ArrayList<>();
+            if (e != null && !e.notes.isEmpty()) notes.add(e.notes);
+            if (e != null && e.capture != null) notes.addAll(e.capture.warnings());
+            captureWarnings.setText(String.join("\n", notes));
             calibrationError.setText("");
             if (e == null) { showNothing(); return; }
             fullScaleField.setText(text(e.calibration.fullScaleVolts()));
             probeField.setText(text(e.calibration.probeRatio()));
             loadField.setText(text(e.calibration.loadOhms()));
             channelChoice.getItems().clear();
-            referenceChoice.getItems().setAll("none");
+            List<String> refs = new ArrayList<>(List.of("none"));
             if (e.capture != null) {
-                for (int i = 1; i <= e.capture.channelCount(); i++) { channelChoice.getItems().add(i); referenceChoice.getItems().add(Integer.toString(i)); }
+                for (int i = 1; i <= e.capture.channelCount(); i++) { channelChoice.getItems().add(i); refs.add(Integer.toString(i)); }
                 channelChoice.setValue(e.channel + 1);
             }
-            referenceChoice.setValue(settings.referenceChannel().isPresent() && e.capture != null
-                    && settings.referenceChannel().getAsInt() < e.capture.channelCount() ? Integer.toString(settings.referenceChannel().getAsInt() + 1) : "none");
+            String ref = e.reference.isPresent() && refs.contains(Integer.toString(e.reference.getAsInt() + 1))
+                    ? Integer.toString(e.reference.getAsInt() + 1) : "none";
+            // value first cleared, then the items, then the value: a ComboBox whose items are replaced under its
+            // value shows a blank box
+            referenceChoice.setValue(null);
+            referenceChoice.getItems().setAll(refs);
+            referenceChoice.setValue(ref);
         } finally {
             updatingControls = false;
         }
@@ -436,14 +509,18 @@ final class WorkbenchPane extends BorderPane {
         }
         calibrationError.setText("");
         List<CaptureEntry> targets = toAll ? List.copyOf(captureList.getItems()) : List.of(sel);
-        for (CaptureEntry e : targets) { e.calibration = cal; e.data = null; }
+        for (CaptureEntry e : targets) {
+            e.calibration = new Calibration(cal.fullScaleVolts(), cal.probeRatio(), cal.loadOhms(), e.calibration.sampleRateHz());
+            e.data = null;
+            if (!e.notes.isEmpty()) e.notes = "Calibration entered here; channel roles and series from the notes";
+        }
         List<CaptureEntry> files = targets.stream().filter(e -> e.path.isPresent()).toList();
         if (files.isEmpty()) { analyzeSelected(); if (toAll) analyzeAllForSweep(); return; }
         Task<List<Object>> t = new Task<>() {
             @Override protected List<Object> call() {
                 List<Object> out = new ArrayList<>();
                 for (CaptureEntry e : files) {
-                    try { out.add(backend.open(e.path.get(), cal)); } catch (Exception ex) { out.add(oneLine(ex)); }
+                    try { out.add(backend.open(e.path.get(), e.calibration)); } catch (Exception ex) { out.add(oneLine(ex)); }
                 }
                 return out;
             }
@@ -477,7 +554,7 @@ final class WorkbenchPane extends BorderPane {
         Capture c = e.capture;
         int ch = e.channel;
         Calibration cal = e.calibration;
-        UiSettings s = settings;
+        UiSettings s = settings.withReference(e.reference);
         Task<ViewData> t = new Task<>() {
             @Override protected ViewData call() {
                 updateMessage("Analysing " + e.name + "…");
@@ -507,7 +584,7 @@ final class WorkbenchPane extends BorderPane {
             for (CaptureEntry e : todo) {
                 ViewData d;
                 try {
-                    d = backend.analyze(e.capture, e.channel, e.calibration, s, f -> {}, () -> false);
+                    d = backend.analyze(e.capture, e.channel, e.calibration, s.withReference(e.reference), f -> {}, () -> false);
                 } catch (RuntimeException ex) {
                     continue;
                 }

@@ -135,7 +135,8 @@ class WorkbenchTest {
             assertEquals(tab, views.getSelectionModel().getSelectedItem().getId());
         }
         // the level sweep needs several captures with a load: it says so in place
-        assertTrue(pane.sweepChart.message().contains("two or more captures"));
+        assertTrue(pane.sweepChart.message().contains("two or more"), pane.sweepChart.message());
+        assertTrue(pane.sweepView.seriesLabel.getText().contains("name none"), pane.sweepView.seriesLabel.getText());
     }
 
     @Test
