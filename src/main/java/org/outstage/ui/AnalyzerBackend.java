@@ -37,6 +37,7 @@ final class AnalyzerBackend implements Backend {
         CaptureOptions o = CaptureOptions.none();
         if (calibration.fullScaleVolts().isPresent()) o = o.withFullScaleVolts(calibration.fullScaleVolts().getAsDouble());
         if (calibration.probeRatio().isPresent()) o = o.withProbeFactor(calibration.probeRatio().getAsDouble());
+        if (calibration.sampleRateHz().isPresent()) o = o.withSampleRateHz(calibration.sampleRateHz().getAsDouble());
         return CaptureReader.open(file, o);
     }
 
@@ -142,10 +143,26 @@ final class AnalyzerBackend implements Backend {
                     d.crossover().explanation()));
             rows.add(new FigureRow("gainAtZeroValue", "Gain at zero (rel.)", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
                     "± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
+            rows.add(clippingRow(d.clipping(), u));
         } else if (m.stage() instanceof StageDiagnosis.NotMeasured n) {
             rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", n.reason()));
+            rows.add(new FigureRow("clippingValue", "Clipping", "not measured", "", n.reason()));
         }
         return rows;
+    }
+
+    /** The clipping row: both clip levels (flat tops), the asymmetry and which side clips first, as measured. */
+    static FigureRow clippingRow(org.outstage.analysis.stage.ClippingMetrics c, String unit) {
+        if (!c.detected())
+            return new FigureRow("clippingValue", "Clipping", "none", "", "no flat top on either side (tolerance "
+                    + num(c.toleranceVolts()) + " " + unit + ")");
+        String pos = c.positive().map(p -> "+" + num(p.levelVolts())).orElse("none");
+        String neg = c.negative().map(p -> num(p.levelVolts()).replace("-", "−")).orElse("none");
+        List<String> note = new ArrayList<>();
+        note.add(c.asymmetryPercent().isPresent() ? "asymmetry " + num(c.asymmetryPercent().getAsDouble()) + " %" : "one side only");
+        note.add("first: " + c.clipsFirst().label());
+        c.positive().or(c::negative).ifPresent(p -> note.add(p.knee() == org.outstage.analysis.stage.ClipSide.Knee.HARD ? "hard flat top" : "soft knee"));
+        return new FigureRow("clippingValue", "Clipping", pos + " / " + neg, unit, String.join("; ", note));
     }
 
     static String num(double v) { return Double.isFinite(v) ? Ticks.withUnit(v, "").trim() : "—"; }

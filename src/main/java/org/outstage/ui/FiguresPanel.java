@@ -36,10 +36,28 @@ final class FiguresPanel {
         this.status = status;
         figuresTable.setId("figuresTable");
         figuresTable.setColumnResizePolicy(TableView.CONSTRAINED_RESIZE_POLICY);
-        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 125));
-        figuresTable.getColumns().add(column("Value", FigureRow::value, 85));
-        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 38));
-        figuresTable.getColumns().add(column("Note", FigureRow::note, 170));
+        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 112));
+        figuresTable.getColumns().add(column("Value", FigureRow::value, 78));
+        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 34));
+        TableColumn<FigureRow, String> note = column("Note", FigureRow::note, 200);
+        // the note (a diagnosis can be two sentences) wraps inside its cell; the row grows to hold it
+        note.setCellFactory(c -> new javafx.scene.control.TableCell<>() {
+            private final javafx.scene.text.Text text = new javafx.scene.text.Text();
+            {
+                text.wrappingWidthProperty().bind(note.widthProperty().subtract(10));
+                text.getStyleClass().add("note-text");
+                setPrefHeight(javafx.scene.control.Control.USE_COMPUTED_SIZE);
+            }
+
+            @Override protected void updateItem(String item, boolean empty) {
+                super.updateItem(item, empty);
+                setText(null);
+                text.setText(empty || item == null ? "" : item);
+                setGraphic(empty ? null : text);
+                setTooltip(empty || item == null || item.isEmpty() ? null : new Tooltip(item));
+            }
+        });
+        figuresTable.getColumns().add(note);
         figuresTable.getSelectionModel().setSelectionMode(SelectionMode.MULTIPLE);
         figuresTable.setOnKeyPressed(e -> {
             if (new KeyCodeCombination(KeyCode.C, KeyCombination.SHORTCUT_DOWN).match(e)) copy();
