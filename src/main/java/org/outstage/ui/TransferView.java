@@ -18,8 +18,11 @@ final class TransferView implements WorkbenchView {
 
     TransferView(TransferPanel panel) {
         this.panel = panel;
+        // chart above, model sheet below: side by side, between the capture list and the figures, the chart
+        // was left a few hundred pixels and its x axis a single tick
         SplitPane tr = new SplitPane(transferChart, panel.node());
-        tr.setDividerPositions(0.55);
+        tr.setOrientation(javafx.geometry.Orientation.VERTICAL);
+        tr.setDividerPositions(0.6);
         tab = WorkbenchView.tab("transferTab", "Transfer and model", tr);
         panel.setOnChange(this::refresh);
     }
