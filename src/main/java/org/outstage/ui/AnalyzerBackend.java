@@ -141,9 +141,9 @@ final class AnalyzerBackend implements Backend {
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
                     d.crossover().explanation()));
-            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero (rel.)", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
-                    "± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
-            rows.add(clippingRow(d.clipping(), u));
+            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
+                    "relative; ± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
+            rows.addAll(clippingRows(d.clipping(), u));
         } else if (m.stage() instanceof StageDiagnosis.NotMeasured n) {
             rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", n.reason()));
             rows.add(new FigureRow("clippingValue", "Clipping", "not measured", "", n.reason()));
@@ -151,18 +151,26 @@ final class AnalyzerBackend implements Backend {
         return rows;
     }
 
-    /** The clipping row: both clip levels (flat tops), the asymmetry and which side clips first, as measured. */
-    static FigureRow clippingRow(org.outstage.analysis.stage.ClippingMetrics c, String unit) {
+    /**
+     * The clipping rows: each clip level (flat top) with its shape, and the asymmetry with the side that clips
+     * first, as measured; one row "none" when neither side clips.
+     */
+    static List<FigureRow> clippingRows(org.outstage.analysis.stage.ClippingMetrics c, String unit) {
         if (!c.detected())
-            return new FigureRow("clippingValue", "Clipping", "none", "", "no flat top on either side (tolerance "
-                    + num(c.toleranceVolts()) + " " + unit + ")");
-        String pos = c.positive().map(p -> "+" + num(p.levelVolts())).orElse("none");
-        String neg = c.negative().map(p -> num(p.levelVolts()).replace("-", "−")).orElse("none");
-        List<String> note = new ArrayList<>();
-        note.add(c.asymmetryPercent().isPresent() ? "asymmetry " + num(c.asymmetryPercent().getAsDouble()) + " %" : "one side only");
-        note.add("first: " + c.clipsFirst().label());
-        c.positive().or(c::negative).ifPresent(p -> note.add(p.knee() == org.outstage.analysis.stage.ClipSide.Knee.HARD ? "hard flat top" : "soft knee"));
-        return new FigureRow("clippingValue", "Clipping", pos + " / " + neg, unit, String.join("; ", note));
+            return List.of(new FigureRow("clippingValue", "Clipping", "none", "", "no flat top on either side (tolerance "
+                    + num(c.toleranceVolts()) + " " + unit + ")"));
+        List<FigureRow> rows = new ArrayList<>();
+        c.positive().ifPresent(p -> rows.add(new FigureRow("clipPositiveValue", "Clip level +", num(p.levelVolts()), unit, knee(p))));
+        c.negative().ifPresent(p -> rows.add(new FigureRow("clipNegativeValue", "Clip level −", num(p.levelVolts()), unit, knee(p))));
+        rows.add(new FigureRow("clippingValue", "Clip asymmetry", c.asymmetryPercent().isPresent() ? num(c.asymmetryPercent().getAsDouble()) : "—",
+                c.asymmetryPercent().isPresent() ? "%" : "", (c.asymmetryPercent().isPresent() ? "" : "one side only; ")
+                + "clips first: " + c.clipsFirst().label()));
+        return rows;
+    }
+
+    private static String knee(org.outstage.analysis.stage.ClipSide s) {
+        return (s.knee() == org.outstage.analysis.stage.ClipSide.Knee.HARD ? "hard flat top" : "soft knee") + ", "
+                + pct(100 * s.fractionOfCycle()) + " % of the cycle";
     }
 
     static String num(double v) { return Double.isFinite(v) ? Ticks.withUnit(v, "").trim() : "—"; }

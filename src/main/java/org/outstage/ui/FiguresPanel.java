@@ -36,10 +36,10 @@ final class FiguresPanel {
         this.status = status;
         figuresTable.setId("figuresTable");
         figuresTable.setColumnResizePolicy(TableView.CONSTRAINED_RESIZE_POLICY);
-        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 112));
-        figuresTable.getColumns().add(column("Value", FigureRow::value, 78));
-        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 34));
-        TableColumn<FigureRow, String> note = column("Note", FigureRow::note, 200);
+        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 120));
+        figuresTable.getColumns().add(column("Value", FigureRow::value, 86));
+        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 42));
+        TableColumn<FigureRow, String> note = column("Note", FigureRow::note, 194);
         // the note (a diagnosis can be two sentences) wraps inside its cell; the row grows to hold it
         note.setCellFactory(c -> new javafx.scene.control.TableCell<>() {
             private final javafx.scene.text.Text text = new javafx.scene.text.Text();

@@ -285,7 +285,7 @@ final class WorkbenchPane extends BorderPane {
 
         VBox side = new VBox(6, sp, new Label("Figures of the selected capture"), summary, figuresTable, figures.copyButton);
         side.setPadding(new Insets(6));
-        side.setPrefWidth(440);
+        side.setPrefWidth(470);
         return side;
     }
 
@@ -373,7 +373,7 @@ final class WorkbenchPane extends BorderPane {
                         }
                     });
                     Optional<BenchManifest.Entry> notes = man.flatMap(m -> m.firstPatternFor(file).map(x -> m.entryFor(file)));
-                    String source = notes.isPresent() ? folder.resolve(BenchManifest.FILE_NAME).toString() : "";
+                    String source = notes.isPresent() ? BenchManifest.FILE_NAME + " in " + folder.getFileName() : "";
                     Calibration cal = notes.map(Calibration::of).orElse(en.calibration);
                     try {
                         out.add(new Opened(backend.open(en.path.get(), cal), notes, source));

@@ -83,14 +83,16 @@ public final class ScreenshotTool {
                 {"transferTab", "transfer-model.png"}, {"sweepTab", "level-sweep.png"}};
         for (String[] s : shots) {
             if (s[0].equals("sweepTab")) {
-                // the level sweep over the level series only (the bias and X-Y captures are other experiments)
+                // with the sample session, one level capture selected: the sweep is the series the notes name "level";
+                // generated captures have no notes, so they are selected together
                 fx(() -> {
                     var items = pane.captureList.getItems();
                     pane.captureList.getSelectionModel().clearSelection();
                     int focus = -1;
                     for (int i = 0; i < items.size(); i++)
-                        if (items.get(i).name.contains("-level-") || items.get(i).name.startsWith("demo-amp")) { pane.captureList.getSelectionModel().select(i); if (focus < 0) focus = i; }
+                        if (items.get(i).name.contains("-level-040W")) focus = i;
                     if (focus >= 0) pane.captureList.getSelectionModel().select(focus);
+                    else for (int i = 0; i < items.size(); i++) if (items.get(i).name.startsWith("demo-amp")) pane.captureList.getSelectionModel().select(i);
                     return null;
                 });
                 waitIdle(pane);
@@ -102,8 +104,37 @@ public final class ScreenshotTool {
             });
             waitIdle(pane);
             Thread.sleep(600);
+            if (s[0].equals("sweepTab")) fx(() -> { pointAt(pane.sweepChart, 0.8, 0.25); return null; });   // the readout, clear of the title
             save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve(s[1]));
         }
+        // the clipping capture: its figures (clip levels and asymmetry) and the wrapped notes
+        fx(() -> {
+            var items = pane.captureList.getItems();
+            for (int i = 0; i < items.size(); i++) if (items.get(i).name.contains("clipping")) pane.captureList.getSelectionModel().clearAndSelect(i);
+            pane.views.getSelectionModel().select(0);
+            return null;
+        });
+        waitIdle(pane);
+        fx(() -> { pane.figuresTable.getItems().stream().filter(r -> r.id().equals("crossoverValue")).findFirst().ifPresent(pane.figuresTable::scrollTo); return null; });
+        Thread.sleep(600);
+        save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve("figures-clipping.png"));
+        fx(() -> { pane.captureList.getSelectionModel().clearAndSelect(pickShowcase(pane)); return null; });
+        waitIdle(pane);
+        // the model sheet: another topology keeps the edited Vq; a value that is not a number says why
+        fx(() -> {
+            pane.views.getSelectionModel().select(pane.transferView.tab());
+            if (pane.transferPanel.topologyChoice.getItems().contains("cfp")) pane.transferPanel.topologyChoice.setValue("cfp");
+            return null;
+        });
+        waitIdle(pane);
+        Thread.sleep(400);
+        fx(() -> {
+            var field = pane.transferPanel.sheet.lookupAll(".text-field").stream().skip(1).findFirst();
+            field.ifPresent(f -> ((javafx.scene.control.TextField) f).setText("0,22Ω"));
+            return null;
+        });
+        Thread.sleep(400);
+        save(fx(() -> pane.views.snapshot(null, null)), out.resolve("model-entry.png"));
         VBox cautions = fx(() -> {
             Label head = new Label(Cautions.TITLE);
             head.setStyle("-fx-font-size: 16px; -fx-font-weight: bold;");
@@ -153,6 +184,15 @@ public final class ScreenshotTool {
             }
             return Capture.inMemory(String.format(java.util.Locale.ROOT, "demo-amp-1kHz-%02.0fVpk.wav", peak), fs, SampleUnit.VOLTS, x);
         }).toList();
+    }
+
+    /** Moves the pointer (a synthetic mouse-moved event) to a fraction of the chart's width and height. */
+    private static void pointAt(ChartCanvas c, double fx, double fy) {
+        double x = c.getWidth() * fx, y = c.getHeight() * fy;
+        javafx.scene.Node target = c.getChildrenUnmodifiable().get(0);
+        javafx.event.Event.fireEvent(target, new javafx.scene.input.MouseEvent(javafx.scene.input.MouseEvent.MOUSE_MOVED, x, y, x, y,
+                javafx.scene.input.MouseButton.NONE, 0, false, false, false, false, false, false, false, false, false, false, null));
+        c.requestLayout();
     }
 
     private static void waitIdle(WorkbenchPane pane) throws Exception {
