@@ -84,7 +84,6 @@ class ArchitectureTest {
                 .should().dependOnClassesThat().resideInAnyPackage("org.outstage.analysis..", "org.outstage.model..", "org.outstage.live..",
                         "org.outstage.cli..", "org.outstage.ui..", "org.outstage.report..", "org.outstage.logbook..", "org.outstage.verify..",
                         "org.outstage.plot..", "picocli..")
-                .allowEmptyShould(true) // TEMPORARY until the audio package lands on this branch
                 .check(MAIN);
     }
 
@@ -93,7 +92,6 @@ class ArchitectureTest {
         noClasses().that().resideInAPackage("org.outstage.live..")
                 .should().dependOnClassesThat().resideInAnyPackage("org.outstage.cli..", "org.outstage.ui..", "org.outstage.report..",
                         "org.outstage.logbook..", "picocli..", "java.sql..")
-                .allowEmptyShould(true) // TEMPORARY until the live package lands on this branch
                 .check(MAIN);
     }
 
