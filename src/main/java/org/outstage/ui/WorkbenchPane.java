@@ -83,6 +83,7 @@ final class WorkbenchPane extends BorderPane {
     final HarmonicsView harmonicsView = new HarmonicsView();
     final TransferView transferView;
     final LevelSweepView sweepView = new LevelSweepView();
+    final LiveView liveView;
     final ChartCanvas waveformChart = waveformView.waveformChart;
     final ChartCanvas residualChart = waveformView.residualChart;
     final ChartCanvas spectrumChart = spectrumView.spectrumChart;
@@ -103,7 +104,21 @@ final class WorkbenchPane extends BorderPane {
     private boolean updatingControls;
 
     WorkbenchPane(Backend backend, TransferPanel transferPanel) {
+        this(backend, transferPanel, LiveSource.soundcard());
+    }
+
+    WorkbenchPane(Backend backend, TransferPanel transferPanel, LiveSource live) {
         this.backend = backend;
+        org.outstage.live.UserSettings user = org.outstage.live.UserSettings.standard();
+        this.liveView = new LiveView(live, user::cautionsDismissed, () -> {
+            try { user.dismissCautions(); } catch (IOException | RuntimeException e) { /* shown again next time */ }
+        });
+        // playback stops when the window closes
+        sceneProperty().addListener((o, a, sc) -> {
+            if (sc != null) sc.windowProperty().addListener((o2, w0, w) -> {
+                if (w != null) w.addEventHandler(javafx.stage.WindowEvent.WINDOW_HIDING, e -> liveView.stop());
+            });
+        });
         this.transferPanel = transferPanel;
         this.transferView = new TransferView(transferPanel);
         this.transferChart = transferView.transferChart;
@@ -225,7 +240,10 @@ final class WorkbenchPane extends BorderPane {
     }
 
     /** The views in tab order. */
-    List<WorkbenchView> allViews() { return List.of(waveformView, spectrumView, harmonicsView, transferView, sweepView); }
+    List<WorkbenchView> allViews() { return List.of(waveformView, spectrumView, harmonicsView, transferView, sweepView, liveView); }
+
+    /** Stops anything live (the window is closing or the application stops). */
+    void shutdown() { liveView.stop(); }
 
     private Node viewTabs() {
         views.setId("views");
