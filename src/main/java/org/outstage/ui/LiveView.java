@@ -1,6 +1,5 @@
 package org.outstage.ui;
 
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -16,20 +15,16 @@ import javafx.scene.control.Button;
 import javafx.scene.control.CheckBox;
 import javafx.scene.control.ComboBox;
 import javafx.scene.control.Label;
-import javafx.scene.control.ScrollPane;
 import javafx.scene.control.SplitPane;
 import javafx.scene.control.Tab;
 import javafx.scene.control.TextField;
 import javafx.scene.layout.BorderPane;
 import javafx.scene.layout.FlowPane;
-import javafx.scene.layout.GridPane;
 import javafx.scene.layout.HBox;
 import javafx.scene.layout.VBox;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.stage.StageDiagnosis;
-import org.outstage.capture.Capture;
-import org.outstage.capture.WavWriter;
 import org.outstage.live.LiveCautions;
 import org.outstage.live.LiveListener;
 import org.outstage.live.LiveResult;
@@ -138,14 +133,12 @@ final class LiveView implements WorkbenchView {
         status.setWrapText(true);
         figures.setId("liveFigures");
 
-        GridPane g = new GridPane();
-        g.setHgap(6);
-        g.setVgap(5);
-        g.addRow(0, new Label("Input"), deviceChoice, new Label("Signal"), signalChoice, new Label("Level (dBFS)"), levelField,
-                new HBox(6, startButton, stopButton, levelButton));
-        g.addRow(1, new Label("Full scale (V)"), fullScaleField, new Label("Load (Ω)"), loadField, new Label("Meter reads"), meterField,
-                meterButton);
-        g.addRow(2, new Label("Bias reading"), biasField, new Label("Unit"), biasUnit, new Label("Session"), sessionField, logButton);
+        deviceChoice.setPrefWidth(260);
+        FlowPane g = new FlowPane(14, 6,
+                group("Input", deviceChoice), group("Signal", signalChoice), group("Level (dBFS)", levelField),
+                group(null, startButton, stopButton, levelButton),
+                group("Full scale (V)", fullScaleField), group("Load (Ω)", loadField), group("Meter reads (V rms)", meterField, meterButton),
+                group("Bias reading", biasField, biasUnit), group("Session", sessionField, logButton));
 
         Label head = new Label("Before the first live start");
         head.setStyle("-fx-font-weight: bold;");
@@ -185,6 +178,16 @@ final class LiveView implements WorkbenchView {
         drawStrip();
     }
 
+    /** A label and its controls, kept together when the row wraps; nothing shrinks below its text. */
+    private static HBox group(String label, javafx.scene.control.Control... controls) {
+        HBox h = new HBox(5);
+        h.setAlignment(Pos.CENTER_LEFT);
+        if (label != null) h.getChildren().add(new Label(label));
+        h.getChildren().addAll(controls);
+        for (javafx.scene.Node n : h.getChildren()) if (n instanceof javafx.scene.control.Control c) c.setMinWidth(javafx.scene.control.Control.USE_PREF_SIZE);
+        return h;
+    }
+
     @Override public Tab tab() { return tab; }
     @Override public List<ChartCanvas> charts() { return List.of(gainChart, thdChart); }
     @Override public void clear(String message) { /* live does not follow the selected capture */ }
@@ -195,6 +198,8 @@ final class LiveView implements WorkbenchView {
         deviceChoice.getItems().setAll(d);
         if (!d.isEmpty()) deviceChoice.setValue(d.get(0));
         deviceMessage.setText(d.isEmpty() ? source.noDeviceReason() : "");
+        deviceMessage.setManaged(d.isEmpty());
+        deviceMessage.setVisible(d.isEmpty());
         deviceMessage.setStyle(d.isEmpty() ? "-fx-text-fill: #a0281e; -fx-font-weight: bold;" : "");
         startButton.setDisable(d.isEmpty() || running != null);
     }
@@ -364,11 +369,12 @@ final class LiveView implements WorkbenchView {
             thdChart.setMessage("THD against time appears here while live runs.");
             return;
         }
+        // gain at zero in % of the large-signal gain (a ratio shown as percent at the edge), THD on a log scale
         double[] t = new double[n], g = new double[n], d = new double[n];
-        for (int i = 0; i < n; i++) { t[i] = history.get(i)[0]; g[i] = history.get(i)[1]; d[i] = history.get(i)[2]; }
-        gainChart.setSpec(ChartSpec.of("Gain at zero against time", Axis.linear("Time", "s"), Axis.linear("Gain at zero", ""),
+        for (int i = 0; i < n; i++) { t[i] = history.get(i)[0]; g[i] = 100 * history.get(i)[1]; d[i] = history.get(i)[2]; }
+        gainChart.setSpec(ChartSpec.of("Gain at zero against time", Axis.linear("Time", "s"), Axis.linear("Gain at zero", "%"),
                 List.of(new Series("gain at zero", t, g, Series.Style.LINE, Series.Role.MEASURED))));
-        thdChart.setSpec(ChartSpec.of("THD against time", Axis.linear("Time", "s"), Axis.linear("THD", "%"),
+        thdChart.setSpec(ChartSpec.of("THD against time", Axis.linear("Time", "s"), Axis.log("THD", "%"),
                 List.of(new Series("THD", t, d, Series.Style.LINE, Series.Role.MEASURED_ALT))));
     }
 

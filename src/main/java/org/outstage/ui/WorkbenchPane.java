@@ -99,6 +99,7 @@ final class WorkbenchPane extends BorderPane {
     final Button cancelButton = new Button("Cancel");
     final TransferPanel transferPanel;
     private ChartCanvas currentChart = waveformChart;
+    private Node leftSide, rightSide;
     private Task<?> running;
     private UiSettings settings = UiSettings.DEFAULT;
     private boolean updatingControls;
@@ -253,6 +254,12 @@ final class WorkbenchPane extends BorderPane {
             for (ChartCanvas c : v.charts()) c.addEventFilter(javafx.scene.input.MouseEvent.MOUSE_PRESSED, e -> currentChart = c);
         }
         views.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> currentChart = primaryChart(b));
+        // the Live view is its own task: it takes the whole width (the capture list and figures return with the other views)
+        views.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> {
+            boolean live = b != null && "liveTab".equals(b.getId());
+            if (live && getLeft() != null) { leftSide = getLeft(); rightSide = getRight(); setLeft(null); setRight(null); }
+            else if (!live && getLeft() == null && leftSide != null) { setLeft(leftSide); setRight(rightSide); }
+        });
         return views;
     }
 

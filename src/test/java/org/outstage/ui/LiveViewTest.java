@@ -120,7 +120,7 @@ class LiveViewTest {
         // the strip chart: one point per block, the last one the last block's gain at zero
         var series = v.gainChart.spec().orElseThrow().series().get(0);
         assertEquals(v.blocks(), series.size());
-        assertEquals(d.crossover().gainAtZero(), series.yAt(series.size() - 1), 0.0);
+        assertEquals(100 * d.crossover().gainAtZero(), series.yAt(series.size() - 1), 1e-12);   // in % of the large-signal gain
         assertEquals(r.timeSeconds(), series.x()[series.size() - 1], 0.0);
         assertEquals(m.thd().percent(), v.thdChart.spec().orElseThrow().series().get(0).yAt(series.size() - 1), 0.0);
         // a second start in the same run: no cautions again

@@ -135,6 +135,27 @@ public final class ScreenshotTool {
         });
         Thread.sleep(400);
         save(fx(() -> pane.views.snapshot(null, null)), out.resolve("model-entry.png"));
+        // the Live view, fed by a synthetic block series (SyntheticLiveSource: an invented stage whose bias trimmer
+        // turns up over 30 s of input) through the same listener as a LiveSession: no sound device here
+        SyntheticLiveSource synthetic = new SyntheticLiveSource(5, 30, 80);
+        LiveView live = fx(() -> {
+            LiveView v = new LiveView(synthetic, () -> true, () -> {});
+            int i = pane.views.getTabs().indexOf(pane.liveView.tab());
+            pane.views.getTabs().set(i, v.tab());
+            pane.views.getSelectionModel().select(v.tab());
+            v.fullScaleField.setText("40");
+            v.loadField.setText("8");
+            v.levelField.setText("-20");
+            v.biasField.setText("14.5");
+            v.sessionField.setText("3");
+            v.requestStart();
+            return v;
+        });
+        long liveUntil = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
+        while (System.nanoTime() < liveUntil && fx(() -> live.blocks() < 80)) Thread.sleep(200);
+        Thread.sleep(600);
+        save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve("live.png"));
+        fx(() -> { live.stop(); return null; });
         VBox cautions = fx(() -> {
             Label head = new Label(Cautions.TITLE);
             head.setStyle("-fx-font-size: 16px; -fx-font-weight: bold;");
