@@ -84,6 +84,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (Measuring.FileResult r : good) {
                 for (String w : r.capture().warnings()) err.println("outstage: warning: " + r.file() + ": " + w);
                 for (Measurement m : r.measurements()) out.print(FigureTable.text(r.file(), m));
+                r.generatorChannel().ifPresent(g -> out.println(FigureTable.generatorLine(r.file(), g)));
             }
         }
         out.flush();

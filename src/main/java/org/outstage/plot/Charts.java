@@ -186,13 +186,33 @@ public final class Charts {
      * line. Ratios are given as fractions and shown in percent.
      */
     public static ChartSpec levelSweep(String title, double[] powerWatts, double[] thd, double[] thdN, double limitFraction) {
-        Require.that(powerWatts.length == thd.length && thd.length == thdN.length, "sweep arrays differ in length");
-        double[] a = new double[thd.length], b = new double[thdN.length];
-        for (int i = 0; i < a.length; i++) { a[i] = thd[i] * 100; b[i] = thdN[i] * 100; }
+        return levelSweeps(title, List.of(new SweepLine("", powerWatts, thd, thdN)), limitFraction);
+    }
+
+    /** One named level series for {@link #levelSweeps}: power (W), THD and THD+N (fractions), sorted by power. */
+    public record SweepLine(String name, double[] powerWatts, double[] thd, double[] thdN) {}
+
+    /**
+     * THD and THD+N against output power for several NAMED series, each its own pair of lines (never joined), with
+     * a point marker at each capture (a {@link Series.Style#POINTS} twin of each line, after all the lines) and the THD limit as a line.
+     * With one series the names are plain "THD" / "THD+N"; with several, "NAME: THD".
+     */
+    public static ChartSpec levelSweeps(String title, List<SweepLine> lines, double limitFraction) {
+        Require.that(!lines.isEmpty(), "a level-sweep chart needs at least one series");
+        List<Series> series = new java.util.ArrayList<>(), markers = new java.util.ArrayList<>();
+        for (SweepLine l : lines) {
+            Require.that(l.powerWatts().length == l.thd().length && l.thd().length == l.thdN().length, "sweep arrays differ in length");
+            double[] a = new double[l.thd().length], b = new double[l.thdN().length];
+            for (int i = 0; i < a.length; i++) { a[i] = l.thd()[i] * 100; b[i] = l.thdN()[i] * 100; }
+            String prefix = lines.size() == 1 ? "" : l.name() + ": ";
+            series.add(new Series(prefix + "THD", l.powerWatts(), a, Series.Style.LINE, Series.Role.MEASURED));
+            series.add(new Series(prefix + "THD+N", l.powerWatts(), b, Series.Style.LINE, Series.Role.MEASURED_ALT));
+            markers.add(new Series(prefix + "THD (captures)", l.powerWatts(), a, Series.Style.POINTS, Series.Role.MEASURED));
+            markers.add(new Series(prefix + "THD+N (captures)", l.powerWatts(), b, Series.Style.POINTS, Series.Role.MEASURED_ALT));
+        }
+        series.addAll(markers);
         String lim = Ticks.withUnit(limitFraction * 100, "%").replaceAll("\\.?0+ %", " %");
-        return new ChartSpec(title, Axis.log("Output power", "W"), Axis.log("Distortion", "%"),
-                List.of(new Series("THD", powerWatts, a, Series.Style.LINE, Series.Role.MEASURED),
-                        new Series("THD+N", powerWatts, b, Series.Style.LINE, Series.Role.MEASURED_ALT)),
+        return new ChartSpec(title, Axis.log("Output power", "W"), Axis.log("Distortion", "%"), series,
                 List.of(), List.of(), List.of(new HorizontalLine(limitFraction * 100, lim + " limit", Series.Role.LIMIT)));
     }
 }

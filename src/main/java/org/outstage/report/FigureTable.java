@@ -12,6 +12,12 @@ public final class FigureTable {
     private FigureTable() {}
 
     /** A block of lines for one analysed channel. */
+    /** The line that shows a capture's generator channel as the reference (no power, no verdict: it is not an output). */
+    public static String generatorLine(String file, int channel) {
+        return String.format(Locale.ROOT, "%s  channel %d  generator (reference): the X-Y input of the other channels; no power, no verdict%n",
+                file, channel);
+    }
+
     public static String text(String file, Measurement m) {
         StringBuilder sb = new StringBuilder();
         String u = m.unit();
