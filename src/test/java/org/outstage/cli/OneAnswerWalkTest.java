@@ -118,4 +118,32 @@ class OneAnswerWalkTest {
         assertTrue(b.find(), bench.out());
         assertEquals(m.group(1), b.group(1), "bench's named series and sweep give one answer");
     }
+
+    /**
+     * Figures no audio amplifier bench can produce are flagged, with the limits of {@link org.outstage.analysis.Plausibility}
+     * (300 V rms, 20 kW: common practice, from memory, the largest audio amplifiers give some 10 kW, i.e. 283 V rms
+     * into 8 Ω). A 70 W capture read with --fs-volts 4000 instead of 40 reads 100 × 23.3 V ≈ 2330 V rms; --load
+     * without a calibration says why there is no power; the 4-cycle scope export gets no crossover figures.
+     */
+    @Test
+    void finding10_implausibleFiguresAreFlagged() {
+        CliRun big = CliRun.of("analyze", "--fs-volts", "4000", "--load", "8", SAMPLES.resolve("da60-level-070W.wav").toString());
+        assertEquals(0, big.exit(), big.err());
+        assertTrue(big.err().contains("V rms is beyond any audio amplifier (above 300 V rms)"), big.err());
+        assertTrue(big.err().contains("W is beyond any audio amplifier (above 20000 W)"), big.err());
+        CliRun sane = CliRun.of("analyze", "--fs-volts", "40", "--load", "8", SAMPLES.resolve("da60-level-070W.wav").toString());
+        assertFalse(sane.err().contains("beyond any audio amplifier"), sane.err());
+
+        CliRun uncal = CliRun.of("analyze", "--load", "8", SAMPLES.resolve("da60-level-001W.wav").toString());
+        assertEquals(0, uncal.exit(), uncal.err());
+        assertFalse(uncal.out().contains("  power "), uncal.out());
+        assertTrue(uncal.err().contains("no output power although a 8 ohm load was given: the capture is in FS"), uncal.err());
+
+        // 4000 points at 1 µs of a 997 Hz tone: 3.988 cycles
+        CliRun scope = CliRun.of("analyze", "--load", "8", SAMPLES.resolve("da60-scope-70W-clipping.csv").toString());
+        assertEquals(0, scope.exit(), scope.err());
+        assertTrue(scope.out().contains("crossover     not given: the record spans 4.0 cycles; at least 10 are needed"), scope.out());
+        assertFalse(scope.out().contains("notch width"), scope.out());
+        assertTrue(scope.out().indexOf("  clipping ") < scope.out().indexOf("  crossover "), "clipping is said first:\n" + scope.out());
+    }
 }
