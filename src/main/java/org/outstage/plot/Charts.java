@@ -121,13 +121,27 @@ public final class Charts {
      * (odd tail = crossover, even = asymmetry) is plain to see. Levels in dB re fundamental (dBc).
      */
     public static ChartSpec harmonicProfile(String title, int[] orders, double[] levelDbc) {
-        Require.that(orders.length == levelDbc.length, "orders and levels differ in length");
+        boolean[] all = new boolean[orders.length];
+        java.util.Arrays.fill(all, true);
+        return harmonicProfile(title, orders, levelDbc, all);
+    }
+
+    /**
+     * As {@link #harmonicProfile(String, int[], double[])}, with the harmonics that do not stand above the noise in
+     * their bins ({@code resolved[i]} false: the CLI prints them "&lt;", an upper bound) drawn apart: not as bars but
+     * as points at their upper bound, in a series named "&lt; not above the noise (upper bound)".
+     */
+    public static ChartSpec harmonicProfile(String title, int[] orders, double[] levelDbc, boolean[] resolved) {
+        Require.that(orders.length == levelDbc.length && orders.length == resolved.length, "orders and levels differ in length");
+        List<double[]> below = new ArrayList<>();
+        for (int i = 0; i < orders.length; i++)
+            if (!resolved[i] && Double.isFinite(levelDbc[i])) below.add(new double[] {orders[i], levelDbc[i]});
         List<double[]> odd = new ArrayList<>(), even = new ArrayList<>();
         double lo = 0;
         int maxOrder = 2;
         for (int i = 0; i < orders.length; i++) {
             if (!Double.isFinite(levelDbc[i])) continue;
-            (orders[i] % 2 == 1 ? odd : even).add(new double[] {orders[i], levelDbc[i]});
+            if (resolved[i]) (orders[i] % 2 == 1 ? odd : even).add(new double[] {orders[i], levelDbc[i]});
             lo = Math.min(lo, levelDbc[i]);
             maxOrder = Math.max(maxOrder, orders[i]);
         }
@@ -138,6 +152,11 @@ public final class Charts {
         List<Series> s = new ArrayList<>();
         s.add(bars("odd harmonics", odd, Series.Role.MEASURED));
         s.add(bars("even harmonics", even, Series.Role.MEASURED_ALT));
+        if (!below.isEmpty()) {
+            double[] bx = new double[below.size()], by = new double[below.size()];
+            for (int i = 0; i < bx.length; i++) { bx[i] = below.get(i)[0]; by[i] = below.get(i)[1]; }
+            s.add(new Series("< not above the noise (upper bound)", bx, by, Series.Style.POINTS, Series.Role.RESIDUAL));
+        }
         return ChartSpec.of(title, Axis.linear("Harmonic order", "").withRange(1.4, maxOrder + 0.6),
                 Axis.db("Level", "dBc").withRange(bottom, Math.max(top, bottom + 10)), s);
     }

@@ -32,4 +32,23 @@ class ReportWalkTest {
         // time stamps: to the second, UTC, no fraction
         assertEquals("2026-12-04 09:26:02 UTC", HtmlReport.when(Instant.parse("2026-12-04T09:26:02.123456789Z")));
     }
+
+    @Test
+    void finding13_harmonicsBelowNoiseApartAndCrowdedMarkersKeepTheirLabel() {
+        // H3 resolved, H5 not above the noise: H5 is no bar, it is a point in its own "<" series
+        var c = Charts.harmonicProfile("h", new int[] {3, 5}, new double[] {-40, -110}, new boolean[] {true, false});
+        var below = c.series().stream().filter(s -> s.name().startsWith("<")).findFirst().orElseThrow();
+        assertEquals(Series.Style.POINTS, below.style());
+        assertEquals(5, below.xAt(0));
+        assertTrue(c.series().stream().filter(s -> s.style() == Series.Style.BARS)
+                .allMatch(s -> java.util.Arrays.stream(s.x()).noneMatch(x -> x == 5)), "H5 drawn as a bar");
+
+        // H8 and H9 of 997 Hz lie 11 px apart on a log axis at the same level: both keep their labels
+        double[] f = new double[2000], l = new double[2000];
+        for (int i = 0; i < f.length; i++) { f[i] = 20 + i * 12; l[i] = -120; }
+        var spec = Charts.spectrum("s", f, l, "dBV", Charts.harmonicMarkers(new int[] {8, 9}, new double[] {7976, 8973}, new double[] {-90, -90}),
+                java.util.Optional.empty(), java.util.OptionalDouble.empty());
+        String svg = SvgRenderer.render(spec, 760, 420);
+        assertTrue(svg.contains(">H8</text>") && svg.contains(">H9</text>"), "both harmonic labels");
+    }
 }
