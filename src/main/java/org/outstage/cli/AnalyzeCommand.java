@@ -12,6 +12,7 @@ import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import org.outstage.analysis.Analyzer;
 import org.outstage.analysis.Measurement;
+import org.outstage.analysis.Plausibility;
 import org.outstage.analysis.stage.Residual;
 import org.outstage.analysis.stage.StageAnalyzer;
 import org.outstage.analysis.stage.StageSettings;
@@ -83,7 +84,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
         } else {
             for (Measuring.FileResult r : good) {
                 for (String w : r.capture().warnings()) err.println("outstage: warning: " + r.file() + ": " + w);
+                for (Measurement m : r.measurements())
+                    for (String c : Plausibility.cautions(m, options.settings().loadOhms()))
+                        err.println("outstage: warning: " + r.file() + ", channel " + m.channel() + ": " + c);
                 for (Measurement m : r.measurements()) out.print(FigureTable.text(r.file(), m));
+                r.generatorChannel().ifPresent(g -> out.println(FigureTable.generatorLine(r.file(), g)));
             }
         }
         out.flush();

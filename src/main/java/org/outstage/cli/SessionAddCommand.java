@@ -28,7 +28,7 @@ import picocli.CommandLine.Parameters;
  * the raw input is kept in a temporary WAV file, which then goes through exactly the file path (measured, stored in the
  * logbook's content-addressed store, step committed) and is deleted.
  */
-@Command(name = "add", description = "Measure a capture (or --live SECONDS from the soundcard) and add it as a bias step; exits 0 only after the step is committed.")
+@Command(name = "add", mixinStandardHelpOptions = true, description = "Measure a capture (or --live SECONDS from the soundcard) and add it as a bias step; exits 0 only after the step is committed.")
 public final class SessionAddCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

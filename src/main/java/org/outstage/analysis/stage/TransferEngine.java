@@ -431,12 +431,13 @@ final class TransferEngine {
                 ? String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-signal gain", r, rSe)
                 : String.format(java.util.Locale.ROOT, "gain at zero %.4f ± %.1e of the large-current asymptote (%.4f of the outer-swing gain, which is still rising at this level)",
                         r, rSe, rDefined);
-        if (hyst.detected()) {
-            v = BiasVerdict.UNCLEAR; conf = 0;
-            why = "rising and falling halves of the transfer curve differ (memory): the curve is not static, " + rTxt;
-        } else if (outerClipped) {
+        if (outerClipped) { // clipping first: it explains a rising/falling difference near the top as well
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "clipping reaches into the outer swing used as the large-signal reference; lower the level, " + rTxt;
+        } else if (hyst.detected()) {
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = "rising and falling halves of the transfer curve differ (the output depends on the direction of travel, "
+                    + "e.g. charge storage or heating within the cycle): the curve is not static, " + rTxt;
         } else if (coarseStep > 0) {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = String.format(java.util.Locale.ROOT, "the capture's resolution (steps of %.4g) is too coarse for the crossover region: the gain there reads the steps, not the stage; use a finer capture (soundcard), ",
