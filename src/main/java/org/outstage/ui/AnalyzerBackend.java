@@ -14,7 +14,7 @@ import org.outstage.analysis.Band;
 import org.outstage.analysis.Levels;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.Weighting;
-import org.outstage.analysis.stage.LevelPoint;
+import org.outstage.analysis.stage.LevelSeries;
 import org.outstage.analysis.stage.Residual;
 import org.outstage.analysis.stage.StageAnalyzer;
 import org.outstage.analysis.stage.StageDiagnosis;
@@ -100,13 +100,10 @@ final class AnalyzerBackend implements Backend {
         Panel harmonics = MeasurementCharts.harmonicProfile(name, m).map(Panel::of)
                 .orElseGet(() -> Panel.message("No harmonics inside the band for this fundamental"));
         Optional<org.outstage.analysis.TransferCurve> curve = MeasurementCharts.measuredCurve(m);
-        Optional<ViewData.SweepPoint> sweep = Optional.empty();
-        if (m.powerWatts().isPresent() && m.thd().ratio() > 0 && m.thdN().ratio() > 0) {
-            Measurement.Power p = m.powerWatts().get();
-            sweep = Optional.of(new ViewData.SweepPoint(new LevelPoint(capture.name(), m.fundamental().frequencyHz(), p.loadOhms(),
-                    cal.fullScaleVolts().isPresent() ? "full scale " + cal.fullScaleVolts().getAsDouble() + " V" : "volts",
-                    cal.fullScaleVolts().orElse(0), p.totalWatts(), m.thd().ratio(), m.thdN().ratio())));
-        }
+        // the level point as sweep, bench and verify make it (LevelSeries.point: whole-output power, THD, THD+N)
+        String label = cal.fullScaleVolts().isPresent() ? "fs-volts" : cal.probeRatio().isPresent() ? "probe" : "volts";
+        Optional<ViewData.SweepPoint> sweep = LevelSeries.point(capture.name(), m, label, cal.fullScaleVolts().orElse(0))
+                .filter(p -> p.thdRatio() > 0 && p.thdNRatio() > 0).map(ViewData.SweepPoint::new);
         progress.accept(1);
         return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, spectrumRelative, harmonics, curve, sweep);
     }

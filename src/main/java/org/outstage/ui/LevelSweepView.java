@@ -15,7 +15,8 @@ import org.outstage.plot.Charts;
 /**
  * THD and THD+N against output power over one level series, with the power at 1 % THD from
  * {@link LevelSweep#analyze} (the function {@code sweep}, {@code bench} and {@code verify} use, fed the same
- * points: whole-output power V_rms²/R, THD and THD+N of each capture of the series).
+ * points: {@link org.outstage.analysis.stage.LevelSeries#point}, whole-output power V_rms²/R, THD and THD+N of the
+ * output channel of each capture of the series).
  *
  * <p>Which captures form the series: two or more captures selected in the list, taken as they are (the
  * analysis refuses a mixed selection); otherwise the named series of the calibration notes ({@code series=NAME}

@@ -437,7 +437,9 @@ final class WorkbenchPane extends BorderPane {
     /** Takes a capture's calibration, channel roles and series from its folder's notes. */
     private static void applyNotes(CaptureEntry en, BenchManifest.Entry notes, String source) {
         en.calibration = Calibration.of(notes);
-        en.reference = notes.referenceChannel().isPresent() ? OptionalInt.of(notes.referenceChannel().getAsInt() - 1) : OptionalInt.empty();
+        // the generator channel: reference=N or the generator in roles= (the notes' one answer, BenchManifest.Entry)
+        OptionalInt gen = notes.generatorChannel();
+        en.reference = gen.isPresent() ? OptionalInt.of(gen.getAsInt() - 1) : OptionalInt.empty();
         en.series = notes.series();
         en.notes = "Calibration from " + source;
     }

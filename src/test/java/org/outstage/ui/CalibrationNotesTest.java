@@ -176,6 +176,5 @@ class CalibrationNotesTest {
         assertEquals(cli, r.atOnePercent().powerWatts().orElseThrow(), 1e-9 * cli);
         String title = pane.sweepChart.spec().orElseThrow().title();
         assertEquals("THD and THD+N against output power — 1 % THD at " + AnalyzerBackend.num(cli) + " W", title);
-        assertTrue(title.contains("66.56"), title);
     }
 }
