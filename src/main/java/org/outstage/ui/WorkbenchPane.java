@@ -249,6 +249,11 @@ final class WorkbenchPane extends BorderPane {
     private Node viewTabs() {
         views.setId("views");
         views.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
+        // six tabs in the middle column: tighter tab headers, so all titles show without the overflow menu
+        views.getStylesheets().add("data:text/css," + java.net.URLEncoder.encode(
+                ".tab-pane > .tab-header-area .tab { -fx-padding: 2 5 2 5; } "
+                        + ".tab-pane > .tab-header-area .tab .tab-label { -fx-font-size: 12px; }", java.nio.charset.StandardCharsets.UTF_8)
+                .replace("+", "%20"));
         for (WorkbenchView v : allViews()) {
             views.getTabs().add(v.tab());
             for (ChartCanvas c : v.charts()) c.addEventFilter(javafx.scene.input.MouseEvent.MOUSE_PRESSED, e -> currentChart = c);
