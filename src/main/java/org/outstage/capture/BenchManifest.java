@@ -17,8 +17,9 @@ import java.util.OptionalInt;
  * A folder's calibration notes: which settings each capture in it needs. A plain text file of our own,
  * {@code bench.txt}, one rule a line: a file-name pattern (glob: {@code *}, {@code ?}, {@code [..]}) then
  * {@code key=value} settings. Keys: {@code fs-volts}, {@code probe}, {@code sample-rate}, {@code load},
- * {@code reference} (channel from 1), {@code channel} (from 1), {@code series} (a word: captures with the same
- * series name form one level series at rising drive). When several rules match a file, later rules
+ * {@code reference} (channel from 1: the generator), {@code roles} (one {@link ChannelRole} per channel from
+ * channel 1, comma-separated: {@code roles=generator,output} or {@code roles=left,right}), {@code channel} (from
+ * 1), {@code series} (a word: captures with the same series name form one level series at rising drive). When several rules match a file, later rules
  * override the keys they set. {@code #} starts a comment.
  *
  * <pre>
@@ -34,7 +35,23 @@ public final class BenchManifest {
 
     /** Settings of one capture, as the manifest gives them. */
     public record Entry(CaptureOptions captureOptions, OptionalDouble loadOhms, OptionalInt referenceChannel, OptionalInt channel,
-                        Optional<String> series) {}
+                        Optional<String> series, Optional<List<ChannelRole>> roles) {
+        /** An entry without explicit roles (the generator, if any, named by {@code referenceChannel}). */
+        public Entry(CaptureOptions captureOptions, OptionalDouble loadOhms, OptionalInt referenceChannel, OptionalInt channel,
+                     Optional<String> series) {
+            this(captureOptions, loadOhms, referenceChannel, channel, series, Optional.empty());
+        }
+
+        /** The generator channel (from 1): {@code reference=N}, or the generator in {@code roles}. */
+        public OptionalInt generatorChannel() {
+            return referenceChannel.isPresent() ? referenceChannel : roles.map(ChannelRole::generatorChannel).orElse(OptionalInt.empty());
+        }
+
+        /** The role of each channel of a capture with {@code channelCount} channels ({@link ChannelRole#assign}). */
+        public List<ChannelRole> roles(int channelCount) {
+            return ChannelRole.assign(channelCount, referenceChannel, roles);
+        }
+    }
 
     private record Rule(PathMatcher matcher, String pattern, List<String[]> settings) {}
 
@@ -73,10 +90,15 @@ public final class BenchManifest {
                 if (kv.length != 2 || kv[1].isEmpty())
                     throw CaptureFormatException.atLine(file, i + 1, 0, "\"" + parts[k] + "\" is not key=value");
                 String key = kv[0].toLowerCase(Locale.ROOT);
-                if (!List.of("fs-volts", "probe", "sample-rate", "load", "reference", "channel", "series").contains(key))
+                if (!List.of("fs-volts", "probe", "sample-rate", "load", "reference", "roles", "channel", "series").contains(key))
                     throw CaptureFormatException.atLine(file, i + 1, 0, "unknown key \"" + kv[0]
-                            + "\" (known: fs-volts, probe, sample-rate, load, reference, channel, series)");
-                if (!key.equals("series")) try {
+                            + "\" (known: fs-volts, probe, sample-rate, load, reference, roles, channel, series)");
+                if (key.equals("roles")) try {
+                    ChannelRole.parseList(kv[1]);
+                } catch (IllegalArgumentException e) {
+                    throw CaptureFormatException.atLine(file, i + 1, 0, "roles=" + kv[1] + ": " + e.getMessage());
+                }
+                else if (!key.equals("series")) try {
                     double v = Double.parseDouble(kv[1]);
                     if (!(v > 0) || !Double.isFinite(v)) throw new NumberFormatException();
                     if ((key.equals("reference") || key.equals("channel")) && v != Math.rint(v)) throw new NumberFormatException();
@@ -103,10 +125,12 @@ public final class BenchManifest {
         OptionalDouble fsVolts = OptionalDouble.empty(), probe = OptionalDouble.empty(), rate = OptionalDouble.empty(), load = OptionalDouble.empty();
         OptionalInt ref = OptionalInt.empty(), ch = OptionalInt.empty();
         Optional<String> series = Optional.empty();
+        Optional<List<ChannelRole>> roles = Optional.empty();
         for (Rule r : rules) {
             if (!r.matcher.matches(name)) continue;
             for (String[] kv : r.settings) {
                 if (kv[0].equals("series")) { series = Optional.of(kv[1]); continue; }
+                if (kv[0].equals("roles")) { roles = Optional.of(ChannelRole.parseList(kv[1])); continue; }
                 double v = Double.parseDouble(kv[1]);
                 switch (kv[0]) {
                     case "fs-volts" -> fsVolts = OptionalDouble.of(v);
@@ -119,7 +143,7 @@ public final class BenchManifest {
                 }
             }
         }
-        return new Entry(new CaptureOptions(fsVolts, probe, rate), load, ref, ch, series);
+        return new Entry(new CaptureOptions(fsVolts, probe, rate), load, ref, ch, series, roles);
     }
 
     /** Whether any rule matches the file. */

@@ -12,6 +12,7 @@ import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import org.outstage.analysis.Analyzer;
 import org.outstage.analysis.Measurement;
+import org.outstage.analysis.Plausibility;
 import org.outstage.analysis.stage.Residual;
 import org.outstage.analysis.stage.StageAnalyzer;
 import org.outstage.analysis.stage.StageSettings;
@@ -70,8 +71,12 @@ public final class AnalyzeCommand implements Callable<Integer> {
             } else good.add(o.result);
         }
         // warnings about a file go to stderr in every mode, one line naming the file (with --json they are also in the JSON)
-        for (Measuring.FileResult r : good)
+        for (Measuring.FileResult r : good) {
             for (String w : r.capture().warnings()) err.println("outstage: warning: " + r.file() + ": " + w);
+            for (Measurement m : r.measurements())
+                for (String c : Plausibility.cautions(m, options.settings().loadOhms()))
+                    err.println("outstage: warning: " + r.file() + ", channel " + m.channel() + ": " + c);
+        }
         err.flush();
         if (residual != null) writeResidual(good);
         if (json) {
@@ -84,8 +89,10 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (Measuring.FileResult r : good)
                 for (Measurement m : r.measurements()) out.print(FigureTable.csvRow(r.file(), m));
         } else {
-            for (Measuring.FileResult r : good)
+            for (Measuring.FileResult r : good) {
                 for (Measurement m : r.measurements()) out.print(FigureTable.text(r.file(), m));
+                r.generatorChannel().ifPresent(g -> out.println(FigureTable.generatorLine(r.file(), g)));
+            }
         }
         out.flush();
         return bad > 0 ? OutstageCommand.EXIT_BAD_INPUT : OutstageCommand.EXIT_OK;

@@ -1,11 +1,17 @@
 package org.outstage.cli;
 
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.OptionalInt;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Band;
 import org.outstage.analysis.Weighting;
+import org.outstage.capture.BenchManifest;
+import org.outstage.capture.CaptureFormatException;
 import org.outstage.capture.CaptureOptions;
+import org.outstage.capture.ChannelRole;
 import picocli.CommandLine.Option;
 
 /**
@@ -45,8 +51,12 @@ public final class AnalyzeOptions {
     Double fundamental;
 
     @Option(names = "--reference", paramLabel = "N",
-            description = "Channel (from 1) that carries the generator signal: gives the X-Y transfer curve of the other channels.")
+            description = "Channel (from 1) that carries the generator signal: gives the X-Y transfer curve of the other channels; it gets no power and no verdict. Default: the bench.txt beside the capture (reference= or roles=).")
     Integer reference;
+
+    @Option(names = "--roles", paramLabel = "ROLE,...",
+            description = "Role of each channel from channel 1: output, generator, left or right (e.g. generator,output). Default: from --reference, else the bench.txt beside the capture, else every channel an output.")
+    String roles;
 
     /** The capture reader options. */
     public CaptureOptions captureOptions() {
@@ -74,14 +84,46 @@ public final class AnalyzeOptions {
         positive("--sample-rate", sampleRate);
         if (channel != null && channel < 1) throw new BadInputException("--channel: " + channel + " must be 1 or more");
         if (reference != null && reference < 1) throw new BadInputException("--reference: " + reference + " must be 1 or more");
+        Optional<List<ChannelRole>> r = explicitRoles();
+        if (reference != null && r.isPresent() && !r.map(ChannelRole::generatorChannel).get().equals(OptionalInt.of(reference)))
+            throw new BadInputException("--reference " + reference + " and --roles " + roles + " disagree about the generator channel");
         return new AnalysisSettings(band, w, harmonics, opt(fundamental), opt(load), OptionalInt.empty());
     }
 
     /** The chosen channel (1-based), if any. */
     public OptionalInt channel() { return channel == null ? OptionalInt.empty() : OptionalInt.of(channel); }
 
-    /** The reference channel (1-based), if any. */
-    public OptionalInt reference() { return reference == null ? OptionalInt.empty() : OptionalInt.of(reference); }
+    /** The reference channel (1-based) given on the command line ({@code --reference} or the generator in {@code --roles}), if any. */
+    public OptionalInt reference() {
+        if (reference != null) return OptionalInt.of(reference);
+        return explicitRoles().map(ChannelRole::generatorChannel).orElse(OptionalInt.empty());
+    }
+
+    /** The roles given with {@code --roles}, if any; a bad word is a {@link BadInputException}. */
+    public Optional<List<ChannelRole>> explicitRoles() {
+        if (roles == null) return Optional.empty();
+        try {
+            return Optional.of(ChannelRole.parseList(roles));
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException("--roles: " + e.getMessage());
+        }
+    }
+
+    /**
+     * The generator channel (1-based) of a capture file: from the options when they name one ({@code --reference},
+     * {@code --roles}), else from the calibration notes ({@code bench.txt}) in the file's folder, else none. The one
+     * place the command line decides a channel's role.
+     */
+    public OptionalInt generatorChannelFor(Path file) {
+        if (reference != null || roles != null) return reference();
+        Path folder = file.toAbsolutePath().getParent();
+        if (folder == null) return OptionalInt.empty();
+        try {
+            return BenchManifest.forFolder(folder).entryFor(file).generatorChannel();
+        } catch (CaptureFormatException e) {
+            throw new BadInputException(folder.resolve(e.getMessage()).toString());
+        }
+    }
 
     /** A short label of the calibration, used to refuse a level series that mixes calibrations. */
     public String calibrationLabel() {

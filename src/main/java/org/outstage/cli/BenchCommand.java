@@ -14,6 +14,7 @@ import java.util.stream.Stream;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.stage.LevelPoint;
+import org.outstage.analysis.stage.LevelSeries;
 import org.outstage.analysis.stage.LevelSweep;
 import org.outstage.analysis.stage.LevelSweepResult;
 import org.outstage.capture.BenchManifest;
@@ -83,7 +84,7 @@ public final class BenchCommand implements Callable<Integer> {
             try {
                 Capture c = CaptureReader.open(f, e.captureOptions());
                 AnalysisSettings s = e.loadOhms().isPresent() ? base.withLoadOhms(e.loadOhms().getAsDouble()) : base;
-                List<Measurement> ms = Measuring.measure(c, s, e.channel(), e.referenceChannel(), f.toString());
+                List<Measurement> ms = Measuring.measure(c, s, e.channel(), e.generatorChannel(), f.toString());
                 items.add(new Item(f, c, ms, e));
                 for (Measurement m : ms) o.print(FigureTable.text(f.toString(), m));
             } catch (CaptureFormatException ex) {
@@ -110,26 +111,13 @@ public final class BenchCommand implements Callable<Integer> {
         return failures.isEmpty() ? OutstageCommand.EXIT_OK : OutstageCommand.EXIT_BAD_INPUT;
     }
 
-    /** Level series named in the manifest ({@code series=NAME}), each with its power at 1 % and 10 % THD. */
+    /** Level series named in the manifest ({@code series=NAME}), each with its power at 1 % and 10 % THD ({@link LevelSeries}). */
     static Map<String, LevelSweepResult> sweeps(List<Item> items, PrintWriter err) {
-        Map<String, List<LevelPoint>> groups = new LinkedHashMap<>();
-        for (Item i : items) {
-            if (i.entry().series().isEmpty() || i.measurements().size() != 1) continue;
-            Measurement m = i.measurements().get(0);
-            if (!m.measured() || m.powerWatts().isEmpty()) continue;
-            String cal = i.entry().captureOptions().fullScaleVolts().isPresent() ? "fs-volts" : "volts";
-            groups.computeIfAbsent(i.entry().series().get(), k -> new ArrayList<>()).add(new LevelPoint(i.file().getFileName().toString(),
-                    m.fundamental().frequencyHz(), m.powerWatts().get().loadOhms(), cal,
-                    i.entry().captureOptions().fullScaleVolts().orElse(0), m.powerWatts().get().totalWatts(), m.thd().ratio(), m.thdN().ratio()));
-        }
+        List<LevelSeries.Member> members = new ArrayList<>();
+        for (Item i : items)
+            for (Measurement m : i.measurements()) members.add(new LevelSeries.Member(i.file(), i.entry(), i.capture().channelCount(), m));
         Map<String, LevelSweepResult> out = new LinkedHashMap<>();
-        for (Map.Entry<String, List<LevelPoint>> g : groups.entrySet()) {
-            try {
-                out.put(g.getKey(), LevelSweep.analyze(g.getValue()));
-            } catch (IllegalArgumentException e) {
-                err.println("outstage: level series \"" + g.getKey() + "\": " + e.getMessage());
-            }
-        }
+        for (LevelSeries.Named n : LevelSeries.build(members, p -> err.println("outstage: " + p))) out.put(n.name(), n.sweep());
         return out;
     }
 

@@ -12,11 +12,18 @@ import org.outstage.verify.KeyFigures;
  */
 public interface LogbookMeasurer {
     /** One measured channel (1-based) of a capture with {@code channelCount} channels. */
-    record Measured(int channel, int channelCount, KeyFigures figures, String measurementJson, List<String> warnings) {
+    record Measured(int channel, int channelCount, KeyFigures figures, String measurementJson, List<String> warnings,
+                    java.util.Optional<org.outstage.analysis.Measurement> measurement) {
         public Measured {
             Objects.requireNonNull(figures, "figures");
             Objects.requireNonNull(measurementJson, "measurementJson");
             warnings = List.copyOf(warnings);
+            Objects.requireNonNull(measurement, "measurement");
+        }
+
+        /** Without the full measurement (a measurer that only has the figures). */
+        public Measured(int channel, int channelCount, KeyFigures figures, String measurementJson, List<String> warnings) {
+            this(channel, channelCount, figures, measurementJson, warnings, java.util.Optional.empty());
         }
     }
 

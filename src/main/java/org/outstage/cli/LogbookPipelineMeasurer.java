@@ -20,7 +20,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
     @Override
     public List<Measured> measure(Path file, AnalyzeOptions options, OptionalInt channel) {
         Capture cap = Measuring.open(file, options);
-        List<Measurement> ms = Measuring.measure(cap, options.settings(), channel, options.reference(), file.toString());
+        List<Measurement> ms = Measuring.measure(cap, options.settings(), channel, options.generatorChannelFor(file), file.toString());
         List<Measured> out = new ArrayList<>();
         List<String> skipped = new ArrayList<>();
         for (Measurement m : ms) {
@@ -33,7 +33,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
             List<String> warnings = new ArrayList<>(cap.warnings());
             warnings.addAll(skipped);
             out.add(new Measured(m.channel(), cap.channelCount(), figures(m), Json.write(MeasurementJson.capture(file.toString(), m, cap.warnings())),
-                    warnings));
+                    warnings, java.util.Optional.of(m)));
         }
         if (out.isEmpty()) throw new BadInputException(skipped.isEmpty() ? file + ": no channel to measure" : skipped.get(0));
         return out;

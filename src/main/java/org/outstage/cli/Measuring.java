@@ -19,8 +19,15 @@ import org.outstage.capture.CaptureReader;
 public final class Measuring {
     private Measuring() {}
 
-    /** The measurements of one file, with the reader's warnings. */
-    public record FileResult(String file, Capture capture, List<Measurement> measurements) {}
+    /**
+     * The measurements of one file, with the reader's warnings, and its generator channel (1-based; not measured as
+     * an output: no power, no verdict).
+     */
+    public record FileResult(String file, Capture capture, List<Measurement> measurements, OptionalInt generatorChannel) {
+        public FileResult(String file, Capture capture, List<Measurement> measurements) {
+            this(file, capture, measurements, OptionalInt.empty());
+        }
+    }
 
     /**
      * Opens and analyses {@code file}.
@@ -30,7 +37,8 @@ public final class Measuring {
     public static FileResult measure(Path file, AnalyzeOptions options) {
         AnalysisSettings settings = options.settings();
         Capture capture = open(file, options);
-        return new FileResult(file.toString(), capture, measure(capture, settings, options.channel(), options.reference(), file.toString()));
+        OptionalInt generator = options.generatorChannelFor(file);
+        return new FileResult(file.toString(), capture, measure(capture, settings, options.channel(), generator, file.toString()), generator);
     }
 
     /** Opens a capture with the options' calibration; a reader error becomes a {@link BadInputException}. */

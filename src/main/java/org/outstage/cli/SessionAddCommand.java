@@ -22,8 +22,13 @@ import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
-/** {@code session add ID --bias-mv MV CAPTURE}: measures the capture and commits one bias step; exit 0 only once committed. */
-@Command(name = "add", description = "Measure a capture and add it as a bias step; exits 0 only after the step is committed.")
+/**
+ * {@code session add ID --bias-mv MV CAPTURE}: measures the capture and commits one bias step; exit 0 only once committed.
+ * {@code session add ID --bias-mv MV --live SECONDS [--play SIGNAL --level-dbfs L]} captures from the soundcard instead:
+ * the raw input is kept in a temporary WAV file, which then goes through exactly the file path (measured, stored in the
+ * logbook's content-addressed store, step committed) and is deleted.
+ */
+@Command(name = "add", mixinStandardHelpOptions = true, description = "Measure a capture (or --live SECONDS from the soundcard) and add it as a bias step; exits 0 only after the step is committed.")
 public final class SessionAddCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
@@ -32,8 +37,13 @@ public final class SessionAddCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "ID", converter = Units.SessionId.class, description = "Session id.")
     long sessionId;
 
-    @Parameters(index = "1", paramLabel = "CAPTURE", description = "WAV or scope CSV taken at this bias setting.")
+    @Parameters(index = "1", paramLabel = "CAPTURE", arity = "0..1", description = "WAV or scope CSV taken at this bias setting (or use --live).")
     Path capture;
+
+    @Option(names = "--live", paramLabel = "SECONDS", description = "Capture SECONDS from the soundcard instead of reading a file (see 'live').")
+    Double liveSeconds;
+
+    @Mixin LiveOptions live;
 
     static final class Reading {
         @Option(names = "--bias-mv", paramLabel = "MV", converter = Units.MilliVolts.class, required = true, description = "Bias reading across the emitter resistor(s), mV.")
@@ -57,6 +67,27 @@ public final class SessionAddCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         analyze.settings(); // validate before anything is read or written
+        if ((capture == null) == (liveSeconds == null)) throw new BadInputException("give either a CAPTURE file or --live SECONDS");
+        if (liveSeconds == null && live.play != null) throw new BadInputException("--play needs --live");
+        Path liveFile = null;
+        if (liveSeconds != null) {
+            liveFile = LiveCapture.capture(live, analyze, liveSeconds, spec.commandLine().getErr());
+            capture = liveFile;
+        }
+        try {
+            return addStep();
+        } finally {
+            if (liveFile != null) {
+                try {
+                    java.nio.file.Files.deleteIfExists(liveFile);
+                } catch (java.io.IOException e) {
+                    spec.commandLine().getErr().println("outstage: warning: could not delete the temporary capture " + liveFile);
+                }
+            }
+        }
+    }
+
+    private Integer addStep() {
         BiasReading r = reading.mv != null ? BiasReading.millivolts(reading.mv) : BiasReading.milliamps(reading.ma);
         BiasStep step;
         BiasAdvice advice;

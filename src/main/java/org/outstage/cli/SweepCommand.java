@@ -9,6 +9,7 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.stage.LevelPoint;
+import org.outstage.analysis.stage.LevelSeries;
 import org.outstage.analysis.stage.LevelSweep;
 import org.outstage.analysis.stage.LevelSweepResult;
 import org.outstage.analysis.stage.RatedPower;
@@ -25,7 +26,7 @@ import picocli.CommandLine.Spec;
  * notion), interpolated between points. Output power is {@code V_rms²/R} of the whole record without DC.
  */
 @Command(name = "sweep", mixinStandardHelpOptions = true, sortOptions = false,
-        description = "THD and THD+N against output power over a level series, and the power at 1 % and 10 % THD.")
+        description = "THD and THD+N against output power over a level series, and the power at 1 %% and 10 %% THD.")
 public final class SweepCommand implements Callable<Integer> {
     @Spec picocli.CommandLine.Model.CommandSpec spec;
 
@@ -54,8 +55,7 @@ public final class SweepCommand implements Callable<Integer> {
             if (m.powerWatts().isEmpty())
                 throw new BadInputException(r.file() + ": output power needs a capture in volts (give --fs-volts for a WAV, the CSV is in volts)");
             double fsVolts = options.fsVolts == null ? 0 : options.fsVolts;
-            points.add(new LevelPoint(r.file(), m.fundamental().frequencyHz(), options.load, options.calibrationLabel(), fsVolts,
-                    m.powerWatts().get().totalWatts(), m.thd().ratio(), m.thdN().ratio()));
+            points.add(LevelSeries.point(r.file(), m, options.calibrationLabel(), fsVolts).orElseThrow());
         }
         LevelSweepResult result = LevelSweep.analyze(points);
         if (json) out.println(Json.pretty(toJson(result)));

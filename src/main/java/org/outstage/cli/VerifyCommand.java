@@ -8,6 +8,10 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
+import java.util.OptionalInt;
+import org.outstage.analysis.stage.LevelSeries;
+import org.outstage.capture.BenchManifest;
+import org.outstage.capture.CaptureFormatException;
 import java.util.OptionalDouble;
 import java.util.concurrent.Callable;
 import org.outstage.json.Json;
@@ -40,7 +44,7 @@ import picocli.CommandLine.Parameters;
  * {@code --allow-unmeasured}); 2 on bad input (nothing is logged then). The result is logged as a
  * verification session.
  */
-@Command(name = "verify", description = "Check captures against a spec profile; exit 0 all pass, 1 a limit fails or is not measured, 2 bad input.")
+@Command(name = "verify", mixinStandardHelpOptions = true, description = "Check captures against a spec profile; exit 0 all pass, 1 a limit fails or is not measured, 2 bad input.")
 public final class VerifyCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
@@ -107,7 +111,7 @@ public final class VerifyCommand implements Callable<Integer> {
                 u = lb.unit(u.name()).orElse(u);
             }
         }
-        List<String> charts = report != null ? ReportCharts.forVerification(result, channels) : List.of();
+        List<String> charts = report != null ? ReportCharts.forVerification(result, levelSeries(taken)) : List.of();
         ReportDocument doc = new ReportDocument(u, session, result, channels, charts, Instant.now(), SessionSupport.programVersion());
         if (report != null) org.outstage.report.AtomicFile.write(report, HtmlReport.render(doc));
         if (reportJson != null) org.outstage.report.AtomicFile.write(reportJson, Json.pretty(ReportJson.of(doc)) + "\n");
@@ -124,6 +128,29 @@ public final class VerifyCommand implements Callable<Integer> {
         if (result.anyFailed()) return OutstageCommand.EXIT_FAULT;
         if (result.count(Verdict.NOT_MEASURED) > 0 && !allowUnmeasured) return OutstageCommand.EXIT_FAULT;
         return OutstageCommand.EXIT_OK;
+    }
+
+    /**
+     * The named level series among the measured captures ({@code series=} in the bench.txt beside each capture;
+     * {@link LevelSeries}): only those are drawn as THD-against-power lines, each its own.
+     */
+    private List<LevelSeries.Named> levelSeries(List<Taken> taken) {
+        List<LevelSeries.Member> members = new ArrayList<>();
+        for (Taken t : taken) {
+            if (t.measured.measurement().isEmpty()) continue;
+            Path folder = t.file.toAbsolutePath().getParent();
+            BenchManifest.Entry e;
+            try {
+                e = folder == null ? BenchManifest.empty().entryFor(t.file) : BenchManifest.forFolder(folder).entryFor(t.file);
+            } catch (CaptureFormatException ex) {
+                throw new BadInputException(folder.resolve(ex.getMessage()).toString());
+            }
+            // the options' roles (when given) decide the generator; the notes give the series
+            OptionalInt gen = analyze.generatorChannelFor(t.file);
+            e = new BenchManifest.Entry(e.captureOptions(), e.loadOhms(), gen, e.channel(), e.series(), Optional.empty());
+            members.add(new LevelSeries.Member(t.file, e, t.measured.channelCount(), t.measured.measurement().get()));
+        }
+        return LevelSeries.build(members, p -> spec.commandLine().getErr().println("outstage: warning: " + p));
     }
 
     static String line(LimitResult r) {

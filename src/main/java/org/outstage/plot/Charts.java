@@ -121,13 +121,27 @@ public final class Charts {
      * (odd tail = crossover, even = asymmetry) is plain to see. Levels in dB re fundamental (dBc).
      */
     public static ChartSpec harmonicProfile(String title, int[] orders, double[] levelDbc) {
-        Require.that(orders.length == levelDbc.length, "orders and levels differ in length");
+        boolean[] all = new boolean[orders.length];
+        java.util.Arrays.fill(all, true);
+        return harmonicProfile(title, orders, levelDbc, all);
+    }
+
+    /**
+     * As {@link #harmonicProfile(String, int[], double[])}, with the harmonics that do not stand above the noise in
+     * their bins ({@code resolved[i]} false: the CLI prints them "&lt;", an upper bound) drawn apart: not as bars but
+     * as points at their upper bound, in a series named "&lt; not above the noise (upper bound)".
+     */
+    public static ChartSpec harmonicProfile(String title, int[] orders, double[] levelDbc, boolean[] resolved) {
+        Require.that(orders.length == levelDbc.length && orders.length == resolved.length, "orders and levels differ in length");
+        List<double[]> below = new ArrayList<>();
+        for (int i = 0; i < orders.length; i++)
+            if (!resolved[i] && Double.isFinite(levelDbc[i])) below.add(new double[] {orders[i], levelDbc[i]});
         List<double[]> odd = new ArrayList<>(), even = new ArrayList<>();
         double lo = 0;
         int maxOrder = 2;
         for (int i = 0; i < orders.length; i++) {
             if (!Double.isFinite(levelDbc[i])) continue;
-            (orders[i] % 2 == 1 ? odd : even).add(new double[] {orders[i], levelDbc[i]});
+            if (resolved[i]) (orders[i] % 2 == 1 ? odd : even).add(new double[] {orders[i], levelDbc[i]});
             lo = Math.min(lo, levelDbc[i]);
             maxOrder = Math.max(maxOrder, orders[i]);
         }
@@ -138,6 +152,11 @@ public final class Charts {
         List<Series> s = new ArrayList<>();
         s.add(bars("odd harmonics", odd, Series.Role.MEASURED));
         s.add(bars("even harmonics", even, Series.Role.MEASURED_ALT));
+        if (!below.isEmpty()) {
+            double[] bx = new double[below.size()], by = new double[below.size()];
+            for (int i = 0; i < bx.length; i++) { bx[i] = below.get(i)[0]; by[i] = below.get(i)[1]; }
+            s.add(new Series("< not above the noise (upper bound)", bx, by, Series.Style.POINTS, Series.Role.RESIDUAL));
+        }
         return ChartSpec.of(title, Axis.linear("Harmonic order", "").withRange(1.4, maxOrder + 0.6),
                 Axis.db("Level", "dBc").withRange(bottom, Math.max(top, bottom + 10)), s);
     }
@@ -186,13 +205,33 @@ public final class Charts {
      * line. Ratios are given as fractions and shown in percent.
      */
     public static ChartSpec levelSweep(String title, double[] powerWatts, double[] thd, double[] thdN, double limitFraction) {
-        Require.that(powerWatts.length == thd.length && thd.length == thdN.length, "sweep arrays differ in length");
-        double[] a = new double[thd.length], b = new double[thdN.length];
-        for (int i = 0; i < a.length; i++) { a[i] = thd[i] * 100; b[i] = thdN[i] * 100; }
+        return levelSweeps(title, List.of(new SweepLine("", powerWatts, thd, thdN)), limitFraction);
+    }
+
+    /** One named level series for {@link #levelSweeps}: power (W), THD and THD+N (fractions), sorted by power. */
+    public record SweepLine(String name, double[] powerWatts, double[] thd, double[] thdN) {}
+
+    /**
+     * THD and THD+N against output power for several NAMED series, each its own pair of lines (never joined), with
+     * a point marker at each capture (a {@link Series.Style#POINTS} twin of each line, after all the lines) and the THD limit as a line.
+     * With one series the names are plain "THD" / "THD+N"; with several, "NAME: THD".
+     */
+    public static ChartSpec levelSweeps(String title, List<SweepLine> lines, double limitFraction) {
+        Require.that(!lines.isEmpty(), "a level-sweep chart needs at least one series");
+        List<Series> series = new java.util.ArrayList<>(), markers = new java.util.ArrayList<>();
+        for (SweepLine l : lines) {
+            Require.that(l.powerWatts().length == l.thd().length && l.thd().length == l.thdN().length, "sweep arrays differ in length");
+            double[] a = new double[l.thd().length], b = new double[l.thdN().length];
+            for (int i = 0; i < a.length; i++) { a[i] = l.thd()[i] * 100; b[i] = l.thdN()[i] * 100; }
+            String prefix = lines.size() == 1 ? "" : l.name() + ": ";
+            series.add(new Series(prefix + "THD", l.powerWatts(), a, Series.Style.LINE, Series.Role.MEASURED));
+            series.add(new Series(prefix + "THD+N", l.powerWatts(), b, Series.Style.LINE, Series.Role.MEASURED_ALT));
+            markers.add(new Series(prefix + "THD (captures)", l.powerWatts(), a, Series.Style.POINTS, Series.Role.MEASURED));
+            markers.add(new Series(prefix + "THD+N (captures)", l.powerWatts(), b, Series.Style.POINTS, Series.Role.MEASURED_ALT));
+        }
+        series.addAll(markers);
         String lim = Ticks.withUnit(limitFraction * 100, "%").replaceAll("\\.?0+ %", " %");
-        return new ChartSpec(title, Axis.log("Output power", "W"), Axis.log("Distortion", "%"),
-                List.of(new Series("THD", powerWatts, a, Series.Style.LINE, Series.Role.MEASURED),
-                        new Series("THD+N", powerWatts, b, Series.Style.LINE, Series.Role.MEASURED_ALT)),
+        return new ChartSpec(title, Axis.log("Output power", "W"), Axis.log("Distortion", "%"), series,
                 List.of(), List.of(), List.of(new HorizontalLine(limitFraction * 100, lim + " limit", Series.Role.LIMIT)));
     }
 }

@@ -82,11 +82,13 @@ public final class MeasurementCharts {
         if (k == 0) return Optional.empty();
         int[] orders = new int[k];
         double[] dbc = new double[k];
+        boolean[] resolved = new boolean[k];
         for (int i = 0; i < k; i++) {
             orders[i] = m.harmonics().get(i).order();
             dbc[i] = m.harmonics().get(i).dbc();
+            resolved[i] = m.harmonics().get(i).resolved();
         }
-        return Optional.of(Charts.harmonicProfile(name + " — harmonic profile", orders, dbc));
+        return Optional.of(Charts.harmonicProfile(name + " — harmonic profile", orders, dbc, resolved));
     }
 
     /** The measured transfer curve of the stage diagnosis, if there is one. */

@@ -28,7 +28,20 @@ public final class Ticks {
     public static List<Tick> of(Range r, Axis.Scale scale, int target, String unit) {
         boolean plain = unit.isEmpty() || unit.equals("%") || unit.startsWith("dB");
         if (scale == Axis.Scale.LOG10) return log(r, !plain);
-        return linear(r, Math.max(2, target));
+        List<Tick> ticks = linear(r, Math.max(2, target));
+        if (plain) return ticks;
+        // unit-aware labels: "0.5 ms", not "0.5m" (the prefix alone reads as metres or is missed)
+        List<Tick> out = new ArrayList<>(ticks.size());
+        for (Tick t : ticks) out.add(new Tick(t.value(), withUnitLabel(t.label(), unit), t.major()));
+        return out;
+    }
+
+    /** "0.5m" + "s" → "0.5 ms"; "20" + "V" → "20 V"; "0" stays "0". */
+    static String withUnitLabel(String label, String unit) {
+        if (label.isEmpty() || label.equals("0")) return label;
+        char last = label.charAt(label.length() - 1);
+        if ("nµmkMG".indexOf(last) >= 0) return label.substring(0, label.length() - 1) + " " + last + unit;
+        return label + " " + unit;
     }
 
     /** A nice step (1, 2 or 5 × 10^k) giving about {@code target} intervals over {@code span}. */

@@ -36,9 +36,17 @@ public final class BenchReport {
 
     public static Written write(Path dir, String folder, List<Capture> captures, Map<String, LevelSweepResult> sweeps,
                                 List<String> failures) throws IOException {
+        return write(dir, folder, captures, sweeps, failures, java.time.Instant.now());
+    }
+
+    /** As {@link #write(Path, String, List, Map, List)}, stamped with {@code generatedAt}. */
+    public static Written write(Path dir, String folder, List<Capture> captures, Map<String, LevelSweepResult> sweeps,
+                                List<String> failures, java.time.Instant generatedAt) throws IOException {
         Path html = dir.resolve("report.html"), json = dir.resolve("report.json");
-        AtomicFile.write(html, html(folder, captures, sweeps, failures));
-        AtomicFile.write(json, Json.pretty(json(folder, captures, sweeps, failures)) + "\n");
+        AtomicFile.write(html, html(folder, captures, sweeps, failures, generatedAt));
+        Map<String, Object> j = new java.util.LinkedHashMap<>(json(folder, captures, sweeps, failures));
+        j.put("generated_at", HtmlReport.when(generatedAt));
+        AtomicFile.write(json, Json.pretty(j) + "\n");
         return new Written(html, json);
     }
 
@@ -53,12 +61,18 @@ public final class BenchReport {
     }
 
     static String html(String folder, List<Capture> captures, Map<String, LevelSweepResult> sweeps, List<String> failures) {
+        return html(folder, captures, sweeps, failures, java.time.Instant.now());
+    }
+
+    static String html(String folder, List<Capture> captures, Map<String, LevelSweepResult> sweeps, List<String> failures,
+                       java.time.Instant generatedAt) {
         StringBuilder h = new StringBuilder(1 << 16);
         String title = "Bench report: " + folder;
         h.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
         h.append("<title>").append(HtmlReport.esc(title)).append("</title>\n<style>\n").append(HtmlReport.CSS).append("</style>\n</head>\n<body>\n");
         h.append("<h1>").append(HtmlReport.esc(title)).append("</h1>\n");
-        h.append("<p class=\"sub\">").append(captures.size()).append(" capture file(s) analysed with Outstage 0.1.0.</p>\n");
+        h.append("<p class=\"sub\">").append(captures.size()).append(" capture file(s) analysed with Outstage 0.1.0 on ")
+                .append(HtmlReport.esc(HtmlReport.when(generatedAt))).append(".</p>\n");
         h.append("<div class=\"cautions\"><strong>Cautions</strong><ul>\n");
         for (String c : ReportDocument.CAUTIONS) h.append("<li>").append(HtmlReport.esc(c)).append("</li>\n");
         h.append("</ul></div>\n");
@@ -79,7 +93,7 @@ public final class BenchReport {
             figure(h, MeasurementCharts.levelSweep("THD and THD+N against output power", s.getValue()));
         }
         for (Capture c : captures) for (Measurement m : c.measurements()) section(h, c, m);
-        h.append("<footer>Made by Outstage 0.1.0. Methods and their sources: docs/methods.md and docs/diagnosis.md of the project.</footer>\n");
+        h.append("<footer>Made by Outstage 0.1.0 on ").append(HtmlReport.esc(HtmlReport.when(generatedAt))).append(". Methods and their sources: docs/methods.md and docs/diagnosis.md of the project.</footer>\n");
         h.append("</body>\n</html>\n");
         return h.toString();
     }

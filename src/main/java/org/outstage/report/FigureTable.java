@@ -2,6 +2,7 @@ package org.outstage.report;
 
 import java.util.Locale;
 import org.outstage.analysis.Measurement;
+import org.outstage.analysis.Plausibility;
 import org.outstage.analysis.stage.ClipSide;
 import org.outstage.analysis.stage.ClippingMetrics;
 import org.outstage.analysis.stage.CrossoverMetrics;
@@ -12,6 +13,12 @@ public final class FigureTable {
     private FigureTable() {}
 
     /** A block of lines for one analysed channel. */
+    /** The line that shows a capture's generator channel as the reference (no power, no verdict: it is not an output). */
+    public static String generatorLine(String file, int channel) {
+        return String.format(Locale.ROOT, "%s  channel %d  generator (reference): the X-Y input of the other channels; no power, no verdict%n",
+                file, channel);
+    }
+
     public static String text(String file, Measurement m) {
         StringBuilder sb = new StringBuilder();
         String u = m.unit();
@@ -43,21 +50,26 @@ public final class FigureTable {
         }
         StageDiagnosis d = m.stage();
         if (d instanceof StageDiagnosis.Measured s) {
-            CrossoverMetrics x = s.crossover();
-            sb.append(String.format(Locale.ROOT, "  crossover     gain at zero %.4f (standard error %s): %s (confidence %.2f)%n", x.gainAtZero(),
-                    String.format(Locale.ROOT, "%.1e", x.gainAtZeroStdError()), x.verdict().label(), x.confidence()));
-            sb.append(String.format(Locale.ROOT, "                notch width %s %s, depth %s %s (%.3f %% of peak)%n", sig(x.notchWidthVolts()), u,
-                    sig(x.notchDepthVolts()), u, 100 * x.notchDepthFraction()));
-            sb.append("                ").append(x.explanation()).append(System.lineSeparator());
             ClippingMetrics c = s.clipping();
-            if (!c.detected()) sb.append("  clipping      none detected").append(System.lineSeparator());
-            else {
+            if (c.detected()) { // clipping first: it is what the listener hears and what the crossover reading has to allow for
                 sb.append(String.format(Locale.ROOT, "  clipping      positive %s, negative %s, asymmetry %s, first: %s%n",
                         c.positive().map(p -> sig(p.levelVolts()) + " " + u + " (" + knee(p) + ")").orElse("none"),
                         c.negative().map(p -> sig(p.levelVolts()) + " " + u + " (" + knee(p) + ")").orElse("none"),
                         c.asymmetryPercent().isPresent() ? String.format(Locale.ROOT, "%.2f %%", c.asymmetryPercent().getAsDouble()) : "n/a",
                         c.clipsFirst().label()));
             }
+            CrossoverMetrics x = s.crossover();
+            if (!Plausibility.crossoverGiven(m)) {
+                sb.append(String.format(Locale.ROOT, "  crossover     not given: the record spans %.1f cycles; at least %d are needed%n",
+                        Plausibility.cycles(m), Plausibility.MIN_CYCLES_FOR_CROSSOVER));
+            } else {
+                sb.append(String.format(Locale.ROOT, "  crossover     gain at zero %.4f (standard error %s): %s (confidence %.2f)%n", x.gainAtZero(),
+                        String.format(Locale.ROOT, "%.1e", x.gainAtZeroStdError()), x.verdict().label(), x.confidence()));
+                sb.append(String.format(Locale.ROOT, "                notch width %s %s, depth %s %s (%.3f %% of peak)%n", sig(x.notchWidthVolts()), u,
+                        sig(x.notchDepthVolts()), u, 100 * x.notchDepthFraction()));
+                sb.append("                ").append(x.explanation()).append(System.lineSeparator());
+            }
+            if (!c.detected()) sb.append("  clipping      none detected").append(System.lineSeparator());
             s.reference().ifPresent(a -> sb.append(String.format(Locale.ROOT, "  reference     delay %.3f samples (%s s), gain %.4f%n",
                     a.delaySamples(), sig(a.delaySeconds()), a.gain())));
         } else if (d instanceof StageDiagnosis.NotMeasured n) {

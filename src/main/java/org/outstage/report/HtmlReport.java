@@ -59,8 +59,8 @@ public final class HtmlReport {
         d.unit().ratedLoadOhms().ifPresent(r -> dd(h, "Rated load", num(r) + " Ω"));
         d.session().ifPresent(s -> {
             dd(h, "Logbook session", s.id() + " (" + s.kind().label() + ")");
-            dd(h, "Started", s.startedAt().toString());
-            s.endedAt().ifPresent(e -> dd(h, "Ended", e.toString()));
+            dd(h, "Started", when(s.startedAt()));
+            s.endedAt().ifPresent(e -> dd(h, "Ended", when(e)));
         });
         dd(h, "Specification", d.result().spec().name() + " (" + d.result().spec().source() + ")");
         h.append("</dl>\n");
@@ -103,7 +103,7 @@ public final class HtmlReport {
         h.append("<h2>Cautions</h2>\n<div class=\"cautions\"><ul>\n");
         for (String c : ReportDocument.CAUTIONS) h.append("<li>").append(esc(c)).append("</li>\n");
         h.append("</ul></div>\n");
-        h.append("<footer>Made by ").append(esc(d.programVersion())).append(" on ").append(esc(d.generatedAt().toString()))
+        h.append("<footer>Made by ").append(esc(d.programVersion())).append(" on ").append(esc(when(d.generatedAt())))
                 .append(". Measured values are in the units of the specification; margin is positive when a limit is met.</footer>\n");
         h.append("</body>\n</html>\n");
         return h.toString();
@@ -146,5 +146,11 @@ public final class HtmlReport {
             }
         }
         return b.toString();
+    }
+
+    /** A report's time stamp for a reader: UTC to the second, no fraction ("2026-12-04 09:26:02 UTC"). */
+    public static String when(java.time.Instant t) {
+        return java.time.format.DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm:ss 'UTC'", java.util.Locale.ROOT)
+                .withZone(java.time.ZoneOffset.UTC).format(t);
     }
 }

@@ -58,6 +58,10 @@ public final class MeasurementJson {
         c.put("residual", residual(m.stage()));
         c.put("transfer", transfer(m.stage()));
         c.put("warnings", List.copyOf(warnings));
+        // added (issue 11): figures beyond any audio bench, why power is missing, and whether the record is long
+        // enough for the crossover figures (analysis.Plausibility; when false, the crossover figures are not to be read)
+        c.put("cautions", org.outstage.analysis.Plausibility.cautions(m, m.settings().loadOhms()));
+        c.put("crossover_given", org.outstage.analysis.Plausibility.crossoverGiven(m));
         return c;
     }
 

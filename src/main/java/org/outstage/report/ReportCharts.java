@@ -3,6 +3,7 @@ package org.outstage.report;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
+import org.outstage.analysis.stage.LevelSeries;
 import org.outstage.logbook.BiasAdvice;
 import org.outstage.logbook.StepPoint;
 import org.outstage.plot.Axis;
@@ -12,7 +13,6 @@ import org.outstage.plot.Charts;
 import org.outstage.plot.HorizontalLine;
 import org.outstage.plot.Series;
 import org.outstage.verify.Limit;
-import org.outstage.verify.MeasuredChannel;
 import org.outstage.verify.Quantity;
 import org.outstage.verify.VerificationResult;
 
@@ -27,39 +27,29 @@ public final class ReportCharts {
     static final int HEIGHT = 420;
 
     /**
-     * THD and THD+N against output power for the captures of the power limit's frequency and load (or all
-     * captures with a power when the spec has no power limit), with the THD threshold as a line. Empty when
-     * fewer than two captures have a power.
+     * THD and THD+N against output power, one pair of lines per NAMED level series ({@code series=} in the
+     * calibration notes; built by {@link org.outstage.analysis.stage.LevelSeries}), with the power limit's THD
+     * threshold (1 % without a power limit) as a line. Captures outside a named series (bias steps, scope exports,
+     * generator channels) are never drawn here. Empty when no series has two points.
      */
-    public static List<String> forVerification(VerificationResult result, List<MeasuredChannel> channels) {
+    public static List<String> forVerification(VerificationResult result, List<LevelSeries.Named> series) {
         Limit power = null;
         for (var r : result.results()) if (r.limit().quantity() == Quantity.POWER) power = r.limit();
-        List<MeasuredChannel> pts = new ArrayList<>();
-        for (MeasuredChannel c : channels) {
-            var f = c.figures();
-            if (f.powerWatts().isEmpty() || !(f.powerWatts().getAsDouble() > 0) || !(f.thdRatio() > 0) || !(f.thdNRatio() > 0)) continue;
-            if (power != null && power.frequencyHz().isPresent()
-                    && Math.abs(f.fundamentalHz() - power.frequencyHz().getAsDouble()) > result.spec().frequencyTolerance() * power.frequencyHz().getAsDouble()) {
-                continue;
+        List<Charts.SweepLine> lines = new ArrayList<>();
+        for (LevelSeries.Named n : series) {
+            var pts = n.sweep().points();
+            if (pts.size() < 2) continue;
+            double[] p = new double[pts.size()], thd = new double[pts.size()], thdN = new double[pts.size()];
+            for (int i = 0; i < p.length; i++) {
+                p[i] = pts.get(i).powerWatts();
+                thd[i] = pts.get(i).thdRatio();
+                thdN[i] = pts.get(i).thdNRatio();
             }
-            if (power != null && power.loadOhms().isPresent()
-                    && (f.loadOhms().isEmpty() || Math.abs(f.loadOhms().getAsDouble() - power.loadOhms().getAsDouble()) > 0.01 * power.loadOhms().getAsDouble())) {
-                continue;
-            }
-            pts.add(c);
+            lines.add(new Charts.SweepLine(n.name(), p, thd, thdN));
         }
-        if (pts.size() < 2) return List.of();
-        pts.sort(Comparator.comparingDouble(c -> c.figures().powerWatts().getAsDouble()));
-        double[] p = new double[pts.size()];
-        double[] thd = new double[pts.size()];
-        double[] thdN = new double[pts.size()];
-        for (int i = 0; i < p.length; i++) {
-            p[i] = pts.get(i).figures().powerWatts().getAsDouble();
-            thd[i] = pts.get(i).figures().thdRatio();
-            thdN[i] = pts.get(i).figures().thdNRatio();
-        }
+        if (lines.isEmpty()) return List.of();
         double threshold = power != null ? power.thdThreshold().getAsDouble() : 0.01;
-        return List.of(SvgRenderer.render(Charts.levelSweep("Distortion against output power", p, thd, thdN, threshold), WIDTH, HEIGHT));
+        return List.of(SvgRenderer.render(Charts.levelSweeps("Distortion against output power", lines, threshold), WIDTH, HEIGHT));
     }
 
     /**

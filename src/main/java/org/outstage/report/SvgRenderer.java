@@ -111,8 +111,10 @@ public final class SvgRenderer {
             double x = vp.px(m.x()), y = vp.py(m.y());
             if (!Double.isFinite(x) || !Double.isFinite(y)) continue;
             sb.append("<path d=\"M").append(f(x)).append(' ').append(f(y - 3)).append("l-4 -7h8z\" fill=\"").append(Palette.MARKER).append("\" stroke=\"none\"/>\n");
-            if (!ChartLayout.labelFits(labelled, x, y - 13)) continue;
-            sb.append("<text x=\"").append(f(x)).append("\" y=\"").append(f(y - 13)).append("\" text-anchor=\"middle\" stroke=\"none\" fill=\"")
+            // label above the marker, else below it (so a crowded marker such as H9 beside H8 keeps its name)
+            double ly = ChartLayout.labelFits(labelled, x, y - 13) ? y - 13 : ChartLayout.labelFits(labelled, x, y + 16) ? y + 16 : Double.NaN;
+            if (Double.isNaN(ly)) continue;
+            sb.append("<text x=\"").append(f(x)).append("\" y=\"").append(f(ly)).append("\" text-anchor=\"middle\" stroke=\"none\" fill=\"")
                     .append(Palette.MARKER).append("\" font-size=\"11\">").append(esc(m.label())).append("</text>\n");
         }
         sb.append("</g>\n");

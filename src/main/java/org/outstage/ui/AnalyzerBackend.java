@@ -14,7 +14,7 @@ import org.outstage.analysis.Band;
 import org.outstage.analysis.Levels;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.Weighting;
-import org.outstage.analysis.stage.LevelPoint;
+import org.outstage.analysis.stage.LevelSeries;
 import org.outstage.analysis.stage.Residual;
 import org.outstage.analysis.stage.StageAnalyzer;
 import org.outstage.analysis.stage.StageDiagnosis;
@@ -37,6 +37,7 @@ final class AnalyzerBackend implements Backend {
         CaptureOptions o = CaptureOptions.none();
         if (calibration.fullScaleVolts().isPresent()) o = o.withFullScaleVolts(calibration.fullScaleVolts().getAsDouble());
         if (calibration.probeRatio().isPresent()) o = o.withProbeFactor(calibration.probeRatio().getAsDouble());
+        if (calibration.sampleRateHz().isPresent()) o = o.withSampleRateHz(calibration.sampleRateHz().getAsDouble());
         return CaptureReader.open(file, o);
     }
 
@@ -99,13 +100,10 @@ final class AnalyzerBackend implements Backend {
         Panel harmonics = MeasurementCharts.harmonicProfile(name, m).map(Panel::of)
                 .orElseGet(() -> Panel.message("No harmonics inside the band for this fundamental"));
         Optional<org.outstage.analysis.TransferCurve> curve = MeasurementCharts.measuredCurve(m);
-        Optional<ViewData.SweepPoint> sweep = Optional.empty();
-        if (m.powerWatts().isPresent() && m.thd().ratio() > 0 && m.thdN().ratio() > 0) {
-            Measurement.Power p = m.powerWatts().get();
-            sweep = Optional.of(new ViewData.SweepPoint(new LevelPoint(capture.name(), m.fundamental().frequencyHz(), p.loadOhms(),
-                    cal.fullScaleVolts().isPresent() ? "full scale " + cal.fullScaleVolts().getAsDouble() + " V" : "volts",
-                    cal.fullScaleVolts().orElse(0), p.totalWatts(), m.thd().ratio(), m.thdN().ratio())));
-        }
+        // the level point as sweep, bench and verify make it (LevelSeries.point: whole-output power, THD, THD+N)
+        String label = cal.fullScaleVolts().isPresent() ? "fs-volts" : cal.probeRatio().isPresent() ? "probe" : "volts";
+        Optional<ViewData.SweepPoint> sweep = LevelSeries.point(capture.name(), m, label, cal.fullScaleVolts().orElse(0))
+                .filter(p -> p.thdRatio() > 0 && p.thdNRatio() > 0).map(ViewData.SweepPoint::new);
         progress.accept(1);
         return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, spectrumRelative, harmonics, curve, sweep);
     }
@@ -140,12 +138,36 @@ final class AnalyzerBackend implements Backend {
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
                     d.crossover().explanation()));
-            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero (rel.)", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
-                    "± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
+            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
+                    "relative; ± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
+            rows.addAll(clippingRows(d.clipping(), u));
         } else if (m.stage() instanceof StageDiagnosis.NotMeasured n) {
             rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", n.reason()));
+            rows.add(new FigureRow("clippingValue", "Clipping", "not measured", "", n.reason()));
         }
         return rows;
+    }
+
+    /**
+     * The clipping rows: each clip level (flat top) with its shape, and the asymmetry with the side that clips
+     * first, as measured; one row "none" when neither side clips.
+     */
+    static List<FigureRow> clippingRows(org.outstage.analysis.stage.ClippingMetrics c, String unit) {
+        if (!c.detected())
+            return List.of(new FigureRow("clippingValue", "Clipping", "none", "", "no flat top on either side (tolerance "
+                    + num(c.toleranceVolts()) + " " + unit + ")"));
+        List<FigureRow> rows = new ArrayList<>();
+        c.positive().ifPresent(p -> rows.add(new FigureRow("clipPositiveValue", "Clip level +", num(p.levelVolts()), unit, knee(p))));
+        c.negative().ifPresent(p -> rows.add(new FigureRow("clipNegativeValue", "Clip level −", num(p.levelVolts()), unit, knee(p))));
+        rows.add(new FigureRow("clippingValue", "Clip asymmetry", c.asymmetryPercent().isPresent() ? num(c.asymmetryPercent().getAsDouble()) : "—",
+                c.asymmetryPercent().isPresent() ? "%" : "", (c.asymmetryPercent().isPresent() ? "" : "one side only; ")
+                + "clips first: " + c.clipsFirst().label()));
+        return rows;
+    }
+
+    private static String knee(org.outstage.analysis.stage.ClipSide s) {
+        return (s.knee() == org.outstage.analysis.stage.ClipSide.Knee.HARD ? "hard flat top" : "soft knee") + ", "
+                + pct(100 * s.fractionOfCycle()) + " % of the cycle";
     }
 
     static String num(double v) { return Double.isFinite(v) ? Ticks.withUnit(v, "").trim() : "—"; }

@@ -41,7 +41,6 @@ import org.outstage.plot.Viewport;
  */
 public final class ChartCanvas extends Region {
     private static final Font FONT = Font.font("DejaVu Sans", ChartLayout.FONT_SIZE);
-    private static final Font TITLE_FONT = Font.font("DejaVu Sans", FontWeight.BOLD, ChartLayout.TITLE_FONT_SIZE);
     private static final Font SMALL_FONT = Font.font("DejaVu Sans", 11);
     private final Canvas canvas = new Canvas(10, 10);
     private final Label readout = new Label();
@@ -52,6 +51,13 @@ public final class ChartCanvas extends Region {
     private boolean panning;
     private Viewport lastViewport;
     private String message = "";
+    /** What the last draw put on screen: the title as drawn (fitted), its box, and the x tick labels. */
+    private String drawnTitle = "";
+    private javafx.geometry.Bounds titleBounds = new javafx.geometry.BoundingBox(0, 0, 0, 0);
+    private List<String> drawnXTicks = List.of();
+    private String fitFor = "";
+    private double fitWidth = -1;
+    private String[] fitted = {"", "14"};
 
     /** Series arrays copied once per spec, with whether x is sorted (decimation needs it) and the last reduction. */
     private static final class Prepared {
@@ -173,7 +179,42 @@ public final class ChartCanvas extends Region {
             redraw();
         }
         readout.autosize();
-        readout.relocate(Math.max(0, w - readout.getWidth() - ChartLayout.MARGIN_RIGHT), 6);
+        // bottom right inside the plot area: clear of the title (top left) and the legend (top right)
+        Viewport vp = lastViewport;
+        if (vp != null) readout.relocate(Math.max(0, vp.left() + vp.width() - readout.getWidth() - 4),
+                Math.max(0, vp.top() + vp.height() - readout.getHeight() - 4));
+        else readout.relocate(Math.max(0, w - readout.getWidth() - ChartLayout.MARGIN_RIGHT), h - readout.getHeight() - 6);
+    }
+
+    /** The title as the last draw showed it (shortened to fit when the chart is narrow). */
+    String drawnTitle() { return drawnTitle; }
+
+    /** Where the last draw put the title, in this region's coordinates. */
+    javafx.geometry.Bounds titleBounds() { return titleBounds; }
+
+    /** The labels of the x axis's ticks in the last draw. */
+    List<String> drawnXTicks() { return drawnXTicks; }
+
+    /** The readout label (tests check where it sits). */
+    Label readout() { return readout; }
+
+    /**
+     * The title fitted to {@code width}: the full title at the title font if it fits, else at a smaller font
+     * (down to 11 px), else with the start shortened ("…") so the end, which carries what the chart is (for
+     * example "residual (magnified ×50)"), stays whole.
+     */
+    static String[] fitTitle(String title, double width) {
+        for (double size = ChartLayout.TITLE_FONT_SIZE; size >= 11; size -= 1)
+            if (textWidth(title, size) <= width) return new String[] {title, Double.toString(size)};
+        String t = title;
+        while (t.length() > 4 && textWidth("…" + t, 11) > width) t = t.substring(1);
+        return new String[] {"…" + t.stripLeading(), "11"};
+    }
+
+    private static double textWidth(String s, double size) {
+        javafx.scene.text.Text t = new javafx.scene.text.Text(s);
+        t.setFont(Font.font("DejaVu Sans", FontWeight.BOLD, size));
+        return t.getLayoutBounds().getWidth();
     }
 
     @Override protected double computePrefWidth(double h) { return 800; }
@@ -237,7 +278,9 @@ public final class ChartCanvas extends Region {
         gc.setFont(FONT);
         gc.setTextBaseline(VPos.TOP);
         gc.setTextAlign(TextAlignment.CENTER);
-        for (Ticks.Tick k : xt) if (!k.label().isEmpty()) gc.fillText(k.label(), vp.px(k.value()), t + ph + 4);
+        List<String> xl = new ArrayList<>();
+        for (Ticks.Tick k : xt) if (!k.label().isEmpty()) { gc.fillText(k.label(), vp.px(k.value()), t + ph + 4); xl.add(k.label()); }
+        drawnXTicks = List.copyOf(xl);
         gc.setTextAlign(TextAlignment.RIGHT);
         gc.setTextBaseline(VPos.CENTER);
         for (Ticks.Tick k : yt) if (!k.label().isEmpty()) gc.fillText(k.label(), l - 6, vp.py(k.value()));
@@ -252,8 +295,14 @@ public final class ChartCanvas extends Region {
         gc.restore();
         gc.setTextAlign(TextAlignment.LEFT);
         gc.setTextBaseline(VPos.BASELINE);
-        gc.setFont(TITLE_FONT);
-        gc.fillText(spec.title(), l, 22);
+        double room = Math.max(40, w - l - 8);
+        if (!spec.title().equals(fitFor) || room != fitWidth) { fitted = fitTitle(spec.title(), room); fitFor = spec.title(); fitWidth = room; }
+        Font tf = Font.font("DejaVu Sans", FontWeight.BOLD, Double.parseDouble(fitted[1]));
+        gc.setFont(tf);
+        gc.fillText(fitted[0], l, 22);
+        drawnTitle = fitted[0];
+        double tw = textWidth(fitted[0], tf.getSize());
+        titleBounds = new javafx.geometry.BoundingBox(l, 22 - tf.getSize(), tw, tf.getSize() + 4);
         gc.setFont(FONT);
 
         // data, clipped to the plot area

@@ -33,6 +33,9 @@ final class TransferPanel {
     final Label modelMessage = new Label();
     private final Map<String, Double> values = new LinkedHashMap<>();
     private final java.util.Set<String> edited = new java.util.HashSet<>();
+    /** Text typed into a parameter's field that is not a number, by parameter name: shown under the sheet. */
+    private final Map<String, String> entryProblems = new LinkedHashMap<>();
+    private String modelError = "";
     private Runnable onChange = () -> {};
     private final AtomicLong generation = new AtomicLong();
     private volatile TransferCurve lastPrediction;
@@ -49,7 +52,7 @@ final class TransferPanel {
         topologyChoice.setId("topologyChoice");
         sheet.setId("modelSheet");
         sheet.setModeSwitcherVisible(false);
-        sheet.setPropertyEditorFactory(LiveNumberEditor::new);
+        sheet.setPropertyEditorFactory(item -> new LiveNumberEditor(item, this::entryProblem));
         sheet.setSearchBoxVisible(false);
         modelMessage.setId("modelMessage");
         modelMessage.setWrapText(true);
@@ -78,11 +81,20 @@ final class TransferPanel {
     /** The prediction now drawn, if any (tests compare it with the model's own result). */
     Optional<TransferCurve> lastPrediction() { return Optional.ofNullable(lastPrediction); }
 
+    /**
+     * Shows the parameters of {@code topology}. A value the user edited (a bias, a load…) stays when the new
+     * topology has the same parameter; the others take the topology's defaults.
+     */
     private void loadTopology(String topology) {
+        Map<String, Double> kept = new LinkedHashMap<>();
+        for (String k : edited) if (values.containsKey(k)) kept.put(k, values.get(k));
         values.clear();
+        edited.clear();
+        entryProblems.clear();
         ObservableList<PropertySheet.Item> items = FXCollections.observableArrayList();
         for (StageModelAdapter.Parameter p : model.get().parameters(topology)) {
-            values.put(p.key(), p.defaultValue());
+            if (kept.containsKey(p.key())) { values.put(p.key(), kept.get(p.key())); edited.add(p.key()); }
+            else values.put(p.key(), p.defaultValue());
             items.add(new Item(p));
         }
         sheet.getItems().setAll(items);
@@ -134,12 +146,26 @@ final class TransferPanel {
             Platform.runLater(() -> {
                 if (gen != generation.get()) return;
                 lastPrediction = p;
-                modelMessage.setText(m);
+                modelError = m;
+                showMessage();
                 draw(p, topology, m);
             });
         }, "outstage-model");
         th.setDaemon(true);
         th.start();
+    }
+
+    /** Called by an editor: the text of {@code item} is not a usable number ({@code problem}), or fine again (empty). */
+    private void entryProblem(PropertySheet.Item item, String problem) {
+        if (problem.isEmpty()) entryProblems.remove(item.getName()); else entryProblems.put(item.getName(), problem);
+        showMessage();
+    }
+
+    /** The entry problems first (what to correct), then the model's own message. */
+    private void showMessage() {
+        List<String> lines = new java.util.ArrayList<>(entryProblems.values());
+        if (!modelError.isEmpty()) lines.add(modelError);
+        modelMessage.setText(String.join("\n", lines));
     }
 
     private void draw(TransferCurve prediction, String topology, String error) {
@@ -167,18 +193,23 @@ final class TransferPanel {
         private final PropertySheet.Item item;
         private boolean setting;
 
-        LiveNumberEditor(PropertySheet.Item item) {
+        LiveNumberEditor(PropertySheet.Item item, java.util.function.BiConsumer<PropertySheet.Item, String> problems) {
             this.item = item;
             field.setPrefColumnCount(7);
             field.textProperty().addListener((o, a, b) -> {
                 if (setting) return;
+                String why = "";
                 try {
                     double v = Double.parseDouble(b.trim().replace(',', '.'));
-                    field.setStyle("");
-                    if (Double.isFinite(v)) item.setValue(v);
+                    if (Double.isFinite(v)) item.setValue(v); else why = "is not a finite number";
                 } catch (NumberFormatException e) {
-                    field.setStyle("-fx-text-fill: #a0281e;");
+                    why = b.trim().isEmpty() ? "is empty" : "is not a number";
                 }
+                String problem = why.isEmpty() ? "" : item.getName() + ": “" + b.trim() + "” " + why + "; the model keeps "
+                        + (item.getValue() instanceof Number n ? format(n.doubleValue()) : String.valueOf(item.getValue()));
+                field.setStyle(why.isEmpty() ? "" : "-fx-text-fill: #a0281e;");
+                field.setTooltip(why.isEmpty() ? null : new javafx.scene.control.Tooltip(problem));
+                problems.accept(item, problem);
             });
         }
 

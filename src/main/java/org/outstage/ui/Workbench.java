@@ -40,9 +40,17 @@ public final class Workbench extends Application {
         return new WorkbenchPane(defaultBackend(), new TransferPanel(defaultModel()));
     }
 
+    private WorkbenchPane pane;
+
+    @Override
+    public void stop() {
+        if (pane != null) pane.shutdown();   // no playback outlives the window
+    }
+
     @Override
     public void start(Stage stage) {
         WorkbenchPane pane = createPane();
+        this.pane = pane;
         Scene scene = new Scene(pane, 1360, 820);
         stage.setTitle("Outstage workbench");
         stage.setScene(scene);

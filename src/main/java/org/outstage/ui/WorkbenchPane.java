@@ -16,7 +16,6 @@ import javafx.beans.value.ChangeListener;
 import javafx.collections.FXCollections;
 import javafx.concurrent.Task;
 import javafx.concurrent.Worker;
-import javafx.embed.swing.SwingFXUtils;
 import javafx.geometry.Insets;
 import javafx.geometry.Pos;
 import javafx.scene.Node;
@@ -32,7 +31,6 @@ import javafx.scene.control.MenuItem;
 import javafx.scene.control.ProgressBar;
 import javafx.scene.control.SelectionMode;
 import javafx.scene.control.Spinner;
-import javafx.scene.control.SplitPane;
 import javafx.scene.control.Tab;
 import javafx.scene.control.TabPane;
 import javafx.scene.control.TableColumn;
@@ -40,7 +38,6 @@ import javafx.scene.control.TableView;
 import javafx.scene.control.TextField;
 import javafx.scene.control.TitledPane;
 import javafx.scene.control.Tooltip;
-import javafx.scene.image.WritableImage;
 import javafx.scene.input.Clipboard;
 import javafx.scene.input.ClipboardContent;
 import javafx.scene.input.KeyCode;
@@ -58,12 +55,8 @@ import javafx.scene.control.cell.PropertyValueFactory;
 import javafx.beans.property.ReadOnlyStringWrapper;
 import javafx.stage.FileChooser;
 import javafx.stage.Window;
-import javax.imageio.ImageIO;
+import org.outstage.capture.BenchManifest;
 import org.outstage.capture.Capture;
-import org.outstage.plot.ChartSpec;
-import org.outstage.plot.Charts;
-import org.outstage.plot.CsvExport;
-import org.outstage.report.SvgRenderer;
 
 /**
  * The workbench window's content: capture list with calibration on the left, views in the middle,
@@ -85,28 +78,51 @@ final class WorkbenchPane extends BorderPane {
     final Spinner<Integer> harmonicsSpinner = new Spinner<>(2, 50, 10);
     final ComboBox<String> referenceChoice = new ComboBox<>();
     final TabPane views = new TabPane();
-    final ChartCanvas waveformChart = chart("waveformChart");
-    final ChartCanvas residualChart = chart("residualChart");
-    final ChartCanvas spectrumChart = chart("spectrumChart");
-    final CheckBox spectrumRelativeBox = new CheckBox("dB re fundamental");
-    private ViewData shownData;
-    final ChartCanvas harmonicsChart = chart("harmonicsChart");
-    final ChartCanvas transferChart = chart("transferChart");
-    final ChartCanvas sweepChart = chart("sweepChart");
-    final TableView<FigureRow> figuresTable = new TableView<>();
-    final FlowPane summary = new FlowPane(14, 4);
+    final WaveformView waveformView = new WaveformView();
+    final SpectrumView spectrumView = new SpectrumView();
+    final HarmonicsView harmonicsView = new HarmonicsView();
+    final TransferView transferView;
+    final LevelSweepView sweepView = new LevelSweepView();
+    final LiveView liveView;
+    final ChartCanvas waveformChart = waveformView.waveformChart;
+    final ChartCanvas residualChart = waveformView.residualChart;
+    final ChartCanvas spectrumChart = spectrumView.spectrumChart;
+    final CheckBox spectrumRelativeBox = spectrumView.relativeBox;
+    final ChartCanvas harmonicsChart = harmonicsView.harmonicsChart;
+    final ChartCanvas transferChart;
+    final ChartCanvas sweepChart = sweepView.sweepChart;
+    final FiguresPanel figures = new FiguresPanel(t -> this.statusText.setText(t));
+    final TableView<FigureRow> figuresTable = figures.figuresTable;
+    final FlowPane summary = figures.summary;
     final Label statusText = new Label("Open captures with File ▸ Open, or drop files or folders here.");
     final ProgressBar progress = new ProgressBar(0);
     final Button cancelButton = new Button("Cancel");
     final TransferPanel transferPanel;
     private ChartCanvas currentChart = waveformChart;
+    private Node leftSide, rightSide;
     private Task<?> running;
     private UiSettings settings = UiSettings.DEFAULT;
     private boolean updatingControls;
 
     WorkbenchPane(Backend backend, TransferPanel transferPanel) {
+        this(backend, transferPanel, LiveSource.soundcard());
+    }
+
+    WorkbenchPane(Backend backend, TransferPanel transferPanel, LiveSource live) {
         this.backend = backend;
+        org.outstage.live.UserSettings user = org.outstage.live.UserSettings.standard();
+        this.liveView = new LiveView(live, user::cautionsDismissed, () -> {
+            try { user.dismissCautions(); } catch (IOException | RuntimeException e) { /* shown again next time */ }
+        });
+        // playback stops when the window closes
+        sceneProperty().addListener((o, a, sc) -> {
+            if (sc != null) sc.windowProperty().addListener((o2, w0, w) -> {
+                if (w != null) w.addEventHandler(javafx.stage.WindowEvent.WINDOW_HIDING, e -> liveView.stop());
+            });
+        });
         this.transferPanel = transferPanel;
+        this.transferView = new TransferView(transferPanel);
+        this.transferChart = transferView.transferChart;
         setId("workbench");
         setTop(menus());
         setLeft(captureSide());
@@ -124,12 +140,6 @@ final class WorkbenchPane extends BorderPane {
             e.consume();
         });
         showNothing();
-    }
-
-    private static ChartCanvas chart(String id) {
-        ChartCanvas c = new ChartCanvas();
-        c.setId(id);
-        return c;
     }
 
     // ---- layout -----------------------------------------------------------------------------------
@@ -230,42 +240,37 @@ final class WorkbenchPane extends BorderPane {
         return side;
     }
 
+    /** The views in tab order. */
+    List<WorkbenchView> allViews() { return List.of(waveformView, spectrumView, harmonicsView, transferView, sweepView, liveView); }
+
+    /** Stops anything live (the window is closing or the application stops). */
+    void shutdown() { liveView.stop(); }
+
     private Node viewTabs() {
         views.setId("views");
         views.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
-        SplitPane wave = new SplitPane(waveformChart, residualChart);
-        wave.setOrientation(javafx.geometry.Orientation.VERTICAL);
-        wave.setDividerPositions(0.5);
-        Tab t1 = tab("waveformTab", "Waveform and residual", wave);
-        Tab t2 = tab("spectrumTab", "Spectrum", spectrumChart);
-        Tab t3 = tab("harmonicsTab", "Harmonic profile", harmonicsChart);
-        SplitPane tr = new SplitPane(transferChart, transferPanel.node());
-        tr.setDividerPositions(0.55);
-        Tab t4 = tab("transferTab", "Transfer and model", tr);
-        Tab t5 = tab("sweepTab", "Level sweep", sweepChart);
-        views.getTabs().addAll(t1, t2, t3, t4, t5);
+        // six tabs in the middle column: tighter tab headers, so all titles show without the overflow menu
+        views.getStylesheets().add("data:text/css," + java.net.URLEncoder.encode(
+                ".tab-pane > .tab-header-area .tab { -fx-padding: 2 5 2 5; } "
+                        + ".tab-pane > .tab-header-area .tab .tab-label { -fx-font-size: 12px; }", java.nio.charset.StandardCharsets.UTF_8)
+                .replace("+", "%20"));
+        for (WorkbenchView v : allViews()) {
+            views.getTabs().add(v.tab());
+            for (ChartCanvas c : v.charts()) c.addEventFilter(javafx.scene.input.MouseEvent.MOUSE_PRESSED, e -> currentChart = c);
+        }
         views.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> currentChart = primaryChart(b));
-        for (ChartCanvas c : List.of(waveformChart, residualChart, spectrumChart, harmonicsChart, transferChart, sweepChart))
-            c.addEventFilter(javafx.scene.input.MouseEvent.MOUSE_PRESSED, e -> currentChart = c);
-        transferPanel.setOnChange(this::refreshTransfer);
+        // the Live view is its own task: it takes the whole width (the capture list and figures return with the other views)
+        views.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> {
+            boolean live = b != null && "liveTab".equals(b.getId());
+            if (live && getLeft() != null) { leftSide = getLeft(); rightSide = getRight(); setLeft(null); setRight(null); }
+            else if (!live && getLeft() == null && leftSide != null) { setLeft(leftSide); setRight(rightSide); }
+        });
         return views;
     }
 
     private ChartCanvas primaryChart(Tab t) {
-        if (t == null) return waveformChart;
-        return switch (t.getId()) {
-            case "spectrumTab" -> spectrumChart;
-            case "harmonicsTab" -> harmonicsChart;
-            case "transferTab" -> transferChart;
-            case "sweepTab" -> sweepChart;
-            default -> waveformChart;
-        };
-    }
-
-    private static Tab tab(String id, String title, Node content) {
-        Tab t = new Tab(title, content);
-        t.setId(id);
-        return t;
+        for (WorkbenchView v : allViews()) if (v.tab() == t && !v.charts().isEmpty()) return v.charts().get(0);
+        return waveformChart;
     }
 
     private Node settingsSide() {
@@ -276,14 +281,27 @@ final class WorkbenchPane extends BorderPane {
         harmonicsSpinner.setEditable(true);
         harmonicsSpinner.setPrefWidth(80);
         referenceChoice.setId("referenceChoice");
+        referenceChoice.setButtonCell(new ListCell<>() {
+            @Override protected void updateItem(String item, boolean empty) {
+                super.updateItem(item, empty);
+                setText(empty || item == null ? null : item);
+            }
+        });
+        referenceChoice.getButtonCell().setId("referenceCell");
         referenceChoice.getItems().setAll("none");
         referenceChoice.setValue("none");
         bandChoice.valueProperty().addListener((o, a, b) -> { if (b != null) changeSettings(settings.withBand(b)); });
         weightingBox.selectedProperty().addListener((o, a, b) -> changeSettings(settings.withAWeighting(b)));
         harmonicsSpinner.valueProperty().addListener((o, a, b) -> { if (b != null) changeSettings(settings.withHarmonics(b)); });
+        // the generator channel is a role of the selected capture's channels (from its notes or chosen here)
         referenceChoice.valueProperty().addListener((o, a, b) -> {
-            if (b == null || updatingControls) return;
-            changeSettings(settings.withReference(b.equals("none") ? OptionalInt.empty() : OptionalInt.of(Integer.parseInt(b) - 1)));
+            CaptureEntry e = selected();
+            if (b == null || updatingControls || e == null) return;
+            OptionalInt ref = b.equals("none") ? OptionalInt.empty() : OptionalInt.of(Integer.parseInt(b) - 1);
+            if (ref.equals(e.reference)) return;
+            e.reference = ref;
+            e.data = null;
+            analyzeSelected();
         });
         GridPane g = new GridPane();
         g.setHgap(6);
@@ -292,49 +310,13 @@ final class WorkbenchPane extends BorderPane {
         g.addRow(1, new Label("Weighting"), weightingBox);
         g.addRow(2, new Label("Harmonics up to H"), harmonicsSpinner);
         g.addRow(3, new Label("Reference channel"), referenceChoice);
-        spectrumRelativeBox.setId("spectrumRelativeBox");
-        // a view choice, not a measurement setting: it switches between two descriptions of the same spectrum
-        spectrumRelativeBox.selectedProperty().addListener((o, a, b) -> {
-            if (shownData != null) (b ? shownData.spectrumRelative() : shownData.spectrum()).showOn(spectrumChart);
-        });
-        g.addRow(4, new Label("Spectrum scale"), spectrumRelativeBox);
         TitledPane sp = new TitledPane("Measurement settings", g);
         sp.setCollapsible(false);
 
-        figuresTable.setId("figuresTable");
-        figuresTable.setColumnResizePolicy(TableView.CONSTRAINED_RESIZE_POLICY);
-        figuresTable.getColumns().add(column("Quantity", FigureRow::quantity, 125));
-        figuresTable.getColumns().add(column("Value", FigureRow::value, 85));
-        figuresTable.getColumns().add(column("Unit", FigureRow::unit, 38));
-        figuresTable.getColumns().add(column("Note", FigureRow::note, 170));
-        figuresTable.getSelectionModel().setSelectionMode(SelectionMode.MULTIPLE);
-        figuresTable.setOnKeyPressed(e -> {
-            if (new KeyCodeCombination(KeyCode.C, KeyCombination.SHORTCUT_DOWN).match(e)) copyFigures();
-        });
-        figuresTable.setPlaceholder(new Label("No figures yet"));
-        figuresTable.setRowFactory(tv -> new javafx.scene.control.TableRow<>() {
-            @Override protected void updateItem(FigureRow r, boolean empty) {
-                super.updateItem(r, empty);
-                setTooltip(empty || r == null ? null : new Tooltip(r.quantity() + ": " + r.value() + " " + r.unit() + (r.note().isEmpty() ? "" : "\n" + r.note())));
-            }
-        });
-        VBox.setVgrow(figuresTable, Priority.ALWAYS);
-        Button copy = new Button("Copy figures");
-        copy.setId("copyFigures");
-        copy.setOnAction(e -> copyFigures());
-        summary.setId("summary");
-        VBox side = new VBox(6, sp, new Label("Figures of the selected capture"), summary, figuresTable, copy);
+        VBox side = new VBox(6, sp, new Label("Figures of the selected capture"), summary, figuresTable, figures.copyButton);
         side.setPadding(new Insets(6));
-        side.setPrefWidth(440);
+        side.setPrefWidth(470);
         return side;
-    }
-
-    private static TableColumn<FigureRow, String> column(String title, java.util.function.Function<FigureRow, String> f, double w) {
-        TableColumn<FigureRow, String> c = new TableColumn<>(title);
-        c.setCellValueFactory(d -> new ReadOnlyStringWrapper(f.apply(d.getValue())));
-        c.setPrefWidth(w);
-        c.setSortable(false);
-        return c;
     }
 
     private Node statusBar() {
@@ -371,7 +353,13 @@ final class WorkbenchPane extends BorderPane {
 
     void openPaths(List<Path> paths) { openPaths(paths, Calibration.NONE); }
 
-    /** Opens files, and the capture files inside folders, with a calibration; each failure stays beside its file. */
+    /**
+     * Opens files, and the capture files inside folders. Each file takes the calibration notes of its folder
+     * ({@code bench.txt}, {@link BenchManifest}): full-scale volts, probe, sample rate, load, the channel roles
+     * (output, reference = generator) and the level series; a file no rule of the notes names takes
+     * {@code calibration}. Each failure stays beside its file; a bad notes file is reported and its folder opens
+     * with {@code calibration}.
+     */
     void openPaths(List<Path> paths, Calibration calibration) {
         List<Path> files = new ArrayList<>();
         for (Path p : paths) {
@@ -393,38 +381,85 @@ final class WorkbenchPane extends BorderPane {
             entries.add(e);
         }
         captureList.getItems().addAll(entries);
-        Task<List<Object>> t = new Task<>() {
-            @Override protected List<Object> call() {
-                List<Object> out = new ArrayList<>();
+        record Opened(Object captureOrError, Optional<BenchManifest.Entry> notes, String notesSource) {}
+        List<String> notesErrors = new ArrayList<>();
+        Task<List<Opened>> t = new Task<>() {
+            @Override protected List<Opened> call() {
+                java.util.Map<Path, Optional<BenchManifest>> manifests = new java.util.HashMap<>();
+                List<Opened> out = new ArrayList<>();
                 for (int i = 0; i < entries.size(); i++) {
                     if (isCancelled()) break;
-                    updateMessage("Opening " + entries.get(i).name + "…");
+                    CaptureEntry en = entries.get(i);
+                    updateMessage("Opening " + en.name + "…");
                     updateProgress(i, entries.size());
+                    Path file = en.path.get().toAbsolutePath();
+                    Path folder = file.getParent();
+                    Optional<BenchManifest> man = manifests.computeIfAbsent(folder, d -> {
+                        try {
+                            return Optional.of(BenchManifest.forFolder(d));
+                        } catch (Exception ex) {
+                            synchronized (notesErrors) { notesErrors.add(folder.resolve(BenchManifest.FILE_NAME) + ": " + oneLine(ex)); }
+                            return Optional.empty();
+                        }
+                    });
+                    Optional<BenchManifest.Entry> notes = man.flatMap(m -> m.firstPatternFor(file).map(x -> m.entryFor(file)));
+                    String source = notes.isPresent() ? BenchManifest.FILE_NAME + " in " + folder.getFileName() : "";
+                    Calibration cal = notes.map(Calibration::of).orElse(en.calibration);
                     try {
-                        out.add(backend.open(entries.get(i).path.get(), entries.get(i).calibration));
+                        out.add(new Opened(backend.open(en.path.get(), cal), notes, source));
                     } catch (Exception e) {
-                        out.add(oneLine(e));
+                        out.add(new Opened(oneLine(e), notes, source));
                     }
                 }
                 return out;
             }
         };
         t.setOnSucceeded(e -> {
-            List<Object> r = t.getValue();
+            List<Opened> r = t.getValue();
             for (int i = 0; i < r.size(); i++) {
                 CaptureEntry en = entries.get(i);
-                if (r.get(i) instanceof Capture c) en.capture = c; else en.error = (String) r.get(i);
+                Opened o = r.get(i);
+                if (o.notes().isPresent()) applyNotes(en, o.notes().get(), o.notesSource());
+                if (o.captureOrError() instanceof Capture c) {
+                    en.capture = c;
+                    settleChannels(en, o.notes());
+                } else en.error = (String) o.captureOrError();
             }
             captureList.refresh();
             long failed = entries.stream().filter(CaptureEntry::failed).count();
             statusText.setText("Opened " + (entries.size() - failed) + " of " + entries.size() + " file(s)"
-                    + (failed > 0 ? "; " + failed + " could not be read (see the list)" : ""));
+                    + (failed > 0 ? "; " + failed + " could not be read (see the list)" : "")
+                    + (notesErrors.isEmpty() ? "" : "; calibration notes not used: " + String.join("; ", notesErrors)));
+            if (!notesErrors.isEmpty()) importError.setText("Calibration notes not used: " + String.join("; ", notesErrors));
             CaptureEntry first = entries.stream().filter(x -> !x.failed()).findFirst().orElse(entries.get(0));
             if (captureList.getSelectionModel().getSelectedItem() == first) onSelect(first);
             else captureList.getSelectionModel().select(first);
             analyzeAllForSweep();
         });
         run(t, "Opening files");
+    }
+
+    /** Takes a capture's calibration, channel roles and series from its folder's notes. */
+    private static void applyNotes(CaptureEntry en, BenchManifest.Entry notes, String source) {
+        en.calibration = Calibration.of(notes);
+        // the generator channel: reference=N or the generator in roles= (the notes' one answer, BenchManifest.Entry)
+        OptionalInt gen = notes.generatorChannel();
+        en.reference = gen.isPresent() ? OptionalInt.of(gen.getAsInt() - 1) : OptionalInt.empty();
+        en.series = notes.series();
+        en.notes = "Calibration from " + source;
+    }
+
+    /**
+     * The channels of an opened capture: the notes' channel and reference (from 1) when they exist in the file;
+     * with a reference and no channel, the output is the first other channel (as {@code analyze --reference} does).
+     */
+    private static void settleChannels(CaptureEntry en, Optional<BenchManifest.Entry> notes) {
+        int n = en.capture.channelCount();
+        if (en.reference.isPresent() && (en.reference.getAsInt() >= n || n < 2)) en.reference = OptionalInt.empty();
+        OptionalInt ch = notes.map(BenchManifest.Entry::channel).orElse(OptionalInt.empty());
+        if (ch.isPresent() && ch.getAsInt() <= n) en.channel = ch.getAsInt() - 1;
+        if (en.reference.isPresent() && en.channel == en.reference.getAsInt()) en.channel = en.reference.getAsInt() == 0 ? 1 : 0;
+        if (en.channel >= n) en.channel = 0;
     }
 
     /** Adds a capture already in memory (tests, generated signals). */
@@ -455,20 +490,28 @@ final class WorkbenchPane extends BorderPane {
         updatingControls = true;
         try {
             importError.setText(e != null && e.failed() ? e.name + ": " + e.error : "");
-            captureWarnings.setText(e != null && e.capture != null ? String.join("\n", e.capture.warnings()) : "");
+            List<String> notes = new ArrayList<>();
+            if (e != null && !e.notes.isEmpty()) notes.add(e.notes);
+            if (e != null && e.capture != null) notes.addAll(e.capture.warnings());
+            captureWarnings.setText(String.join("\n", notes));
             calibrationError.setText("");
             if (e == null) { showNothing(); return; }
             fullScaleField.setText(text(e.calibration.fullScaleVolts()));
             probeField.setText(text(e.calibration.probeRatio()));
             loadField.setText(text(e.calibration.loadOhms()));
             channelChoice.getItems().clear();
-            referenceChoice.getItems().setAll("none");
+            List<String> refs = new ArrayList<>(List.of("none"));
             if (e.capture != null) {
-                for (int i = 1; i <= e.capture.channelCount(); i++) { channelChoice.getItems().add(i); referenceChoice.getItems().add(Integer.toString(i)); }
+                for (int i = 1; i <= e.capture.channelCount(); i++) { channelChoice.getItems().add(i); refs.add(Integer.toString(i)); }
                 channelChoice.setValue(e.channel + 1);
             }
-            referenceChoice.setValue(settings.referenceChannel().isPresent() && e.capture != null
-                    && settings.referenceChannel().getAsInt() < e.capture.channelCount() ? Integer.toString(settings.referenceChannel().getAsInt() + 1) : "none");
+            String ref = e.reference.isPresent() && refs.contains(Integer.toString(e.reference.getAsInt() + 1))
+                    ? Integer.toString(e.reference.getAsInt() + 1) : "none";
+            // value first cleared, then the items, then the value: a ComboBox whose items are replaced under its
+            // value shows a blank box
+            referenceChoice.setValue(null);
+            referenceChoice.getItems().setAll(refs);
+            referenceChoice.setValue(ref);
         } finally {
             updatingControls = false;
         }
@@ -498,14 +541,18 @@ final class WorkbenchPane extends BorderPane {
         }
         calibrationError.setText("");
         List<CaptureEntry> targets = toAll ? List.copyOf(captureList.getItems()) : List.of(sel);
-        for (CaptureEntry e : targets) { e.calibration = cal; e.data = null; }
+        for (CaptureEntry e : targets) {
+            e.calibration = new Calibration(cal.fullScaleVolts(), cal.probeRatio(), cal.loadOhms(), e.calibration.sampleRateHz());
+            e.data = null;
+            if (!e.notes.isEmpty()) e.notes = "Calibration entered here; channel roles and series from the notes";
+        }
         List<CaptureEntry> files = targets.stream().filter(e -> e.path.isPresent()).toList();
         if (files.isEmpty()) { analyzeSelected(); if (toAll) analyzeAllForSweep(); return; }
         Task<List<Object>> t = new Task<>() {
             @Override protected List<Object> call() {
                 List<Object> out = new ArrayList<>();
                 for (CaptureEntry e : files) {
-                    try { out.add(backend.open(e.path.get(), cal)); } catch (Exception ex) { out.add(oneLine(ex)); }
+                    try { out.add(backend.open(e.path.get(), e.calibration)); } catch (Exception ex) { out.add(oneLine(ex)); }
                 }
                 return out;
             }
@@ -539,7 +586,7 @@ final class WorkbenchPane extends BorderPane {
         Capture c = e.capture;
         int ch = e.channel;
         Calibration cal = e.calibration;
-        UiSettings s = settings;
+        UiSettings s = settings.withReference(e.reference);
         Task<ViewData> t = new Task<>() {
             @Override protected ViewData call() {
                 updateMessage("Analysing " + e.name + "…");
@@ -569,7 +616,7 @@ final class WorkbenchPane extends BorderPane {
             for (CaptureEntry e : todo) {
                 ViewData d;
                 try {
-                    d = backend.analyze(e.capture, e.channel, e.calibration, s, f -> {}, () -> false);
+                    d = backend.analyze(e.capture, e.channel, e.calibration, s.withReference(e.reference), f -> {}, () -> false);
                 } catch (RuntimeException ex) {
                     continue;
                 }
@@ -613,83 +660,20 @@ final class WorkbenchPane extends BorderPane {
     // ---- showing ----------------------------------------------------------------------------------
 
     private void showNothing() {
-        shownData = null;
         String m = "Open a capture to see its waveform, residual and figures.";
-        for (ChartCanvas c : List.of(waveformChart, residualChart, spectrumChart, harmonicsChart)) c.setMessage(m);
-        figuresTable.getItems().clear();
-        summary.getChildren().clear();
-        refreshTransfer();
+        for (WorkbenchView v : allViews()) v.clear(m);
+        figures.clear();
         refreshSweep();
     }
 
     void show(ViewData d) {
-        shownData = d;
-        d.waveform().showOn(waveformChart);
-        d.residual().showOn(residualChart);
-        (spectrumRelativeBox.isSelected() ? d.spectrumRelative() : d.spectrum()).showOn(spectrumChart);
-        d.harmonics().showOn(harmonicsChart);
-        figuresTable.getItems().setAll(d.figures());
-        summary.getChildren().clear();
-        if (d.notMeasured().isPresent()) {
-            Label l = new Label(d.notMeasured().get());
-            l.setId("notMeasured");
-            l.setWrapText(true);
-            l.setStyle("-fx-text-fill: #a0281e;");
-            summary.getChildren().add(l);
-        }
-        for (FigureRow r : d.figures()) {
-            if (!List.of("thdValue", "thdnValue", "floorValue", "frequencyValue", "levelValue", "powerValue").contains(r.id())) continue;
-            Label name = new Label(r.quantity());
-            name.setStyle("-fx-text-fill: #555555; -fx-font-size: 11px;");
-            Label value = new Label(r.value() + (r.unit().isEmpty() ? "" : " " + r.unit()));
-            value.setId(r.id());
-            value.setStyle("-fx-font-size: 15px; -fx-font-weight: bold;");
-            summary.getChildren().add(new VBox(0, name, value));
-        }
-        refreshTransfer();
+        for (WorkbenchView v : allViews()) v.show(d);
+        figures.show(d);
     }
 
-    private void refreshTransfer() {
-        CaptureEntry e = selected();
-        transferPanel.show(transferChart, e == null || e.data == null ? Optional.empty() : e.data.measuredCurve());
-    }
-
-    /** The level sweep over the selected captures (two or more selected), otherwise over all opened captures. */
+    /** The level sweep (see {@link LevelSweepView} for which captures it is over). */
     void refreshSweep() {
-        List<CaptureEntry> chosen = captureList.getSelectionModel().getSelectedItems().size() >= 2
-                ? List.copyOf(captureList.getSelectionModel().getSelectedItems()) : List.copyOf(captureList.getItems());
-        List<org.outstage.analysis.stage.LevelPoint> pts = new ArrayList<>();
-        for (CaptureEntry e : chosen)
-            if (e.data != null) e.data.sweepPoint().ifPresent(p -> pts.add(p.point()));
-        if (pts.size() < 2) {
-            sweepChart.setMessage("The level sweep needs two or more captures at rising level, in volts, with a load set ("
-                    + pts.size() + " so far). Select the captures of one series with Ctrl-click.");
-            return;
-        }
-        org.outstage.analysis.stage.LevelSweepResult r;
-        try {
-            r = org.outstage.analysis.stage.LevelSweep.analyze(pts);
-        } catch (IllegalArgumentException ex) {
-            sweepChart.setMessage("Not one level series: " + oneLine(ex) + ". Select the captures of one series with Ctrl-click.");
-            return;
-        }
-        List<org.outstage.analysis.stage.LevelPoint> sorted = r.points();
-        double[] p = new double[sorted.size()], a = new double[sorted.size()], b = new double[sorted.size()];
-        for (int i = 0; i < p.length; i++) { p[i] = sorted.get(i).powerWatts(); a[i] = sorted.get(i).thdRatio(); b[i] = sorted.get(i).thdNRatio(); }
-        String rated = r.atOnePercent().powerWatts().isPresent()
-                ? " — 1 % THD at " + AnalyzerBackend.num(r.atOnePercent().powerWatts().getAsDouble()) + " W" : "";
-        sweepChart.setSpec(Charts.levelSweep("THD and THD+N against output power" + rated, p, a, b, 0.01));
-    }
-
-    private void copyFigures() {
-        List<FigureRow> rows = figuresTable.getSelectionModel().getSelectedItems().isEmpty()
-                ? figuresTable.getItems() : figuresTable.getSelectionModel().getSelectedItems();
-        StringBuilder sb = new StringBuilder("Quantity\tValue\tUnit\tNote\n");
-        for (FigureRow r : rows) sb.append(r.tsv()).append('\n');
-        ClipboardContent c = new ClipboardContent();
-        c.putString(sb.toString());
-        Clipboard.getSystemClipboard().setContent(c);
-        statusText.setText("Copied " + rows.size() + " figure(s) to the clipboard");
+        sweepView.refresh(List.copyOf(captureList.getSelectionModel().getSelectedItems()), List.copyOf(captureList.getItems()), selected());
     }
 
     // ---- export -----------------------------------------------------------------------------------
@@ -699,7 +683,7 @@ final class WorkbenchPane extends BorderPane {
         if (c.spec().isEmpty()) { statusText.setText("Nothing to export: this chart is empty"); return; }
         FileChooser fc = new FileChooser();
         fc.setTitle("Export chart");
-        fc.setInitialFileName(safeName(c.spec().get().title()) + "." + kind);
+        fc.setInitialFileName(ChartExport.safeName(c.spec().get().title()) + "." + kind);
         File f = fc.showSaveDialog(getScene().getWindow());
         if (f == null) return;
         try {
@@ -710,24 +694,6 @@ final class WorkbenchPane extends BorderPane {
         }
     }
 
-    /** Writes the chart as PNG (what is on screen), SVG (same spec through the SVG renderer) or CSV (its data). */
-    static void export(ChartCanvas c, String kind, Path file) throws IOException {
-        ChartSpec spec = c.spec().orElseThrow(() -> new IllegalArgumentException("the chart is empty"));
-        Path tmp = file.resolveSibling(file.getFileName() + ".part");
-        switch (kind) {
-            case "svg" -> Files.writeString(tmp, SvgRenderer.render(spec, (int) Math.max(320, c.getWidth()), (int) Math.max(200, c.getHeight())));
-            case "csv" -> Files.writeString(tmp, CsvExport.toCsv(spec));
-            case "png" -> {
-                WritableImage img = c.snapshot(null, null);
-                ImageIO.write(SwingFXUtils.fromFXImage(img, null), "png", tmp.toFile());
-            }
-            default -> throw new IllegalArgumentException("export kind '" + kind + "' must be png, svg or csv");
-        }
-        Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING);
-    }
-
-    static String safeName(String title) {
-        String s = title.replaceAll("[^A-Za-z0-9._-]+", "-").replaceAll("-+", "-").replaceAll("^-|-$", "");
-        return s.isEmpty() ? "chart" : s;
-    }
+    /** Writes the chart as PNG, SVG or CSV ({@link ChartExport}). */
+    static void export(ChartCanvas c, String kind, Path file) throws IOException { ChartExport.export(c, kind, file); }
 }

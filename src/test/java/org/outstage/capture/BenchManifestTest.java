@@ -38,7 +38,7 @@ class BenchManifestTest {
         assertEquals("bench.txt: line 2: load=-8 must be a positive number", e.getMessage());
         Files.writeString(f, "*.wav gain=2\n");
         e = assertThrows(CaptureFormatException.class, () -> BenchManifest.read(f));
-        assertEquals("bench.txt: line 1: unknown key \"gain\" (known: fs-volts, probe, sample-rate, load, reference, channel, series)", e.getMessage());
+        assertEquals("bench.txt: line 1: unknown key \"gain\" (known: fs-volts, probe, sample-rate, load, reference, roles, channel, series)", e.getMessage());
         Files.writeString(f, "*.wav reference=1.5\n");
         e = assertThrows(CaptureFormatException.class, () -> BenchManifest.read(f));
         assertEquals("bench.txt: line 1: reference=1.5 must be a positive number (a channel from 1)", e.getMessage());

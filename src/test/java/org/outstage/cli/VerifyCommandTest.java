@@ -88,7 +88,9 @@ class VerifyCommandTest {
         assertTrue(page.startsWith("<!DOCTYPE html>") && page.contains("@media print") && page.contains("thermal runaway"), page);
         assertFalse(page.contains("<script") || page.contains("<link") || page.contains("src=\"http") || page.contains("href=\"http")
                 || page.contains("@import"), "self-contained");
-        assertTrue(page.contains("<svg") && page.contains("Distortion against output power"), "level chart from the 1, 60 and 70 W captures");
+        // no capture here belongs to a level series named in a bench.txt, so no THD-against-power chart (issue 11
+        // finding 4: a sweep is a named series; OneAnswerWalkTest draws one from the sample captures)
+        assertFalse(page.contains("Distortion against output power"), "level chart without a named series");
         try (Logbook lb = Logbook.open(Path.of(db))) {
             var s = lb.sessions().get(0);
             assertEquals(SessionKind.VERIFICATION, s.kind());

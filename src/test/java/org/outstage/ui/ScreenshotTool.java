@@ -83,14 +83,16 @@ public final class ScreenshotTool {
                 {"transferTab", "transfer-model.png"}, {"sweepTab", "level-sweep.png"}};
         for (String[] s : shots) {
             if (s[0].equals("sweepTab")) {
-                // the level sweep over the level series only (the bias and X-Y captures are other experiments)
+                // with the sample session, one level capture selected: the sweep is the series the notes name "level";
+                // generated captures have no notes, so they are selected together
                 fx(() -> {
                     var items = pane.captureList.getItems();
                     pane.captureList.getSelectionModel().clearSelection();
                     int focus = -1;
                     for (int i = 0; i < items.size(); i++)
-                        if (items.get(i).name.contains("-level-") || items.get(i).name.startsWith("demo-amp")) { pane.captureList.getSelectionModel().select(i); if (focus < 0) focus = i; }
+                        if (items.get(i).name.contains("-level-040W")) focus = i;
                     if (focus >= 0) pane.captureList.getSelectionModel().select(focus);
+                    else for (int i = 0; i < items.size(); i++) if (items.get(i).name.startsWith("demo-amp")) pane.captureList.getSelectionModel().select(i);
                     return null;
                 });
                 waitIdle(pane);
@@ -102,8 +104,58 @@ public final class ScreenshotTool {
             });
             waitIdle(pane);
             Thread.sleep(600);
+            if (s[0].equals("sweepTab")) fx(() -> { pointAt(pane.sweepChart, 0.8, 0.25); return null; });   // the readout, clear of the title
             save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve(s[1]));
         }
+        // the clipping capture: its figures (clip levels and asymmetry) and the wrapped notes
+        fx(() -> {
+            var items = pane.captureList.getItems();
+            for (int i = 0; i < items.size(); i++) if (items.get(i).name.contains("clipping")) pane.captureList.getSelectionModel().clearAndSelect(i);
+            pane.views.getSelectionModel().select(0);
+            return null;
+        });
+        waitIdle(pane);
+        fx(() -> { pane.figuresTable.getItems().stream().filter(r -> r.id().equals("crossoverValue")).findFirst().ifPresent(pane.figuresTable::scrollTo); return null; });
+        Thread.sleep(600);
+        save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve("figures-clipping.png"));
+        fx(() -> { pane.captureList.getSelectionModel().clearAndSelect(pickShowcase(pane)); return null; });
+        waitIdle(pane);
+        // the model sheet: another topology keeps the edited Vq; a value that is not a number says why
+        fx(() -> {
+            pane.views.getSelectionModel().select(pane.transferView.tab());
+            if (pane.transferPanel.topologyChoice.getItems().contains("cfp")) pane.transferPanel.topologyChoice.setValue("cfp");
+            return null;
+        });
+        waitIdle(pane);
+        Thread.sleep(400);
+        fx(() -> {
+            var field = pane.transferPanel.sheet.lookupAll(".text-field").stream().skip(1).findFirst();
+            field.ifPresent(f -> ((javafx.scene.control.TextField) f).setText("0,22Ω"));
+            return null;
+        });
+        Thread.sleep(400);
+        save(fx(() -> pane.views.snapshot(null, null)), out.resolve("model-entry.png"));
+        // the Live view, fed by a synthetic block series (SyntheticLiveSource: an invented stage whose bias trimmer
+        // turns up over 30 s of input) through the same listener as a LiveSession: no sound device here
+        SyntheticLiveSource synthetic = new SyntheticLiveSource(5, 30, 80);
+        LiveView live = fx(() -> {
+            LiveView v = new LiveView(synthetic, () -> true, () -> {});
+            int i = pane.views.getTabs().indexOf(pane.liveView.tab());
+            pane.views.getTabs().set(i, v.tab());
+            pane.views.getSelectionModel().select(v.tab());
+            v.fullScaleField.setText("40");
+            v.loadField.setText("8");
+            v.levelField.setText("-20");
+            v.biasField.setText("14.5");
+            v.sessionField.setText("3");
+            v.requestStart();
+            return v;
+        });
+        long liveUntil = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
+        while (System.nanoTime() < liveUntil && fx(() -> live.blocks() < 80)) Thread.sleep(200);
+        Thread.sleep(600);
+        save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve("live.png"));
+        fx(() -> { live.stop(); return null; });
         VBox cautions = fx(() -> {
             Label head = new Label(Cautions.TITLE);
             head.setStyle("-fx-font-size: 16px; -fx-font-weight: bold;");
@@ -153,6 +205,15 @@ public final class ScreenshotTool {
             }
             return Capture.inMemory(String.format(java.util.Locale.ROOT, "demo-amp-1kHz-%02.0fVpk.wav", peak), fs, SampleUnit.VOLTS, x);
         }).toList();
+    }
+
+    /** Moves the pointer (a synthetic mouse-moved event) to a fraction of the chart's width and height. */
+    private static void pointAt(ChartCanvas c, double fx, double fy) {
+        double x = c.getWidth() * fx, y = c.getHeight() * fy;
+        javafx.scene.Node target = c.getChildrenUnmodifiable().get(0);
+        javafx.event.Event.fireEvent(target, new javafx.scene.input.MouseEvent(javafx.scene.input.MouseEvent.MOUSE_MOVED, x, y, x, y,
+                javafx.scene.input.MouseButton.NONE, 0, false, false, false, false, false, false, false, false, false, false, null));
+        c.requestLayout();
     }
 
     private static void waitIdle(WorkbenchPane pane) throws Exception {

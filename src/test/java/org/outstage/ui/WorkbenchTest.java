@@ -135,7 +135,8 @@ class WorkbenchTest {
             assertEquals(tab, views.getSelectionModel().getSelectedItem().getId());
         }
         // the level sweep needs several captures with a load: it says so in place
-        assertTrue(pane.sweepChart.message().contains("two or more captures"));
+        assertTrue(pane.sweepChart.message().contains("two or more"), pane.sweepChart.message());
+        assertTrue(pane.sweepView.seriesLabel.getText().contains("name none"), pane.sweepView.seriesLabel.getText());
     }
 
     @Test
@@ -203,9 +204,9 @@ class WorkbenchTest {
         Path svg = dir.resolve("s.svg"), csv = dir.resolve("s.csv"), png = dir.resolve("s.png");
         robot.interact(() -> {
             try {
-                WorkbenchPane.export(pane.spectrumChart, "svg", svg);
-                WorkbenchPane.export(pane.spectrumChart, "csv", csv);
-                WorkbenchPane.export(pane.waveformChart, "png", png);
+                ChartExport.export(pane.spectrumChart, "svg", svg);
+                ChartExport.export(pane.spectrumChart, "csv", csv);
+                ChartExport.export(pane.waveformChart, "png", png);
             } catch (java.io.IOException e) {
                 throw new java.io.UncheckedIOException(e);
             }

@@ -541,12 +541,13 @@ final class TransferEngine {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "the samples near zero do not cover the crossing (too few distinct phases: a tone locked to the sample rate, or too short a record); use e.g. 997 Hz at 48 kHz, "
                     + rTxt;
-        } else if (hyst.detected()) {
-            v = BiasVerdict.UNCLEAR; conf = 0;
-            why = "rising and falling halves of the transfer curve differ (memory): the curve is not static, " + rTxt;
-        } else if (outerClipped) {
+        } else if (outerClipped) { // clipping next: it explains a rising/falling difference near the top as well
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "clipping reaches into the outer swing used as the large-signal reference; lower the level, " + rTxt;
+        } else if (hyst.detected()) {
+            v = BiasVerdict.UNCLEAR; conf = 0;
+            why = "rising and falling halves of the transfer curve differ (the output depends on the direction of travel, "
+                    + "e.g. charge storage or heating within the cycle): the curve is not static, " + rTxt;
         } else if (coarseStep > 0) {
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = String.format(java.util.Locale.ROOT, "the capture's resolution (steps of %.4g) is too coarse for the crossover region: the gain there reads the steps, not the stage; use a finer capture (soundcard), ",

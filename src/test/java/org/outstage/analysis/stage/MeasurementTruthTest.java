@@ -95,7 +95,7 @@ class MeasurementTruthTest {
                     double a = drive(level);
                     double[] y = StageFixtures.quantise(StageFixtures.noisy(clean(fs, level, vq), FULL_SCALE * 1e-6, seed++), FULL_SCALE, 24);
                     CrossoverMetrics c = crossover(y, fs);
-                    double truth = PushPullTruth.gainAtZero(p, a);      // implicit differentiation, references.md §7
+                    double truth = PushPullTruth.gainAtZero(p, a);      // implicit differentiation, docs/references.md §7
                     double err = Math.abs(c.gainAtZero() - truth);
                     double vErr = Math.abs(c.verdictRatio() - verdictTruth(c, p, a));
                     worst = Math.max(worst, Math.max(err, vErr));

@@ -1,0 +1,197 @@
+package org.outstage.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Optional;
+import java.util.OptionalDouble;
+import java.util.concurrent.Callable;
+import java.util.concurrent.TimeUnit;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.audio.AudioBackend;
+import org.outstage.audio.AudioUnavailableException;
+import org.outstage.audio.JavaSoundBackend;
+import org.outstage.json.Json;
+import org.outstage.live.LiveListener;
+import org.outstage.live.LiveResult;
+import org.outstage.live.LiveSession;
+import org.outstage.live.LiveSettings;
+import org.outstage.live.MeterCalibration;
+import org.outstage.live.UserSettings;
+import org.outstage.report.MeasurementJson;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+
+/**
+ * {@code outstage live}: rolling analysis of a soundcard input, optionally playing a stimulus. Every block goes
+ * through the same analysis as {@code analyze} with the same options. One line per block, or JSON Lines with
+ * {@code --json}. Exit 0 at the end of {@code --seconds} (or on Ctrl-C), 2 when there is no device or the format is
+ * refused, 1 when the input fails during the run.
+ */
+@Command(name = "live", mixinStandardHelpOptions = true, sortOptions = false,
+        description = "Measure a soundcard input block by block (THD, THD+N, crossover, clipping), optionally playing a test signal.")
+public final class LiveCommand implements Callable<Integer> {
+    @Spec picocli.CommandLine.Model.CommandSpec spec;
+    @Mixin LiveOptions live;
+    @Mixin AnalyzeOptions analyze;
+
+    @Option(names = "--block-seconds", paramLabel = "S", defaultValue = "1", description = "Length of each analysed block. Default: ${DEFAULT-VALUE}.")
+    double blockSeconds;
+
+    @Option(names = "--hop-seconds", paramLabel = "S", description = "Time between block starts; shorter than the block gives overlapping blocks. Default: the block length.")
+    Double hopSeconds;
+
+    @Option(names = "--seconds", paramLabel = "S", description = "Stop after S seconds of input (default: run until Ctrl-C).")
+    Double seconds;
+
+    @Option(names = "--record", paramLabel = "FILE.wav", description = "Keep the raw input in a 32-bit float WAV file (finalised on every exit, Ctrl-C included).")
+    Path record;
+
+    @Option(names = "--calibrate-volts", paramLabel = "V",
+            description = "With a steady tone playing: the rms volts a meter reads at the amplifier output. Derives and remembers full-scale volts for this input and channel.")
+    Double calibrateVolts;
+
+    @Option(names = "--json", description = "Print JSON Lines: one object per block (the analyze capture object plus block, time_s, dropped_frames).")
+    boolean json;
+
+    /** The backend; tests may replace it. */
+    static java.util.function.Supplier<AudioBackend> backend = JavaSoundBackend::new;
+    /** The user settings; tests point it elsewhere through OUTSTAGE_CONFIG. */
+    static java.util.function.Supplier<UserSettings> userSettings = UserSettings::standard;
+
+    @Override
+    public Integer call() throws Exception {
+        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        UserSettings user = userSettings.get();
+        if (seconds != null && !(seconds > 0)) throw new BadInputException("--seconds: " + seconds + " must be positive");
+        if (calibrateVolts != null && !(calibrateVolts > 0 && Double.isFinite(calibrateVolts)))
+            throw new BadInputException("--calibrate-volts: " + calibrateVolts + " must be a positive number of volts rms");
+        if (calibrateVolts != null && analyze.fsVolts != null) throw new BadInputException("--calibrate-volts and --fs-volts exclude each other");
+        if (record != null) {
+            Path dir = record.toAbsolutePath().getParent();
+            if (dir == null || !Files.isDirectory(dir)) throw new BadInputException("--record " + record + ": the folder does not exist");
+        }
+        LiveSettings s = live.settings(analyze, user);
+        if (calibrateVolts != null) s = s.withFullScaleVolts(OptionalDouble.empty());
+        double hop = hopSeconds == null ? blockSeconds : hopSeconds;
+        try {
+            s = s.withBlocks(blockSeconds, hop).withRecordFile(Optional.ofNullable(record));
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException("--block-seconds/--hop-seconds: " + e.getMessage());
+        }
+        LiveOptions.cautionsOnce(user, err);
+        double runSeconds = seconds != null ? seconds : calibrateVolts != null ? 3 * blockSeconds : Double.POSITIVE_INFINITY;
+        boolean inPlace = !json && System.console() != null;
+        List<Measurement> calibration = new ArrayList<>();
+        int calChannel = analyze.channel().orElse(1);
+        String label = "live:" + live.deviceKey();
+        LiveListener listener = new LiveListener() {
+            @Override
+            public void onBlock(LiveResult r) {
+                synchronized (out) {
+                    for (Measurement m : r.measurements()) {
+                        if (calibrateVolts != null && m.channel() == calChannel) calibration.add(m);
+                        if (json) out.println(Json.write(jsonLine(label, r, m)));
+                        else if (inPlace) out.print("\r" + textLine(r, m) + "   ");
+                        else out.println(textLine(r, m));
+                    }
+                    out.flush();
+                }
+            }
+
+            @Override
+            public void onFailure(String message) {
+                err.println("outstage: " + message);
+                err.flush();
+            }
+        };
+        LiveSession session = new LiveSession(backend.get(), s, listener);
+        if (Double.isFinite(runSeconds)) session.stopAfter(runSeconds);
+        try {
+            session.start();
+        } catch (AudioUnavailableException e) {
+            throw new BadInputException(e.getMessage());
+        } catch (java.io.IOException e) {
+            throw new BadInputException("--record " + record + ": " + e.getMessage());
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException(e.getMessage());
+        }
+        final LiveSettings started = s;
+        if (!json) {
+            err.printf(Locale.ROOT, "outstage: live from %s%s, %s; first samples after %.2f s%s%n", session.inputDeviceName(),
+                    started.stimulus().map(st -> " playing " + st.spec() + " at " + started.levelDbfs() + " dBFS on " + session.outputDeviceName()).orElse(""),
+                    started.inputFormat(), session.firstReadSeconds().orElse(0.0),
+                    started.fullScaleVolts().isPresent() ? String.format(Locale.ROOT, ", full scale %.4g V", started.fullScaleVolts().getAsDouble()) : ", full-scale units");
+            err.flush();
+        }
+        while (!session.awaitEnd(1, TimeUnit.SECONDS)) {
+            // Ctrl-C: the shutdown hook stops the session; this thread simply ends with the JVM
+        }
+        if (inPlace) out.println();
+        out.flush();
+        if (session.failure().isPresent()) return OutstageCommand.EXIT_FAULT;
+        if (session.droppedFrames() > 0 || session.skippedBlocks() > 0 || session.outputUnderruns() > 0)
+            err.printf(Locale.ROOT, "outstage: warning: %d input frames lost, %d blocks not analysed (analysis busy), output buffer found empty %d times%n",
+                    session.droppedFrames(), session.skippedBlocks(), session.outputUnderruns());
+        if (calibrateVolts != null) {
+            MeterCalibration.Result c;
+            try {
+                c = MeterCalibration.fromMeasurements(calibration, calibrateVolts);
+            } catch (IllegalArgumentException e) {
+                throw new BadInputException("--calibrate-volts: " + e.getMessage());
+            }
+            user.setFullScaleVolts(live.deviceKey(), calChannel, c.fullScaleVolts());
+            out.printf(Locale.ROOT, "full scale: %.5g V peak for input %s channel %d (tone %.5g FS rms over %d blocks, meter %.5g V rms); remembered in %s%n",
+                    c.fullScaleVolts(), live.deviceKey(), calChannel, c.toneRmsFullScale(), c.blocks(), c.meterRmsVolts(), user.file());
+            out.flush();
+        }
+        err.flush();
+        return OutstageCommand.EXIT_OK;
+    }
+
+    /** One JSON Lines object: block, time_s, dropped_frames first, then the analyze capture object. */
+    static Map<String, Object> jsonLine(String label, LiveResult r, Measurement m) {
+        Map<String, Object> o = new LinkedHashMap<>();
+        o.put("block", r.block());
+        o.put("time_s", r.timeSeconds());
+        o.put("dropped_frames", r.droppedFrames());
+        o.put("dropped_frames_total", r.droppedFramesTotal());
+        o.put("skipped_blocks", r.skippedBlocks());
+        o.put("analysis_s", r.analysisSeconds());
+        o.putAll(MeasurementJson.capture(label, m, r.capture().warnings()));
+        return o;
+    }
+
+    /** One readable line: level (or rms volts and power), THD, THD+N, gain at zero and verdict, clipping, drops. */
+    static String textLine(LiveResult r, Measurement m) {
+        StringBuilder sb = new StringBuilder();
+        sb.append(String.format(Locale.ROOT, "block %d  %.2f s  ch %d  ", r.block(), r.timeSeconds(), m.channel()));
+        if (!m.measured()) return sb.append("not measured: ").append(m.notMeasuredReason().orElse("")).append(drops(r)).toString();
+        double rms = m.fundamental().rms();
+        if (m.unit().equals("FS")) sb.append(String.format(Locale.ROOT, "%.2f dBFS", 20 * Math.log10(rms * Math.sqrt(2))));
+        else sb.append(String.format(Locale.ROOT, "%.4g %s rms", rms, m.unit()));
+        m.powerWatts().ifPresent(p -> sb.append(String.format(Locale.ROOT, " %.4g W", p.fundamentalWatts())));
+        sb.append(String.format(Locale.ROOT, "  %.2f Hz  THD %.4f %%  THD+N %.4f %%%s", m.fundamental().frequencyHz(), m.thd().percent(), m.thdN().percent(),
+                m.thdN().atFloor() ? " (floor)" : ""));
+        if (m.stage() instanceof StageDiagnosis.Measured d) {
+            sb.append(String.format(Locale.ROOT, "  gain@0 %.4f %s", d.crossover().gainAtZero(), d.crossover().verdict().label()));
+            sb.append(d.clipping().detected() ? "  CLIPPING" : "  no clip");
+        } else {
+            sb.append("  crossover n/a");
+        }
+        return sb.append(drops(r)).toString();
+    }
+
+    private static String drops(LiveResult r) {
+        return r.droppedFrames() > 0 ? String.format(Locale.ROOT, "  LOST %d frames", r.droppedFrames()) : "";
+    }
+}
