@@ -75,12 +75,21 @@ public final class SweepResponse {
         if (!(fHi > 4 * fLo)) throw new IllegalArgumentException("the stimulus is not a sweep of at least two octaves (found "
                 + Levels.formatHz(fLo) + "–" + Levels.formatHz(fHi) + ")");
         double eps = 1e-6 * level;
+        // a raised-cosine taper in log frequency over the first third and the last sixth of an octave of the swept
+        // band: the impulse responses then decay fast instead of ringing for seconds at the band's sharp edges
+        // (which would leak into the harmonic windows); the reported band starts where the taper is 1
+        double tLo = fLo * Math.pow(2, 1.0 / 3), tHi = fHi / Math.pow(2, 1.0 / 6);
         double[] h = new double[nfft];
         for (int k = 1; k < half; k++) {
+            double f = k * binW;
+            double g = f <= fLo || f >= fHi ? 0
+                    : f < tLo ? 0.5 * (1 - Math.cos(Math.PI * Math.log(f / fLo) / Math.log(tLo / fLo)))
+                    : f > tHi ? 0.5 * (1 - Math.cos(Math.PI * Math.log(fHi / f) / Math.log(fHi / tHi))) : 1;
+            if (g == 0) continue;
             double xr = x[2 * k], xi = x[2 * k + 1], yr = y[2 * k], yi = y[2 * k + 1];
             double d = xr * xr + xi * xi + eps / k;
-            h[2 * k] = (yr * xr + yi * xi) / d;
-            h[2 * k + 1] = (yi * xr - yr * xi) / d;
+            h[2 * k] = g * (yr * xr + yi * xi) / d;
+            h[2 * k + 1] = g * (yi * xr - yr * xi) / d;
         }
         fft.realInverse(h, true);
         // sweep duration from the stimulus envelope (constant amplitude while it sweeps)
@@ -99,13 +108,13 @@ public final class SweepResponse {
         double[] lin = new double[nfft];
         System.arraycopy(h, 0, lin, 0, half);
         for (int i = 1; i <= pre; i++) {
-            double t = (double) (pre - i) / pre;  // 0 at −1 sample, 1 at −pre
+            double t = (double) (i - 1) / pre;  // 0 at −1 sample, 1 at −pre
             double g = t < 0.5 ? 1 : 0.5 * (1 + Math.cos(Math.PI * (t - 0.5) / 0.5));
             lin[nfft - i] = h[nfft - i] * g;
         }
         fft.realForward(lin);
 
-        double lo = fLo * 1.1, hi = fHi / 1.1;
+        double lo = tLo * 1.02, hi = tHi / 1.02;
         List<FrequencyResponse.Point> raw = new ArrayList<>();
         double step = Math.pow(2, 1.0 / 24);
         double ref1k = 1000 >= lo && 1000 <= hi ? gainDbAt(lin, 1000, binW, half) : gainDbAt(lin, Math.sqrt(lo * hi), binW, half);
@@ -133,7 +142,12 @@ public final class SweepResponse {
             if (-i0 >= nfft / 2 || i1 - i0 < 16) break;
             int centre = (int) Math.round(-dt[m] * fs);
             double[] seg = new double[nfft];
-            for (int i = i0; i <= i1; i++) seg[Math.floorMod(i - centre, nfft)] = h[Math.floorMod(i, nfft)];
+            int fade = Math.max(1, (i1 - i0) / 8);   // half-Hann edges over an eighth of the window each side
+            for (int i = i0; i <= i1; i++) {
+                int e = Math.min(i - i0, i1 - i);
+                double g = e >= fade ? 1 : 0.5 * (1 - Math.cos(Math.PI * e / fade));
+                seg[Math.floorMod(i - centre, nfft)] = g * h[Math.floorMod(i, nfft)];
+            }
             fft.realForward(seg);
             hn[m] = seg;
             orders = m;
