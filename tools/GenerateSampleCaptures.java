@@ -18,9 +18,16 @@ import java.util.Random;
  * device idling at Iq = Vq/Re, solved per sample by Newton (inner: device current for a branch drive; outer:
  * output voltage from Kirchhoff's current law). The driver ahead of it has a gain of 20 and saturates at
  * +32.3 V / −33.0 V (slightly asymmetric rails) and, on the positive side, stays saturated 20 µs after its input
- * has come back (a touch of rail sticking). The output stage is measured without global feedback (a stage-test
- * jig), so its own crossover shape shows. Added: 150 µV RMS white noise and 0.4 mV of 50 Hz hum at the output;
- * a soundcard behind a 1:20 divider with 24-bit rounding (full scale = 40 V peak at the amplifier output).
+ * has come back (a touch of rail sticking), then lets go with a 0.5 µs time constant. The output stage is measured without global feedback (a stage-test
+ * jig), so its own crossover shape shows. The soundcard is modelled as a real one records: the stage is computed
+ * at 64 × 48 kHz (the pair's static curve tabulated every 0.5 mV of drive) and passed through an anti-alias filter (flat to 20 kHz, 120 dB down from 24 kHz) before every
+ * 64th sample is kept, so the clipping and crossover harmonics above 24 kHz do not fold back as non-harmonic lines.
+ * Added: 150 µV RMS white noise and 0.4 mV of 50 Hz hum at the output; a soundcard behind a 1:20 divider with
+ * 24-bit rounding (full scale = 40 V peak at the amplifier output).
+ *
+ * <p>To add a capture: describe the generator as a {@link Stimulus} (a lambda of time), record it with
+ * {@link #soundcard} (WAV) or {@link #stage} plus {@link #withNoise} (scope), and write it with {@link #writeWav}
+ * or {@link #writeScopeCsv}, with the next seed.
  */
 public final class GenerateSampleCaptures {
     static final double VT = 1.380649e-23 * 300 / 1.602176634e-19; // 25.852 mV
@@ -28,6 +35,10 @@ public final class GenerateSampleCaptures {
     static final double DRIVER_GAIN = 20, POS_LIMIT = 32.3, NEG_LIMIT = -33.0, STICK_SECONDS = 20e-6;
     static final double FS = 48000, TONE = 997, FULL_SCALE = 40, SECONDS = 1.5;
     static final double NOISE_RMS = 150e-6, HUM_PEAK = 0.4e-3;
+    static final double RELEASE_SECONDS = 0.5e-6, CURVE_STEP = 0.5e-3;
+    static final int OVERSAMPLE = 64;
+    static final java.util.Map<Double, double[]> CURVES = new java.util.HashMap<>();
+    static final double[] ANTI_ALIAS = kaiserLowPass(20_000, FS / 2, FS * OVERSAMPLE, 120);
 
     public static void main(String[] args) throws IOException {
         if (args.length != 1) {
@@ -41,55 +52,173 @@ public final class GenerateSampleCaptures {
         double[] watts = {1, 5, 20, 40, 55, 62, 70};
         long seed = 1000;
         for (double w : watts) {
-            double[] v = amplifier(n, FS, w, 0.026, 0, seed++).output;
+            double[] v = soundcard(sine(w, 0.026), 0.026, 0, n, seed++).output;
             writeWav(dir.resolve(String.format(Locale.ROOT, "da60-level-%03.0fW.wav", w)), FS, toFullScale(v, FULL_SCALE));
         }
         // bias series at 40 W (the outer swing well past the crossover region even at 90 mV)
         for (double mv : new double[] {3, 26, 90}) {
-            double[] v = amplifier(n, FS, 40, mv / 1000, 0, seed++).output;
+            double[] v = soundcard(sine(40, mv / 1000), mv / 1000, 0, n, seed++).output;
             writeWav(dir.resolve(String.format(Locale.ROOT, "da60-bias-%02.0fmV-40W.wav", mv)), FS, toFullScale(v, FULL_SCALE));
         }
         // stereo: generator on channel 1 (soundcard input direct, 2 V full scale), amplifier on channel 2 (1:20 divider)
-        Run xy = amplifier(n, FS, 20, 0.010, 7.7e-6, seed++);
+        Run xy = soundcard(sine(20, 0.010), 0.010, 7.7e-6, n, seed++);
         writeWav(dir.resolve("da60-xy-gen-ch1-amp-ch2-10mV-20W.wav"), FS, toFullScale(xy.generator, FULL_SCALE / DRIVER_GAIN),
                 toFullScale(xy.output, FULL_SCALE));
-        // scope CSV of the clipping case: 1 MS/s, 4000 points (about four cycles), 8-bit codes over 80 V
-        Run scope = amplifier(4000, 1e6, 70, 0.026, 0, seed++);
+        // scope CSV of the clipping case: 1 MS/s, 4000 points (about four cycles), 8-bit codes over 80 V. The scope's
+        // bandwidth is far above the harmonics that matter, so it samples the stage directly (no filter model).
+        Run scope = withNoise(stage(sine(70, 0.026), 0.026, 0, 1e6, 4000, 0), 1e6, seed++);
         writeScopeCsv(dir.resolve("da60-scope-70W-clipping.csv"), 1e6, scope.output);
         System.out.println("wrote the DA-60 session to " + dir.toAbsolutePath());
     }
 
+    /** Generator and amplifier-output waveforms in volts, sample for sample. */
     record Run(double[] generator, double[] output) {}
 
-    /**
-     * One capture: the generator tone for a nominal output power (unclipped), the driver, the output pair,
-     * noise and hum. {@code delaySeconds} delays the amplifier behind the generator.
-     */
-    static Run amplifier(int n, double fs, double nominalWatts, double vqVolts, double delaySeconds, long seed) {
-        Random rnd = new Random(seed);
-        double iq = vqVolts / RE;
-        double vh = VT * Math.log(iq / IS) + iq * RE;
-        double outPeak = Math.sqrt(2 * nominalWatts * RL);
-        double stagePeak = outPeak / 0.97; // stage drive that gives outPeak, by a few fixed-point steps (no clipping)
-        for (int k = 0; k < 6; k++) stagePeak *= outPeak / pair(stagePeak, vh, outPeak);
-        double genPeak = stagePeak / DRIVER_GAIN;
+    /** A generator waveform: volts at the amplifier's input at time t. New stimuli (two tones, bursts) are lambdas. */
+    interface Stimulus {
+        double volts(double tSeconds);
+    }
+
+    /** The 997 Hz generator sine that gives {@code nominalWatts} into RL at bias vq (the unclipped power). */
+    static Stimulus sine(double nominalWatts, double vqVolts) {
+        double genPeak = drivePeakFor(nominalWatts, vqVolts) / DRIVER_GAIN;
         double w = 2 * Math.PI * TONE, phase = 0.3;
-        double[] gen = new double[n], out = new double[n];
-        double lastOut = 0;
+        return t -> genPeak * Math.sin(w * t + phase);
+    }
+
+    /** Stage drive peak that gives the nominal output peak, by a few fixed-point steps (no clipping). */
+    static double drivePeakFor(double nominalWatts, double vqVolts) {
+        double vh = headroom(vqVolts);
+        double outPeak = Math.sqrt(2 * nominalWatts * RL);
+        double stagePeak = outPeak / 0.97;
+        for (int k = 0; k < 6; k++) stagePeak *= outPeak / pair(stagePeak, vh, outPeak);
+        return stagePeak;
+    }
+
+    /** Bias voltage of each branch for a quiescent drop vq across Re: VT·ln(Iq/Is) + Iq·Re. */
+    static double headroom(double vqVolts) {
+        double iq = vqVolts / RE;
+        return VT * Math.log(iq / IS) + iq * RE;
+    }
+
+    /**
+     * The noiseless stage: generator and amplifier output at {@code n} instants t0 + i/fs. The driver saturates at
+     * its limits and its positive side sticks STICK_SECONDS after its input comes back; {@code delaySeconds} delays
+     * the amplifier behind the generator.
+     */
+    static Run stage(Stimulus gen, double vqVolts, double delaySeconds, double fs, int n, double t0) {
+        double[] curve = stageCurve(vqVolts);
+        double[] g = new double[n], out = new double[n];
+        double releasedAt = Double.NaN, prevEarlier = Double.NaN, prevT = Double.NaN;
         for (int i = 0; i < n; i++) {
-            double t = i / fs;
-            gen[i] = genPeak * Math.sin(w * t + phase);
+            double t = t0 + i / fs;
+            g[i] = gen.volts(t);
             double td = t - delaySeconds;
-            double drive = DRIVER_GAIN * genPeak * Math.sin(w * td + phase);
-            // driver saturation; positive side sticks STICK_SECONDS after its input comes back below the limit
-            double earlier = DRIVER_GAIN * genPeak * Math.sin(w * (td - STICK_SECONDS) + phase);
-            double mid = DRIVER_GAIN * genPeak * Math.sin(w * (td - STICK_SECONDS / 2) + phase);
-            if (drive >= POS_LIMIT || earlier >= POS_LIMIT || mid >= POS_LIMIT) drive = POS_LIMIT;
+            double drive = DRIVER_GAIN * gen.volts(td);
+            double earlier = DRIVER_GAIN * gen.volts(td - STICK_SECONDS);
+            double mid = DRIVER_GAIN * gen.volts(td - STICK_SECONDS / 2);
+            if (drive >= POS_LIMIT || earlier >= POS_LIMIT || mid >= POS_LIMIT) {
+                drive = POS_LIMIT;
+                releasedAt = Double.NaN;
+            } else if (prevEarlier >= POS_LIMIT) {
+                // the sticking ends when the delayed input falls through the limit: that instant, interpolated
+                releasedAt = prevT + (t - prevT) * (prevEarlier - POS_LIMIT) / (prevEarlier - earlier);
+            }
+            if (!Double.isNaN(releasedAt)) // letting go of the rail takes RELEASE_SECONDS (time constant), not zero time
+                drive += (POS_LIMIT - drive) * Math.exp(-(t - releasedAt) / RELEASE_SECONDS);
             if (drive < NEG_LIMIT) drive = NEG_LIMIT;
-            lastOut = pair(drive, vh, lastOut);
-            out[i] = lastOut + NOISE_RMS * rnd.nextGaussian() + HUM_PEAK * Math.sin(2 * Math.PI * 50 * t);
+            out[i] = lookup(curve, drive);
+            prevEarlier = earlier;
+            prevT = t;
         }
-        return new Run(gen, out);
+        return new Run(g, out);
+    }
+
+    /** The pair's static curve at bias vq, tabulated every CURVE_STEP volts of drive over the driver's range. */
+    static double[] stageCurve(double vqVolts) {
+        return CURVES.computeIfAbsent(vqVolts, vq -> {
+            double vh = headroom(vq);
+            int m = (int) Math.ceil((POS_LIMIT - NEG_LIMIT) / CURVE_STEP) + 2;
+            double[] c = new double[m];
+            double last = 0;
+            for (int k = 0; k < m; k++) c[k] = last = pair(NEG_LIMIT + k * CURVE_STEP, vh, last);
+            return c;
+        });
+    }
+
+    /** Linear interpolation in the tabulated curve (error below 1 µV at a 0.5 mV step: far under the 24-bit step). */
+    static double lookup(double[] curve, double drive) {
+        double x = (drive - NEG_LIMIT) / CURVE_STEP;
+        int k = Math.min(curve.length - 2, Math.max(0, (int) Math.floor(x)));
+        double f = x - k;
+        return curve[k] + f * (curve[k + 1] - curve[k]);
+    }
+
+    /** Adds the bench's noise (white, NOISE_RMS) and 50 Hz hum to the output; samples at t = i/fs; seeded. */
+    static Run withNoise(Run r, double fs, long seed) {
+        Random rnd = new Random(seed);
+        double[] out = r.output.clone();
+        for (int i = 0; i < out.length; i++)
+            out[i] += NOISE_RMS * rnd.nextGaussian() + HUM_PEAK * Math.sin(2 * Math.PI * 50 * (i / fs));
+        return new Run(r.generator, out);
+    }
+
+    /**
+     * What the soundcard records at FS: the stage computed at OVERSAMPLE × FS, passed through the modelled
+     * anti-alias filter ({@link #ANTI_ALIAS}) and kept every OVERSAMPLE-th sample, then noise and hum (white within
+     * the soundcard's band). Harmonics above FS/2 are thereby removed instead of folding back as non-harmonic lines,
+     * as the decimation filter of a real soundcard's converter does.
+     */
+    static Run soundcard(Stimulus gen, double vqVolts, double delaySeconds, int n, long seed) {
+        int half = ANTI_ALIAS.length / 2, m = (n - 1) * OVERSAMPLE + ANTI_ALIAS.length;
+        Run fast = stage(gen, vqVolts, delaySeconds, FS * OVERSAMPLE, m, -half / (FS * OVERSAMPLE));
+        return withNoise(new Run(decimate(fast.generator, n), decimate(fast.output, n)), FS, seed);
+    }
+
+    /** y[k] = Σ h[j]·x[k·OVERSAMPLE + j]: the filter centred on each kept instant. */
+    static double[] decimate(double[] x, int n) {
+        double[] y = new double[n];
+        for (int k = 0; k < n; k++) {
+            double s = 0;
+            for (int j = 0, o = k * OVERSAMPLE; j < ANTI_ALIAS.length; j++) s += ANTI_ALIAS[j] * x[o + j];
+            y[k] = s;
+        }
+        return y;
+    }
+
+    /**
+     * Modelled anti-alias (decimation) filter: linear-phase windowed-sinc low-pass at FS·OVERSAMPLE, passband to
+     * 20 kHz, stopband from FS/2 = 24 kHz, Kaiser window for 120 dB of stopband attenuation. Kaiser's design
+     * formulas (Oppenheim and Schafer, Discrete-Time Signal Processing, 3rd ed., §7.6): β = 0.1102·(A − 8.7),
+     * taps N ≈ (A − 8)/(2.285·Δω) + 1 with Δω the transition width in rad/sample. Unity gain at DC.
+     */
+    static double[] kaiserLowPass(double passHz, double stopHz, double fs, double attenuationDb) {
+        double dw = 2 * Math.PI * (stopHz - passHz) / fs;
+        int taps = (int) Math.ceil((attenuationDb - 8) / (2.285 * dw)) + 1;
+        if (taps % 2 == 0) taps++;
+        double beta = 0.1102 * (attenuationDb - 8.7), fc = (passHz + stopHz) / 2 / fs;
+        int mid = taps / 2;
+        double[] h = new double[taps];
+        double sum = 0;
+        for (int i = 0; i < taps; i++) {
+            int k = i - mid;
+            double sinc = k == 0 ? 2 * fc : Math.sin(2 * Math.PI * fc * k) / (Math.PI * k);
+            double r = (double) k / mid;
+            h[i] = sinc * besselI0(beta * Math.sqrt(1 - r * r)) / besselI0(beta);
+            sum += h[i];
+        }
+        for (int i = 0; i < taps; i++) h[i] /= sum;
+        return h;
+    }
+
+    /** Modified Bessel function of the first kind, order 0, by its power series. */
+    static double besselI0(double x) {
+        double term = 1, sum = 1;
+        for (int k = 1; k < 200 && term > 1e-17 * sum; k++) {
+            term *= (x / (2 * k)) * (x / (2 * k));
+            sum += term;
+        }
+        return sum;
     }
 
     /** Device current for branch drive u: Re·I + VT·ln(I/Is) = u (Newton on ln I from an over-estimate). */
