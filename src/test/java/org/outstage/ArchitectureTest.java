@@ -67,4 +67,40 @@ class ArchitectureTest {
                 .should().dependOnClassesThat().resideInAnyPackage("org.outstage.cli..", "org.outstage.ui..")
                 .check(MAIN);
     }
+
+    @Test
+    void stimulus_importsNothingOfOursAndNoAudio() {
+        noClasses().that().resideInAPackage("org.outstage.stimulus..")
+                .should().dependOnClassesThat().resideInAnyPackage("org.outstage.capture..", "org.outstage.analysis..", "org.outstage.model..",
+                        "org.outstage.audio..", "org.outstage.live..", "org.outstage.cli..", "org.outstage.ui..", "org.outstage.report..",
+                        "org.outstage.logbook..", "org.outstage.verify..", "org.outstage.plot..", "org.outstage.json..", "javax.sound..",
+                        "java.io..", "java.nio..", "picocli..")
+                .check(MAIN);
+    }
+
+    @Test
+    void audio_importsOnlyStimulusCaptureAndJdk() {
+        noClasses().that().resideInAPackage("org.outstage.audio..")
+                .should().dependOnClassesThat().resideInAnyPackage("org.outstage.analysis..", "org.outstage.model..", "org.outstage.live..",
+                        "org.outstage.cli..", "org.outstage.ui..", "org.outstage.report..", "org.outstage.logbook..", "org.outstage.verify..",
+                        "org.outstage.plot..", "picocli..")
+                .allowEmptyShould(true) // TEMPORARY until the audio package lands on this branch
+                .check(MAIN);
+    }
+
+    @Test
+    void live_importsNoCliUiOrPicocli() {
+        noClasses().that().resideInAPackage("org.outstage.live..")
+                .should().dependOnClassesThat().resideInAnyPackage("org.outstage.cli..", "org.outstage.ui..", "org.outstage.report..",
+                        "org.outstage.logbook..", "picocli..", "java.sql..")
+                .allowEmptyShould(true) // TEMPORARY until the live package lands on this branch
+                .check(MAIN);
+    }
+
+    @Test
+    void onlyAudio_importsJavaSound() {
+        noClasses().that().resideOutsideOfPackage("org.outstage.audio..")
+                .should().dependOnClassesThat().resideInAnyPackage("javax.sound..")
+                .check(MAIN);
+    }
 }
