@@ -43,6 +43,18 @@ public final class SweepResponse {
      * @throws IllegalArgumentException when the stimulus carries no sweep
      */
     public static FrequencyResponse measure(double[] output, double[] stimulus, double sampleRateHz, boolean fromReference, Band deviationBand) {
+        return measure(output, stimulus, sampleRateHz, fromReference, deviationBand, false);
+    }
+
+    /**
+     * As {@link #measure(double[], double[], double, boolean, Band)}; with {@code align}, the stimulus is the known
+     * generated sweep rather than a captured reference: where the sweep starts in the capture is found by
+     * cross-correlation (the peak of the deconvolved impulse response, which is the cross-correlation with the
+     * inverse filter) and the responses are taken relative to it, so the phase excludes that delay (and with it
+     * any latency of the amplifier and the soundcard).
+     */
+    public static FrequencyResponse measure(double[] output, double[] stimulus, double sampleRateHz, boolean fromReference, Band deviationBand,
+                                            boolean align) {
         Require.notNull("output", output);
         Require.notNull("stimulus", stimulus);
         Require.positive("sampleRateHz", sampleRateHz);
@@ -78,20 +90,28 @@ public final class SweepResponse {
         // a raised-cosine taper in log frequency over the first third and the last sixth of an octave of the swept
         // band: the impulse responses then decay fast instead of ringing for seconds at the band's sharp edges
         // (which would leak into the harmonic windows); the reported band starts where the taper is 1
-        double tLo = fLo * Math.pow(2, 1.0 / 3), tHi = fHi / Math.pow(2, 1.0 / 6);
+        double tLo = fLo * Math.pow(2, 2.0 / 3), tHi = fHi / Math.pow(2, 1.0 / 6);
         double[] h = new double[nfft];
         for (int k = 1; k < half; k++) {
             double f = k * binW;
             double g = f <= fLo || f >= fHi ? 0
-                    : f < tLo ? 0.5 * (1 - Math.cos(Math.PI * Math.log(f / fLo) / Math.log(tLo / fLo)))
                     : f > tHi ? 0.5 * (1 - Math.cos(Math.PI * Math.log(fHi / f) / Math.log(fHi / tHi))) : 1;
             if (g == 0) continue;
             double xr = x[2 * k], xi = x[2 * k + 1], yr = y[2 * k], yi = y[2 * k + 1];
             double d = xr * xr + xi * xi + eps / k;
-            h[2 * k] = g * (yr * xr + yi * xi) / d;
-            h[2 * k + 1] = g * (yi * xr - yr * xi) / d;
+            double hr = g * (yr * xr + yi * xi) / d, hi = g * (yi * xr - yr * xi) / d;
+            double[] c = highPass(f, tLo);
+            h[2 * k] = hr * c[0] - hi * c[1];
+            h[2 * k + 1] = hr * c[1] + hi * c[0];
         }
         fft.realInverse(h, true);
+        if (align) {
+            int p = 0;
+            for (int i = 1; i < nfft; i++) if (Math.abs(h[i]) > Math.abs(h[p])) p = i;
+            double[] r = new double[nfft];
+            for (int i = 0; i < nfft; i++) r[i] = h[(i + p) % nfft];
+            h = r;
+        }
         // sweep duration from the stimulus envelope (constant amplitude while it sweeps)
         double peak = 0;
         for (double v : stimulus) peak = Math.max(peak, Math.abs(v));
@@ -113,6 +133,7 @@ public final class SweepResponse {
             lin[nfft - i] = h[nfft - i] * g;
         }
         fft.realForward(lin);
+        undoHighPass(lin, binW, tLo);
 
         double lo = tLo * 1.02, hi = tHi / 1.02;
         List<FrequencyResponse.Point> raw = new ArrayList<>();
@@ -149,6 +170,7 @@ public final class SweepResponse {
                 seg[Math.floorMod(i - centre, nfft)] = g * h[Math.floorMod(i, nfft)];
             }
             fft.realForward(seg);
+            undoHighPass(seg, binW, tLo);
             hn[m] = seg;
             orders = m;
         }
@@ -167,6 +189,39 @@ public final class SweepResponse {
             }
         }
         return new FrequencyResponse(raw, ref1k, low, high, dLo, dHi, dMin, dMax, thd, fLo, fHi, tSweep, fromReference);
+    }
+
+    /**
+     * A fourth-order Butterworth high-pass at {@code fcHz} (two analog biquads, Q = 0.5412 and 1.3066), complex gain at
+     * {@code fHz}. The deconvolved response is multiplied by it before the time windows and divided by it after:
+     * being causal and minimum-phase, it moves the ringing of the swept band's low edge to positive times, where the
+     * linear window keeps it, instead of letting it spread before t = 0 into the window's cut (the low edge of an
+     * exponential sweep is sharp in Hz, so its ringing lasts seconds).
+     */
+    static double[] highPass(double fHz, double fcHz) {
+        double w = fHz / fcHz;
+        double re = 1, im = 0;
+        for (double q : new double[] {0.541196100146197, 1.306562964876377}) {
+            // s²/(s² + s/Q + 1) at s = jw: −w² / (1 − w² + j·w/Q)
+            double nr = -w * w, dr = 1 - w * w, di = w / q;
+            double dd = dr * dr + di * di;
+            double br = nr * dr / dd, bi = -nr * di / dd;
+            double r2 = re * br - im * bi, i2 = re * bi + im * br;
+            re = r2;
+            im = i2;
+        }
+        return new double[] {re, im};
+    }
+
+    static void undoHighPass(double[] spec, double binW, double fcHz) {
+        for (int k = 1; k < spec.length / 2; k++) {
+            double[] c = highPass(k * binW, fcHz);
+            double d = c[0] * c[0] + c[1] * c[1];
+            if (d < 1e-20) { spec[2 * k] = 0; spec[2 * k + 1] = 0; continue; }
+            double r = spec[2 * k], i = spec[2 * k + 1];
+            spec[2 * k] = (r * c[0] + i * c[1]) / d;
+            spec[2 * k + 1] = (i * c[0] - r * c[1]) / d;
+        }
     }
 
     /** 20·lg of the rms of |H| over ±1/48 octave around f (at least the nearest bin). */

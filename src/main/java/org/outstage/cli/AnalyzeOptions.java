@@ -4,6 +4,8 @@ import java.util.OptionalDouble;
 import java.util.OptionalInt;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Band;
+import org.outstage.analysis.SpecConditions;
+import org.outstage.analysis.StimulusKind;
 import org.outstage.analysis.Weighting;
 import org.outstage.capture.CaptureOptions;
 import picocli.CommandLine.Option;
@@ -47,6 +49,30 @@ public final class AnalyzeOptions {
     @Option(names = "--reference", paramLabel = "N",
             description = "Channel (from 1) that carries the generator signal: gives the X-Y transfer curve of the other channels.")
     Integer reference;
+
+    @Option(names = "--stimulus", paramLabel = "KIND",
+            description = "What drove the amplifier: smpte, twin, sine, sweep, none (input shorted: noise and hum) or auto (recognise two tones or no tone). Default: auto.")
+    String stimulus;
+
+    @Option(names = "--driven", paramLabel = "N",
+            description = "The one driven channel (from 1) of a crosstalk capture: the other channels report the driven tone's level in dB.")
+    Integer driven;
+
+    @Option(names = "--rated-power", paramLabel = "W", description = "Rated output power, for the signal-to-noise ratio re rated power (with --load).")
+    Double ratedPower;
+
+    /** The spec-sheet conditions (stimulus, driven channel, rated power); bad values raise {@link BadInputException}. */
+    public SpecConditions specConditions() {
+        StimulusKind k;
+        try {
+            k = stimulus == null ? StimulusKind.AUTO : StimulusKind.parse(stimulus);
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException("--stimulus: " + e.getMessage());
+        }
+        if (driven != null && driven < 1) throw new BadInputException("--driven: " + driven + " must be 1 or more");
+        positive("--rated-power", ratedPower);
+        return new SpecConditions(k, driven == null ? OptionalInt.empty() : OptionalInt.of(driven), opt(ratedPower));
+    }
 
     /** The capture reader options. */
     public CaptureOptions captureOptions() {
