@@ -92,6 +92,7 @@ public final class SweepResponse {
         // (which would leak into the harmonic windows); the reported band starts where the taper is 1
         double tLo = fLo * Math.pow(2, 2.0 / 3), tHi = fHi / Math.pow(2, 1.0 / 6);
         double[] h = new double[nfft];
+        double[] hp = highPassTable(half, binW, tLo);
         for (int k = 1; k < half; k++) {
             double f = k * binW;
             double g = f <= fLo || f >= fHi ? 0
@@ -100,9 +101,9 @@ public final class SweepResponse {
             double xr = x[2 * k], xi = x[2 * k + 1], yr = y[2 * k], yi = y[2 * k + 1];
             double d = xr * xr + xi * xi + eps / k;
             double hr = g * (yr * xr + yi * xi) / d, hi = g * (yi * xr - yr * xi) / d;
-            double[] c = highPass(f, tLo);
-            h[2 * k] = hr * c[0] - hi * c[1];
-            h[2 * k + 1] = hr * c[1] + hi * c[0];
+            double cr = hp[2 * k], ci = hp[2 * k + 1];
+            h[2 * k] = hr * cr - hi * ci;
+            h[2 * k + 1] = hr * ci + hi * cr;
         }
         fft.realInverse(h, true);
         if (align) {
@@ -133,7 +134,7 @@ public final class SweepResponse {
             lin[nfft - i] = h[nfft - i] * g;
         }
         fft.realForward(lin);
-        undoHighPass(lin, binW, tLo);
+        undoHighPass(lin, hp);
 
         double lo = tLo * 1.02, hi = tHi / 1.02;
         List<FrequencyResponse.Point> raw = new ArrayList<>();
@@ -162,15 +163,17 @@ public final class SweepResponse {
             int i0 = (int) Math.ceil(from * fs), i1 = (int) Math.floor(to * fs);
             if (-i0 >= nfft / 2 || i1 - i0 < 16) break;
             int centre = (int) Math.round(-dt[m] * fs);
-            double[] seg = new double[nfft];
+            // a shorter transform (four times the window, at least 2^14) is enough for ±1/48-octave points
+            int len = Math.min(nfft, Math.max(1 << 14, Integer.highestOneBit(i1 - i0 + 1) << 3));
+            double[] seg = new double[len];
             int fade = Math.max(1, (i1 - i0) / 8);   // half-Hann edges over an eighth of the window each side
             for (int i = i0; i <= i1; i++) {
                 int e = Math.min(i - i0, i1 - i);
                 double g = e >= fade ? 1 : 0.5 * (1 - Math.cos(Math.PI * e / fade));
-                seg[Math.floorMod(i - centre, nfft)] = g * h[Math.floorMod(i, nfft)];
+                seg[Math.floorMod(i - centre, len)] = g * h[Math.floorMod(i, nfft)];
             }
-            fft.realForward(seg);
-            undoHighPass(seg, binW, tLo);
+            Fft.of(len).realForward(seg);
+            undoHighPass(seg, highPassTable(len / 2, fs / len, tLo));
             hn[m] = seg;
             orders = m;
         }
@@ -182,7 +185,7 @@ public final class SweepResponse {
                 double s = 0;
                 for (int m = 2; m <= orders; m++) {
                     if (m * f > hi) break;
-                    double gm = Math.pow(10, gainDbAt(hn[m], m * f, binW, half) / 20);
+                    double gm = Math.pow(10, gainDbAt(hn[m], m * f, fs / hn[m].length, hn[m].length / 2) / 20);
                     s += gm * gm;
                 }
                 thd.add(new FrequencyResponse.ThdPoint(f, Math.sqrt(s) / g1));
@@ -213,9 +216,24 @@ public final class SweepResponse {
         return new double[] {re, im};
     }
 
-    static void undoHighPass(double[] spec, double binW, double fcHz) {
+    /** {@link #highPass} at bins 0…half−1 of width {@code binW}, interleaved re, im. */
+    static double[] highPassTable(int half, double binW, double fcHz) {
+        double[] t = new double[2 * half];
+        double q1 = 1 / 0.541196100146197, q2 = 1 / 1.306562964876377;
+        for (int k = 1; k < half; k++) {
+            double w = k * binW / fcHz, w2 = w * w, dr = 1 - w2;
+            // (−w²)²/((dr + j·w/Q1)(dr + j·w/Q2)), the same as highPass(f, fc)
+            double pr = dr * dr - w2 * q1 * q2, pi = dr * w * (q1 + q2);
+            double d = pr * pr + pi * pi, n = w2 * w2;
+            t[2 * k] = n * pr / d;
+            t[2 * k + 1] = -n * pi / d;
+        }
+        return t;
+    }
+
+    static void undoHighPass(double[] spec, double[] table) {
         for (int k = 1; k < spec.length / 2; k++) {
-            double[] c = highPass(k * binW, fcHz);
+            double[] c = {table[2 * k], table[2 * k + 1]};
             double d = c[0] * c[0] + c[1] * c[1];
             if (d < 1e-20) { spec[2 * k] = 0; spec[2 * k + 1] = 0; continue; }
             double r = spec[2 * k], i = spec[2 * k + 1];
