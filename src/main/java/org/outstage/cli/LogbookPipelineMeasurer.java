@@ -23,12 +23,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
         List<Measurement> ms = Measuring.measure(cap, options.settings(), options.specConditions(), channel, options.reference(), file.toString());
         List<Measured> out = new ArrayList<>();
         List<String> skipped = new ArrayList<>();
-        boolean specOnly = false;
         for (Measurement m : ms) {
-            if (!m.measured() && (m.imd().isPresent() || m.noise().isPresent())) {
-                specOnly = true;   // a two-tone or noise capture: no THD figures to log, its spec-sheet figures go to verify
-                continue;
-            }
             if (!m.measured()) {
                 String why = file + ", channel " + m.channel() + ": not measured: " + m.notMeasuredReason().get();
                 if (channel.isPresent()) throw new BadInputException(why);
@@ -40,7 +35,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
             out.add(new Measured(m.channel(), cap.channelCount(), figures(m), Json.write(MeasurementJson.capture(file.toString(), m, cap.warnings())),
                     warnings));
         }
-        if (out.isEmpty() && !specOnly) throw new BadInputException(skipped.isEmpty() ? file + ": no channel to measure" : skipped.get(0));
+        if (out.isEmpty()) throw new BadInputException(skipped.isEmpty() ? file + ": no channel to measure" : skipped.get(0));
         return out;
     }
 
