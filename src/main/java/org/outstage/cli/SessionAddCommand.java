@@ -23,7 +23,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code session add ID --bias-mv MV CAPTURE}: measures the capture and commits one bias step; exit 0 only once committed. */
-@Command(name = "add", description = "Measure a capture and add it as a bias step; exits 0 only after the step is committed.")
+@Command(name = "add", mixinStandardHelpOptions = true, description = "Measure a capture and add it as a bias step; exits 0 only after the step is committed.")
 public final class SessionAddCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

@@ -9,7 +9,7 @@ import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Parameters;
 
 /** {@code session end ID}. */
-@Command(name = "end", description = "End a session; no steps can be added after.")
+@Command(name = "end", mixinStandardHelpOptions = true, description = "End a session; no steps can be added after.")
 public final class SessionEndCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

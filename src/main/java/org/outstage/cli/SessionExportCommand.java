@@ -14,7 +14,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code session export ID --csv|--json [--output FILE]}. */
-@Command(name = "export", description = "Export a session as CSV or JSON (to stdout, or to --output FILE).")
+@Command(name = "export", mixinStandardHelpOptions = true, description = "Export a session as CSV or JSON (to stdout, or to --output FILE).")
 public final class SessionExportCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

@@ -16,7 +16,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code session import FILE}: reads a CSV or JSON export into the logbook as a new session. */
-@Command(name = "import", description = "Import a session export (CSV or JSON) as a new session; prints its id.")
+@Command(name = "import", mixinStandardHelpOptions = true, description = "Import a session export (CSV or JSON) as a new session; prints its id.")
 public final class SessionImportCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

@@ -14,7 +14,7 @@ import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code session list}: every session, oldest first. */
-@Command(name = "list", description = "List the sessions in the logbook.")
+@Command(name = "list", mixinStandardHelpOptions = true, description = "List the sessions in the logbook.")
 public final class SessionListCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

@@ -22,7 +22,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code session show ID}: the steps, the trend of the crossover figures and THD, the recommendation, the drift. */
-@Command(name = "show", description = "Show a session: its steps, the bias recommendation and the drift.")
+@Command(name = "show", mixinStandardHelpOptions = true, description = "Show a session: its steps, the bias recommendation and the drift.")
 public final class SessionShowCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

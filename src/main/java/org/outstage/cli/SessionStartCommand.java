@@ -15,7 +15,7 @@ import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code session start --unit NAME}: prints the new session's id. */
-@Command(name = "start", description = "Start a session for a unit; prints the session id.")
+@Command(name = "start", mixinStandardHelpOptions = true, description = "Start a session for a unit; prints the session id.")
 public final class SessionStartCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

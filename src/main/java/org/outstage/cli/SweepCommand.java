@@ -25,7 +25,7 @@ import picocli.CommandLine.Spec;
  * notion), interpolated between points. Output power is {@code V_rms²/R} of the whole record without DC.
  */
 @Command(name = "sweep", mixinStandardHelpOptions = true, sortOptions = false,
-        description = "THD and THD+N against output power over a level series, and the power at 1 % and 10 % THD.")
+        description = "THD and THD+N against output power over a level series, and the power at 1 %% and 10 %% THD.")
 public final class SweepCommand implements Callable<Integer> {
     @Spec picocli.CommandLine.Model.CommandSpec spec;
 

@@ -41,7 +41,7 @@ import picocli.CommandLine.Parameters;
  * {@code --allow-unmeasured}); 2 on bad input (nothing is logged then). The result is logged as a
  * verification session.
  */
-@Command(name = "verify", description = "Check captures against a spec profile; exit 0 all pass, 1 a limit fails or is not measured, 2 bad input.")
+@Command(name = "verify", mixinStandardHelpOptions = true, description = "Check captures against a spec profile; exit 0 all pass, 1 a limit fails or is not measured, 2 bad input.")
 public final class VerifyCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;

@@ -33,7 +33,7 @@ import picocli.CommandLine.Parameters;
  * it, one line per capture. Ctrl-C stops cleanly: the step in progress is either committed or, if the
  * process dies mid-way, rolled back by SQLite; nothing is half-written.
  */
-@Command(name = "watch", description = "Add each new capture in a folder to a bias session as it is written; one line per capture.")
+@Command(name = "watch", mixinStandardHelpOptions = true, description = "Add each new capture in a folder to a bias session as it is written; one line per capture.")
 public final class WatchCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
