@@ -88,7 +88,8 @@ public final class Analyzer {
      *     (SMPTE RP120 modulation method; IEC 60268-3 / DIN 45403 difference-frequency method);</li>
      * <li>noise and hum when the stimulus is {@link StimulusKind#NONE}, or, with AUTO, when no tone is found:
      *     the measurement is "not measured", or its fundamental is below 10 mV in a capture in volts (the same
-     *     rule as verify's noise limit); band and A-weighting after AES17 / IEC 61672-1;</li>
+     *     rule as verify's noise limit) and no driven channel is named; band and A-weighting after AES17 /
+     *     IEC 61672-1;</li>
      * <li>crosstalk when a driven channel other than this one is named.</li>
      * </ul>
      */
@@ -98,7 +99,8 @@ public final class Analyzer {
         StimulusKind st = conditions.stimulus();
         boolean wantImd = st == StimulusKind.SMPTE || st == StimulusKind.TWIN || (st == StimulusKind.AUTO && !m.measured());
         boolean weak = !m.measured() || (capture.unit() == SampleUnit.VOLTS && m.fundamental().rms() < NOISE_TONE_LIMIT_VOLTS);
-        boolean wantNoise = st == StimulusKind.NONE || (st == StimulusKind.AUTO && weak);
+        // a channel of a crosstalk capture is not a noise capture, however weak its tone
+        boolean wantNoise = st == StimulusKind.NONE || (st == StimulusKind.AUTO && weak && conditions.drivenChannel().isEmpty());
         int driven = conditions.drivenChannel().orElse(0) - 1;
         if (driven >= capture.channelCount())
             throw new IllegalArgumentException("driven channel " + (driven + 1) + " does not exist in " + capture.name()
