@@ -122,7 +122,11 @@ public final class VerifyCommand implements Callable<Integer> {
                 u = lb.unit(u.name()).orElse(u);
             }
         }
-        List<String> charts = report != null ? ReportCharts.forVerification(result, channels) : List.of();
+        List<String> charts = new ArrayList<>();
+        if (report != null) {
+            charts.addAll(ReportCharts.forVerification(result, channels));
+            charts.addAll(ReportCharts.forSpecSheet(readings));
+        }
         ReportDocument doc = new ReportDocument(u, session, result, channels, charts, Instant.now(), SessionSupport.programVersion());
         if (report != null) org.outstage.report.AtomicFile.write(report, HtmlReport.render(doc));
         if (reportJson != null) org.outstage.report.AtomicFile.write(reportJson, Json.pretty(ReportJson.of(doc)) + "\n");
@@ -157,7 +161,13 @@ public final class VerifyCommand implements Callable<Integer> {
             if (open.isEmpty()) throw new BadInputException(openCircuit + ": the open-circuit capture has no tone to measure");
         }
         for (Path c : captures) {
-            Measuring.FileResult fr = Measuring.measure(c, analyze);
+            Measuring.FileResult fr;
+            try {
+                fr = Measuring.measure(c, analyze);
+            } catch (BadInputException e) {
+                spec.commandLine().getErr().println("outstage: warning: no spec-sheet figures: " + e.getMessage());
+                continue;
+            }
             String name = c.getFileName().toString();
             for (var m : fr.measurements()) {
                 SpecReading r = SpecReading.of(name, m.channel(), m.unit(), m.settings().loadOhms())
