@@ -111,6 +111,29 @@ class SpecCommandsTest {
 
     @Test
     @SuppressWarnings("unchecked")
+    void responseJson_knownSweepWithoutReference_startFoundByCrossCorrelation_wireIsFlat() throws Exception {
+        double fs = 48000;
+        double[] played = ResponseCommand.render("sweep:5-20k,4", fs);
+        int lead = 14_321;   // the capture starts 0.298 s before the sweep
+        double[] y = new double[played.length + lead + 4800];
+        for (int i = 0; i < played.length; i++) y[lead + i] = 0.25 * played[i];
+        Path wav = dir.resolve("known.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, y);
+        CliRun r = CliRun.of("response", "--sweep", "sweep:5-20k,4", "--json", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> o = (Map<String, Object>) Json.parse(r.out());
+        assertEquals(false, o.get("from_reference"));
+        for (Object p : (List<Object>) o.get("points")) {
+            Map<String, Object> m = (Map<String, Object>) p;
+            // a wire: flat (0.05 dB, the in-band target) and, once the start is found, no phase
+            assertEquals(0, ((Number) m.get("gain_re_1khz_db")).doubleValue(), 0.05);
+            assertEquals(0, ((Number) m.get("phase_deg")).doubleValue(), 1.0);
+        }
+        assertEquals(2, CliRun.of("response", wav.toString()).exit(), "no reference and no sweep: bad input");
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
     void impedanceJson_dividerOf0Point1Ohm() throws Exception {
         double fs = 48000;
         Path open = dir.resolve("open.wav"), loaded = dir.resolve("loaded.wav");
