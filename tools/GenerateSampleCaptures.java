@@ -68,7 +68,68 @@ public final class GenerateSampleCaptures {
         // bandwidth is far above the harmonics that matter, so it samples the stage directly (no filter model).
         Run scope = withNoise(stage(sine(70, 0.026), 0.026, 0, 1e6, 4000, 0), 1e6, seed++);
         writeScopeCsv(dir.resolve("da60-scope-70W-clipping.csv"), 1e6, scope.output);
+        specSheetCaptures(dir, 2000);
         System.out.println("wrote the DA-60 session to " + dir.toAbsolutePath());
+    }
+
+    // ------------------------------------------------------------------------------------------------------------
+    // Issue 12: one capture of each spec-sheet stimulus (IMD, noise, sweep, crosstalk, output impedance). Seeds from
+    // 2000 so the captures above keep theirs. Levels are in the DA-60's amplifier-output volts like the rest.
+
+    /** Output impedance of the invented DA-60 at 1 kHz (damping factor 200 into 8 Ω). */
+    static final double ZOUT = 0.04;
+    /** Crosstalk from the driven channel into the other at 997 Hz (−72 dB). */
+    static final double CROSSTALK = Math.pow(10, -72 / 20.0);
+    /** The DA-60's input coupling: a first-order high-pass at 3.5 Hz (the sweep capture shows it). */
+    static final double INPUT_HIGH_PASS_HZ = 3.5;
+
+    static void specSheetCaptures(Path dir, long seed) throws IOException {
+        int n = (int) Math.round(FS * SECONDS);
+        // SMPTE-type two tones, 60 Hz + 7 kHz at 4:1, summed peak as a 10 W sine's peak
+        double p10 = drivePeakFor(10, 0.026) / DRIVER_GAIN;
+        Stimulus smpte = t -> p10 * (0.8 * Math.sin(2 * Math.PI * 60 * t) + 0.2 * Math.sin(2 * Math.PI * 7000 * t + 0.5));
+        writeWav(dir.resolve("da60-imd-smpte-60Hz-7kHz-10W.wav"), FS, toFullScale(soundcard(smpte, 0.026, 0, n, seed++).output, FULL_SCALE));
+        // twin tone 19 + 20 kHz, equal amplitudes, same summed peak
+        Stimulus twin = t -> p10 * 0.5 * (Math.sin(2 * Math.PI * 19000 * t) + Math.sin(2 * Math.PI * 20000 * t + 0.5));
+        writeWav(dir.resolve("da60-imd-twin-19k-20k-10W.wav"), FS, toFullScale(soundcard(twin, 0.026, 0, n, seed++).output, FULL_SCALE));
+        // input shorted: the output is the bench's noise and 50 Hz hum (withNoise) and nothing else
+        Run quiet = withNoise(new Run(new double[n], new double[n]), FS, seed++);
+        writeWav(dir.resolve("da60-noise-input-shorted.wav"), FS, toFullScale(quiet.output, FULL_SCALE));
+        // exponential sweep 1 Hz–22 kHz, 8 s, at a 1 W sine's peak; generator on channel 1, amplifier on channel 2.
+        // The input high-pass is applied to the recorded output (bilinear, pre-warped): a simplification, since in
+        // the amplifier it precedes the stage, harmless at 1 W where the stage is nearly linear.
+        double p1 = drivePeakFor(1, 0.026) / DRIVER_GAIN, t = 8, l = Math.log(22000 / 1.0);
+        Stimulus sweep = u -> u < 0 || u >= t ? 0 : p1 * Math.sin(2 * Math.PI * 1.0 * t / l * (Math.exp(u * l / t) - 1));
+        int ns = (int) Math.round(FS * (t + 0.5));
+        Run sw = soundcard(sweep, 0.026, 0, ns, seed++);
+        writeWav(dir.resolve("da60-sweep-gen-ch1-amp-ch2-1W.wav"), FS, toFullScale(sw.generator, FULL_SCALE / DRIVER_GAIN),
+                toFullScale(highPass(sw.output, INPUT_HIGH_PASS_HZ, FS), FULL_SCALE));
+        // crosstalk: channel 1 driven at 10 W, channel 2 undriven with the driven output leaking in at −72 dB
+        Run driven = soundcard(sine(10, 0.026), 0.026, 0, n, seed++);
+        double[] leak = new double[n];
+        for (int i = 0; i < n; i++) leak[i] = CROSSTALK * driven.output[i];
+        Run other = withNoise(new Run(new double[n], leak), FS, seed++);
+        writeWav(dir.resolve("da60-crosstalk-ch1-driven-10W.wav"), FS, toFullScale(driven.output, FULL_SCALE), toFullScale(other.output, FULL_SCALE));
+        // output impedance: the 1 W tone into 8 Ω, and the same drive open-circuit, V_open = V_loaded·(RL + ZOUT)/RL
+        Run loaded = soundcard(sine(1, 0.026), 0.026, 0, n, seed++);
+        Run openRun = soundcard(sine(1, 0.026), 0.026, 0, n, seed++);
+        double[] open = new double[n];
+        for (int i = 0; i < n; i++) open[i] = openRun.output[i] * (RL + ZOUT) / RL;
+        writeWav(dir.resolve("da60-zout-loaded-8ohm-1W.wav"), FS, toFullScale(loaded.output, FULL_SCALE));
+        writeWav(dir.resolve("da60-zout-open-1W.wav"), FS, toFullScale(open, FULL_SCALE));
+    }
+
+    /** First-order high-pass at fc by the bilinear transform with pre-warping: y = a·(y₋₁ + x − x₋₁), a = 1/(1 + K), K = tan(π·fc/fs). */
+    static double[] highPass(double[] x, double fc, double fs) {
+        double k = Math.tan(Math.PI * fc / fs), a = 1 / (1 + k), b = (1 - k) / (1 + k);
+        double[] y = new double[x.length];
+        double x1 = 0, y1 = 0;
+        for (int i = 0; i < x.length; i++) {
+            y[i] = b * y1 + a * (x[i] - x1);
+            x1 = x[i];
+            y1 = y[i];
+        }
+        return y;
     }
 
     /** Generator and amplifier-output waveforms in volts, sample for sample. */

@@ -79,6 +79,52 @@ public final class Analyzer {
         return new Run(capture, channelIndex, settings).run();
     }
 
+    /**
+     * Analyses channel {@code channelIndex} and adds the spec-sheet figures the conditions call for
+     * ({@link SpecLines}; sources in docs/methods.md):
+     * <ul>
+     * <li>intermodulation when the stimulus is stated as {@code SMPTE} or {@code TWIN}, or, with
+     *     {@link StimulusKind#AUTO}, when the capture holds no single tone and two strong tones are found
+     *     (SMPTE RP120 modulation method; IEC 60268-3 / DIN 45403 difference-frequency method);</li>
+     * <li>noise and hum when the stimulus is {@link StimulusKind#NONE}, or, with AUTO, when no tone is found:
+     *     the measurement is "not measured", or its fundamental is below 10 mV in a capture in volts (the same
+     *     rule as verify's noise limit) and no driven channel is named; band and A-weighting after AES17 /
+     *     IEC 61672-1;</li>
+     * <li>crosstalk when a driven channel other than this one is named.</li>
+     * </ul>
+     */
+    public static Measurement analyze(Capture capture, int channelIndex, AnalysisSettings settings, SpecConditions conditions) {
+        Require.notNull("conditions", conditions);
+        Measurement m = analyze(capture, channelIndex, settings);
+        StimulusKind st = conditions.stimulus();
+        boolean wantImd = st == StimulusKind.SMPTE || st == StimulusKind.TWIN || (st == StimulusKind.AUTO && !m.measured());
+        boolean weak = !m.measured() || (capture.unit() == SampleUnit.VOLTS && m.fundamental().rms() < NOISE_TONE_LIMIT_VOLTS);
+        // a channel of a crosstalk capture is not a noise capture, however weak its tone
+        boolean wantNoise = st == StimulusKind.NONE || (st == StimulusKind.AUTO && weak && conditions.drivenChannel().isEmpty());
+        int driven = conditions.drivenChannel().orElse(0) - 1;
+        if (driven >= capture.channelCount())
+            throw new IllegalArgumentException("driven channel " + (driven + 1) + " does not exist in " + capture.name()
+                    + " (it has " + capture.channelCount() + ")");
+        boolean wantCross = driven >= 0 && driven != channelIndex;
+        if (!wantImd && !wantNoise && !wantCross) return m;
+        Optional<SpecLines> lines = SpecLines.of(capture, channelIndex);
+        if (lines.isEmpty()) return m;
+        Optional<Intermodulation> imd = wantImd ? lines.get().intermodulation(st) : Optional.empty();
+        Optional<NoiseFigures> noise = wantNoise && imd.isEmpty()
+                ? Optional.of(lines.get().noise(settings.band().lowHz(), settings.band().effectiveHighHz(capture.sampleRateHz()), capture.unit(),
+                        settings.loadOhms(), conditions.ratedPowerWatts()))
+                : Optional.empty();
+        Optional<Crosstalk> cross = Optional.empty();
+        if (wantCross) {
+            Optional<SpecLines> d = SpecLines.of(capture, driven);
+            if (d.isPresent()) cross = SpecLines.crosstalk(lines.get(), d.get(), driven + 1, settings.fundamentalHz());
+        }
+        return m.withSpecFigures(imd, noise, cross);
+    }
+
+    /** A tone below this (10 mV rms, in a capture in volts) is not a test signal: the capture is a noise capture (our rule). */
+    public static final double NOISE_TONE_LIMIT_VOLTS = 0.01;
+
     /** Analyses every channel of {@code capture}, in channel order. */
     public static List<Measurement> analyzeAll(Capture capture, AnalysisSettings settings) {
         Require.notNull("capture", capture);

@@ -42,13 +42,19 @@ import org.outstage.analysis.stage.StageDiagnosis;
  * @param waveform          a short excerpt of a few cycles for plotting
  * @param stage             the output-stage diagnosis (residual, transfer curve, crossover, clipping) of the same
  *                          span, or the reason it could not be made ({@code org.outstage.analysis.stage})
+ * @param imd               two-tone intermodulation, for a two-tone capture (recognised or stated), else empty
+ * @param noise             output noise and hum, for a capture without a test signal (stated, or no tone found)
+ * @param crosstalk         crosstalk from the driven channel, on an undriven channel of a crosstalk capture
+ *                          ({@link SpecConditions#drivenChannel}); empty otherwise. These three are measured even
+ *                          when the THD figures are not (a two-tone or noise capture has no single fundamental).
  */
 public record Measurement(String captureName, int channel, double sampleRateHz, String unit, long frameCount,
                           double durationSeconds, AnalysisSettings settings, Optional<String> notMeasuredReason,
                           Method method, Fundamental fundamental, double dcOffset, List<Harmonic> harmonics,
                           Ratio thd, Ratio thdR, ThdN thdN, double sinadDb, double enob, Floor floor, double totalRms,
                           Optional<Power> powerWatts, SineFit sineFit, Spectrum spectrum, Waveform waveform,
-                          StageDiagnosis stage) {
+                          StageDiagnosis stage, Optional<Intermodulation> imd, Optional<NoiseFigures> noise,
+                          Optional<Crosstalk> crosstalk) {
 
     public Measurement {
         Require.notNull("captureName", captureName);
@@ -69,6 +75,27 @@ public record Measurement(String captureName, int channel, double sampleRateHz, 
         Require.notNull("spectrum", spectrum);
         Require.notNull("waveform", waveform);
         Require.notNull("stage", stage);
+        Require.notNull("imd", imd);
+        Require.notNull("noise", noise);
+        Require.notNull("crosstalk", crosstalk);
+    }
+
+    /** The figures with an output-stage diagnosis and no spec-sheet figures. */
+    public Measurement(String captureName, int channel, double sampleRateHz, String unit, long frameCount,
+                       double durationSeconds, AnalysisSettings settings, Optional<String> notMeasuredReason,
+                       Method method, Fundamental fundamental, double dcOffset, List<Harmonic> harmonics,
+                       Ratio thd, Ratio thdR, ThdN thdN, double sinadDb, double enob, Floor floor, double totalRms,
+                       Optional<Power> powerWatts, SineFit sineFit, Spectrum spectrum, Waveform waveform, StageDiagnosis stage) {
+        this(captureName, channel, sampleRateHz, unit, frameCount, durationSeconds, settings, notMeasuredReason, method, fundamental,
+                dcOffset, harmonics, thd, thdR, thdN, sinadDb, enob, floor, totalRms, powerWatts, sineFit, spectrum, waveform, stage,
+                Optional.empty(), Optional.empty(), Optional.empty());
+    }
+
+    /** The same figures with the spec-sheet figures {@code imd}, {@code noise} and {@code crosstalk}. */
+    public Measurement withSpecFigures(Optional<Intermodulation> imd, Optional<NoiseFigures> noise, Optional<Crosstalk> crosstalk) {
+        return new Measurement(captureName, channel, sampleRateHz, unit, frameCount, durationSeconds, settings, notMeasuredReason, method,
+                fundamental, dcOffset, harmonics, thd, thdR, thdN, sinadDb, enob, floor, totalRms, powerWatts, sineFit, spectrum, waveform,
+                stage, imd, noise, crosstalk);
     }
 
     /** The core figures without an output-stage diagnosis (yet). */
@@ -85,7 +112,8 @@ public record Measurement(String captureName, int channel, double sampleRateHz, 
     /** The same figures with the output-stage diagnosis {@code d}. */
     public Measurement withStage(StageDiagnosis d) {
         return new Measurement(captureName, channel, sampleRateHz, unit, frameCount, durationSeconds, settings, notMeasuredReason, method,
-                fundamental, dcOffset, harmonics, thd, thdR, thdN, sinadDb, enob, floor, totalRms, powerWatts, sineFit, spectrum, waveform, d);
+                fundamental, dcOffset, harmonics, thd, thdR, thdN, sinadDb, enob, floor, totalRms, powerWatts, sineFit, spectrum, waveform, d,
+                imd, noise, crosstalk);
     }
 
     /** Whether the figures are real (no "not measured" reason). */

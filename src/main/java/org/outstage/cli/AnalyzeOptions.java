@@ -7,6 +7,8 @@ import java.util.OptionalDouble;
 import java.util.OptionalInt;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Band;
+import org.outstage.analysis.SpecConditions;
+import org.outstage.analysis.StimulusKind;
 import org.outstage.analysis.Weighting;
 import org.outstage.capture.BenchManifest;
 import org.outstage.capture.CaptureFormatException;
@@ -57,6 +59,30 @@ public final class AnalyzeOptions {
     @Option(names = "--roles", paramLabel = "ROLE,...",
             description = "Role of each channel from channel 1: output, generator, left or right (e.g. generator,output). Default: from --reference, else the bench.txt beside the capture, else every channel an output.")
     String roles;
+
+    @Option(names = "--stimulus", paramLabel = "KIND",
+            description = "What drove the amplifier: smpte, twin, sine, sweep, none (input shorted: noise and hum) or auto (recognise two tones or no tone). Default: auto.")
+    String stimulus;
+
+    @Option(names = "--driven", paramLabel = "N",
+            description = "The one driven channel (from 1) of a crosstalk capture: the other channels report the driven tone's level in dB.")
+    Integer driven;
+
+    @Option(names = "--rated-power", paramLabel = "W", description = "Rated output power, for the signal-to-noise ratio re rated power (with --load).")
+    Double ratedPower;
+
+    /** The spec-sheet conditions (stimulus, driven channel, rated power); bad values raise {@link BadInputException}. */
+    public SpecConditions specConditions() {
+        StimulusKind k;
+        try {
+            k = stimulus == null ? StimulusKind.AUTO : StimulusKind.parse(stimulus);
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException("--stimulus: " + e.getMessage());
+        }
+        if (driven != null && driven < 1) throw new BadInputException("--driven: " + driven + " must be 1 or more");
+        positive("--rated-power", ratedPower);
+        return new SpecConditions(k, driven == null ? OptionalInt.empty() : OptionalInt.of(driven), opt(ratedPower));
+    }
 
     /** The capture reader options. */
     public CaptureOptions captureOptions() {

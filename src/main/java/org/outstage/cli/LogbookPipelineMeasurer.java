@@ -20,7 +20,8 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
     @Override
     public List<Measured> measure(Path file, AnalyzeOptions options, OptionalInt channel) {
         Capture cap = Measuring.open(file, options);
-        List<Measurement> ms = Measuring.measure(cap, options.settings(), channel, options.generatorChannelFor(file), file.toString());
+        List<Measurement> ms = Measuring.measure(cap, options.settings(), options.specConditions(), channel, options.generatorChannelFor(file),
+                file.toString());
         List<Measured> out = new ArrayList<>();
         List<String> skipped = new ArrayList<>();
         for (Measurement m : ms) {

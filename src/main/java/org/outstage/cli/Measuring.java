@@ -8,6 +8,7 @@ import java.util.OptionalInt;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Analyzer;
 import org.outstage.analysis.Measurement;
+import org.outstage.analysis.SpecConditions;
 import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureFormatException;
 import org.outstage.capture.CaptureReader;
@@ -38,7 +39,8 @@ public final class Measuring {
         AnalysisSettings settings = options.settings();
         Capture capture = open(file, options);
         OptionalInt generator = options.generatorChannelFor(file);
-        return new FileResult(file.toString(), capture, measure(capture, settings, options.channel(), generator, file.toString()), generator);
+        return new FileResult(file.toString(), capture, measure(capture, settings, options.specConditions(), options.channel(), generator,
+                file.toString()), generator);
     }
 
     /** Opens a capture with the options' calibration; a reader error becomes a {@link BadInputException}. */
@@ -54,6 +56,15 @@ public final class Measuring {
 
     /** Measures the selected channels of an open capture (1-based channel numbers). */
     public static List<Measurement> measure(Capture capture, AnalysisSettings settings, OptionalInt channel, OptionalInt reference, String label) {
+        return measure(capture, settings, SpecConditions.AUTO, channel, reference, label);
+    }
+
+    /** Measures the selected channels with the spec-sheet conditions (stimulus, driven channel, rated power). */
+    public static List<Measurement> measure(Capture capture, AnalysisSettings settings, SpecConditions conditions, OptionalInt channel,
+                                            OptionalInt reference, String label) {
+        if (conditions.drivenChannel().isPresent() && conditions.drivenChannel().getAsInt() > capture.channelCount())
+            throw new BadInputException(label + ": --driven " + conditions.drivenChannel().getAsInt() + " does not exist (the capture has "
+                    + capture.channelCount() + ")");
         int count = capture.channelCount();
         if (channel.isPresent() && channel.getAsInt() > count)
             throw new BadInputException(label + ": --channel " + channel.getAsInt() + " does not exist (the capture has " + count + ")");
@@ -68,7 +79,7 @@ public final class Measuring {
         for (int c = 1; c <= count; c++) {
             if (channel.isPresent() && c != channel.getAsInt()) continue;
             if (reference.isPresent() && c == reference.getAsInt()) continue;
-            out.add(Analyzer.analyze(capture, c - 1, s));
+            out.add(Analyzer.analyze(capture, c - 1, s, conditions));
         }
         return out;
     }

@@ -11,8 +11,8 @@ import picocli.CommandLine.Command;
 @Command(name = "outstage", mixinStandardHelpOptions = true, version = "outstage 0.1.0",
         description = "Distortion and output-stage analysis for transistor audio power amplifiers.",
         subcommands = {BenchCommand.class, AnalyzeCommand.class, SweepCommand.class, ModelCommand.class, FitCommand.class, GuiCommand.class,
-                SessionCommand.class, WatchCommand.class, VerifyCommand.class, LogbookCommand.class, DevicesCommand.class, ToneCommand.class,
-                LiveCommand.class})
+                SessionCommand.class, WatchCommand.class, VerifyCommand.class, ResponseCommand.class, ImpedanceCommand.class, LogbookCommand.class,
+                DevicesCommand.class, ToneCommand.class, LiveCommand.class})
 public final class OutstageCommand implements Runnable {
     public static final int EXIT_OK = 0;
     public static final int EXIT_FAULT = 1;

@@ -29,6 +29,7 @@ import org.outstage.verify.LimitResult;
 import org.outstage.verify.MeasuredChannel;
 import org.outstage.verify.SpecParser;
 import org.outstage.verify.SpecProfile;
+import org.outstage.verify.SpecReading;
 import org.outstage.verify.VerificationResult;
 import org.outstage.verify.Verdict;
 import org.outstage.verify.Verifier;
@@ -71,6 +72,10 @@ public final class VerifyCommand implements Callable<Integer> {
     @Option(names = "--no-log", description = "Do not record the verification in the logbook.")
     boolean noLog;
 
+    @Option(names = "--open-circuit", paramLabel = "FILE",
+            description = "The test tone captured open-circuit: paired with the loaded captures at its frequency for the damping-factor limits.")
+    Path openCircuit;
+
     @Parameters(paramLabel = "CAPTURE", arity = "1..*", description = "Captures: WAV or scope CSV.")
     List<Path> captures;
 
@@ -84,14 +89,24 @@ public final class VerifyCommand implements Callable<Integer> {
         List<Taken> taken = new ArrayList<>();
         for (Path c : captures) {
             SessionSupport.requireReadable(c);
-            for (LogbookMeasurer.Measured m : measurer.measure(c, analyze, analyze.channel())) {
+            List<LogbookMeasurer.Measured> measured;
+            try {
+                measured = measurer.measure(c, analyze, analyze.channel());
+            } catch (BadInputException e) {
+                // a two-tone, noise or sweep capture has no THD figures; its spec-sheet figures are read below
+                if (!Verifier.needsReadings(profile) || !String.valueOf(e.getMessage()).contains("not measured")) throw e;
+                spec.commandLine().getErr().println("outstage: note: " + e.getMessage() + " (spec-sheet figures only)");
+                continue;
+            }
+            for (LogbookMeasurer.Measured m : measured) {
                 for (String w : m.warnings()) spec.commandLine().getErr().println("outstage: warning: " + c + ": " + w);
                 taken.add(new Taken(c, m));
             }
         }
         List<MeasuredChannel> channels = new ArrayList<>();
         for (Taken t : taken) channels.add(new MeasuredChannel(t.file.getFileName().toString(), t.measured.channel(), t.measured.figures()));
-        VerificationResult result = Verifier.verify(profile, channels);
+        List<SpecReading> readings = Verifier.needsReadings(profile) ? readings() : List.of();
+        VerificationResult result = Verifier.verify(profile, channels, readings);
 
         UnitUnderTest u = new UnitUnderTest(unit != null ? unit : profile.name(), Optional.empty(), Optional.empty(), Optional.empty(),
                 profile.ratedPowerWatts(), profile.ratedLoadOhms());
@@ -111,7 +126,11 @@ public final class VerifyCommand implements Callable<Integer> {
                 u = lb.unit(u.name()).orElse(u);
             }
         }
-        List<String> charts = report != null ? ReportCharts.forVerification(result, levelSeries(taken)) : List.of();
+        List<String> charts = new ArrayList<>();
+        if (report != null) {
+            charts.addAll(ReportCharts.forVerification(result, levelSeries(taken)));
+            charts.addAll(ReportCharts.forSpecSheet(readings));
+        }
         ReportDocument doc = new ReportDocument(u, session, result, channels, charts, Instant.now(), SessionSupport.programVersion());
         if (report != null) org.outstage.report.AtomicFile.write(report, HtmlReport.render(doc));
         if (reportJson != null) org.outstage.report.AtomicFile.write(reportJson, Json.pretty(ReportJson.of(doc)) + "\n");
@@ -151,6 +170,58 @@ public final class VerifyCommand implements Callable<Integer> {
             members.add(new LevelSeries.Member(t.file, e, t.measured.channelCount(), t.measured.measurement().get()));
         }
         return LevelSeries.build(members, p -> spec.commandLine().getErr().println("outstage: warning: " + p));
+    }
+
+    /**
+     * The spec-sheet figures of every capture (the same {@code Analyzer} as {@code analyze}, a second pass over the
+     * files): IMD, noise, crosstalk from the measurement; the swept response of sweep captures with a reference
+     * channel ({@code --stimulus sweep}, or a capture with no single tone); the output impedance of each loaded
+     * capture paired with {@code --open-circuit}.
+     */
+    private List<SpecReading> readings() {
+        List<SpecReading> out = new ArrayList<>();
+        var conditions = analyze.specConditions();
+        Optional<org.outstage.analysis.Measurement> open = Optional.empty();
+        if (openCircuit != null) {
+            var ms = Measuring.measure(openCircuit, analyze).measurements();
+            open = ms.stream().filter(org.outstage.analysis.Measurement::measured).findFirst();
+            if (open.isEmpty()) throw new BadInputException(openCircuit + ": the open-circuit capture has no tone to measure");
+        }
+        for (Path c : captures) {
+            Measuring.FileResult fr;
+            try {
+                fr = Measuring.measure(c, analyze);
+            } catch (BadInputException e) {
+                spec.commandLine().getErr().println("outstage: warning: no spec-sheet figures: " + e.getMessage());
+                continue;
+            }
+            String name = c.getFileName().toString();
+            for (var m : fr.measurements()) {
+                SpecReading r = SpecReading.of(name, m.channel(), m.unit(), m.settings().loadOhms())
+                        .withImd(m.imd()).withNoise(m.noise()).withCrosstalk(m.crosstalk());
+                boolean sweepLike = conditions.stimulus() == org.outstage.analysis.StimulusKind.SWEEP
+                        || (conditions.stimulus() == org.outstage.analysis.StimulusKind.AUTO && !m.measured() && m.imd().isEmpty() && m.noise().isEmpty());
+                if (sweepLike && fr.generatorChannel().isPresent()) {
+                    try {
+                        r = r.withResponse(Optional.of(org.outstage.analysis.SweepResponse.measure(fr.capture().readChannel(m.channel() - 1),
+                                fr.capture().readChannel(fr.generatorChannel().getAsInt() - 1), fr.capture().sampleRateHz(), true,
+                                org.outstage.analysis.Band.AUDIO_20_20K)));
+                    } catch (IllegalArgumentException e) {
+                        spec.commandLine().getErr().println("outstage: warning: " + c + ": no response: " + e.getMessage());
+                    }
+                }
+                if (open.isPresent() && m.measured() && m.settings().loadOhms().isPresent() && open.get().channel() == m.channel()
+                        && !c.equals(openCircuit)) {
+                    try {
+                        r = r.withImpedance(Optional.of(org.outstage.analysis.OutputImpedance.of(m.settings().loadOhms().getAsDouble(), open.get(), m)));
+                    } catch (IllegalArgumentException e) {
+                        // not the same tone: no pair
+                    }
+                }
+                out.add(r);
+            }
+        }
+        return out;
     }
 
     static String line(LimitResult r) {

@@ -12,22 +12,47 @@ import org.outstage.analysis.stage.StageDiagnosis;
 public final class FigureTable {
     private FigureTable() {}
 
-    /** A block of lines for one analysed channel. */
     /** The line that shows a capture's generator channel as the reference (no power, no verdict: it is not an output). */
     public static String generatorLine(String file, int channel) {
         return String.format(Locale.ROOT, "%s  channel %d  generator (reference): the X-Y input of the other channels; no power, no verdict%n",
                 file, channel);
     }
 
+    /** The spec-sheet lines (issue 12): IMD, noise and hum, crosstalk, when the measurement carries them. */
+    static void specSheet(StringBuilder sb, Measurement m) {
+        String u = m.unit();
+        m.imd().ifPresent(i -> sb.append(String.format(Locale.ROOT, "  IMD           %s %%   (%.1f dB)   %s, %s Hz + %s Hz at %.2f:1, d2 %s %%, d3 %s %%%n",
+                sig(i.percent()), i.db(), i.method().label(), num(i.f1Hz()), num(i.f2Hz()), i.ratio(), sig(100 * i.order(2)), sig(100 * i.order(3)))));
+        m.noise().ifPresent(n -> {
+            sb.append(String.format(Locale.ROOT, "  noise         %s %s rms (%.1f dB), A-weighted %s %s rms (%.1f dB), band %s-%s Hz%n", sig(n.rms()), u, n.db(),
+                    sig(n.rmsA()), u, n.dbA(), num(n.lowHz()), num(n.highHz())));
+            if (!n.hum().isEmpty()) {
+                sb.append("  hum          ");
+                for (var h : n.hum()) sb.append(String.format(Locale.ROOT, "  %s Hz %s %s", num(h.frequencyHz()), sig(h.rms()), u));
+                sb.append(System.lineSeparator());
+            }
+            if (n.snrRe1WDb().isPresent())
+                sb.append(String.format(Locale.ROOT, "  S/N           %.1f dB re 1 W (%.1f dB A)%s%n", n.snrRe1WDb().getAsDouble(), n.snrRe1WADb().getAsDouble(),
+                        n.snrReRatedDb().isPresent() ? String.format(Locale.ROOT, ", %.1f dB re rated (%.1f dB A)", n.snrReRatedDb().getAsDouble(),
+                                n.snrReRatedADb().getAsDouble()) : ""));
+        });
+        m.crosstalk().ifPresent(x -> sb.append(String.format(Locale.ROOT, "  crosstalk     %s%.1f dB from channel %d at %s Hz%n", x.resolved() ? "" : "<",
+                x.db(), x.fromChannel(), num(x.frequencyHz()))));
+    }
+
+    /** A block of lines for one analysed channel. */
     public static String text(String file, Measurement m) {
         StringBuilder sb = new StringBuilder();
         String u = m.unit();
         sb.append(String.format(Locale.ROOT, "%s  channel %d  %s Hz  %.3f s  unit %s%n", file, m.channel(), num(m.sampleRateHz()),
                 m.durationSeconds(), u));
         if (!m.measured()) {
-            sb.append("  not measured: ").append(m.notMeasuredReason().get()).append(System.lineSeparator()).append(System.lineSeparator());
+            sb.append("  not measured: ").append(m.notMeasuredReason().get()).append(System.lineSeparator());
+            specSheet(sb, m);
+            sb.append(System.lineSeparator());
             return sb.toString();
         }
+        specSheet(sb, m);
         sb.append(String.format(Locale.ROOT, "  fundamental   %.4f Hz   %s %s rms (%s %s peak)%n", m.fundamental().frequencyHz(),
                 sig(m.fundamental().rms()), u, sig(m.fundamental().amplitudePeak()), u));
         sb.append(String.format(Locale.ROOT, "  THD           %s %%   (%.1f dB)   THD_R %s %%%n", sig(m.thd().percent()), m.thd().db(),

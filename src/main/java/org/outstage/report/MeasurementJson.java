@@ -4,7 +4,9 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import org.outstage.analysis.Intermodulation;
 import org.outstage.analysis.Measurement;
+import org.outstage.analysis.NoiseFigures;
 import org.outstage.analysis.stage.ClipSide;
 import org.outstage.analysis.stage.ClippingMetrics;
 import org.outstage.analysis.stage.CrossoverMetrics;
@@ -57,6 +59,10 @@ public final class MeasurementJson {
         c.put("clipping", clipping(m.stage()));
         c.put("residual", residual(m.stage()));
         c.put("transfer", transfer(m.stage()));
+        c.put("imd", m.imd().map(MeasurementJson::imd).orElse(null));
+        c.put("noise", m.noise().map(n -> noise(n, m.unit())).orElse(null));
+        c.put("crosstalk", m.crosstalk().map(x -> Json.obj("from_channel", x.fromChannel(), "frequency_hz", x.frequencyHz(), "db", x.db(),
+                "ratio", x.ratio(), "resolved", x.resolved())).orElse(null));
         c.put("warnings", List.copyOf(warnings));
         // added (issue 11): figures beyond any audio bench, why power is missing, and whether the record is long
         // enough for the crossover figures (analysis.Plausibility; when false, the crossover figures are not to be read)
@@ -64,6 +70,51 @@ public final class MeasurementJson {
         c.put("crossover_given", org.outstage.analysis.Plausibility.crossoverGiven(m));
         return c;
     }
+
+    /** The {@code imd} object (docs/cli.md). */
+    public static Map<String, Object> imd(Intermodulation i) {
+        List<Object> ps = new ArrayList<>();
+        for (Intermodulation.Product p : i.products())
+            ps.add(Json.obj("order", p.order(), "frequency_hz", p.frequencyHz(), "rms", p.rms(), "dbc", p.dbc(), "resolved", p.resolved()));
+        Map<String, Object> o = new LinkedHashMap<>();
+        o.put("method", i.method().label());
+        o.put("f1_hz", i.f1Hz());
+        o.put("f2_hz", i.f2Hz());
+        o.put("f1_rms", i.f1Rms());
+        o.put("f2_rms", i.f2Rms());
+        o.put("ratio", i.ratio());
+        o.put("percent", i.percent());
+        o.put("db", i.db());
+        o.put("d2", i.order(2));
+        o.put("d3", i.order(3));
+        if (i.method() == Intermodulation.Method.MODULATION) {
+            o.put("d4", i.order(4));
+            o.put("d5", i.order(5));
+        }
+        o.put("stimulus_recognised", i.stimulusFromCapture());
+        o.put("products", ps);
+        return o;
+    }
+
+    /** The {@code noise} object (docs/cli.md); dBV only for a capture in volts. */
+    public static Map<String, Object> noise(NoiseFigures n, String unit) {
+        boolean volts = "V".equals(unit);
+        List<Object> hum = new ArrayList<>();
+        for (NoiseFigures.HumLine h : n.hum()) hum.add(Json.obj("harmonic", h.harmonic(), "frequency_hz", h.frequencyHz(), "rms", h.rms()));
+        Map<String, Object> o = new LinkedHashMap<>();
+        o.put("rms", n.rms());
+        o.put("rms_a", n.rmsA());
+        o.put("dbv", volts ? n.db() : null);
+        o.put("dbv_a", volts ? n.dbA() : null);
+        o.put("band_hz", new double[] {n.lowHz(), n.highHz()});
+        o.put("mains_hz", n.mainsHz().isPresent() ? n.mainsHz().getAsDouble() : null);
+        o.put("hum", hum);
+        o.put("snr_db", Json.obj("re_1w", opt(n.snrRe1WDb()), "re_1w_a", opt(n.snrRe1WADb()), "re_rated", opt(n.snrReRatedDb()),
+                "re_rated_a", opt(n.snrReRatedADb())));
+        return o;
+    }
+
+    private static Object opt(java.util.OptionalDouble v) { return v.isPresent() ? v.getAsDouble() : null; }
 
     static Map<String, Object> ratio(double r) {
         return Json.obj("ratio", r, "percent", 100 * r, "db", 20 * Math.log10(r));

@@ -53,6 +53,25 @@ public final class ReportCharts {
     }
 
     /**
+     * The spec-sheet charts of a verification (issue 12): for each capture reading, the IMD products, the hum lines
+     * with the noise level, the swept response (gain with the −3 dB points, phase, THD against frequency).
+     */
+    public static List<String> forSpecSheet(List<org.outstage.verify.SpecReading> readings) {
+        List<String> out = new ArrayList<>();
+        for (var r : readings) {
+            String name = r.captureName() + " ch" + r.channel();
+            r.imd().ifPresent(i -> out.add(SvgRenderer.render(org.outstage.plot.SpecSheetCharts.intermodulation(name, i), WIDTH, HEIGHT)));
+            r.noise().ifPresent(n -> out.add(SvgRenderer.render(org.outstage.plot.SpecSheetCharts.hum(name, n, r.unit()), WIDTH, HEIGHT)));
+            r.response().ifPresent(f -> {
+                out.add(SvgRenderer.render(org.outstage.plot.SpecSheetCharts.responseGain(name, f), WIDTH, HEIGHT));
+                out.add(SvgRenderer.render(org.outstage.plot.SpecSheetCharts.responsePhase(name, f), WIDTH, HEIGHT));
+                org.outstage.plot.SpecSheetCharts.thdVsFrequency(name, f).ifPresent(c -> out.add(SvgRenderer.render(c, WIDTH, HEIGHT)));
+            });
+        }
+        return out;
+    }
+
+    /**
      * The trend of a bias session against the reading: the crossover ratio the advice reads (gain at zero against the
      * large-current gain, {@code KeyFigures.crossoverReading()}; equal readings averaged), drawn as the same interpolant
      * the advice uses (linear in ln(reading) between steps, {@code analysis.stage.BiasCriterion}), so the shaded

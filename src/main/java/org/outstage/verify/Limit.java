@@ -16,10 +16,18 @@ import java.util.OptionalDouble;
  * @param loadOhms      load condition
  * @param thdThreshold  for {@link Quantity#POWER}: the THD at which power is read (fraction)
  * @param text          the line as written
+ * @param qualifier     a word condition: the IMD method ("smpte", "difference-frequency") or the S/N weighting
+ *                      ("a-weighted", "unweighted"); empty when none
  */
 public record Limit(int line, Quantity quantity, boolean atMost, double bound, String displayUnit, OptionalDouble frequencyHz,
-                    OptionalDouble powerWatts, OptionalDouble loadOhms, OptionalDouble thdThreshold, String text) {
+                    OptionalDouble powerWatts, OptionalDouble loadOhms, OptionalDouble thdThreshold, String text, String qualifier) {
+    public Limit(int line, Quantity quantity, boolean atMost, double bound, String displayUnit, OptionalDouble frequencyHz,
+                 OptionalDouble powerWatts, OptionalDouble loadOhms, OptionalDouble thdThreshold, String text) {
+        this(line, quantity, atMost, bound, displayUnit, frequencyHz, powerWatts, loadOhms, thdThreshold, text, "");
+    }
+
     public Limit {
+        Objects.requireNonNull(qualifier, "qualifier");
         Objects.requireNonNull(quantity, "quantity");
         Objects.requireNonNull(displayUnit, "displayUnit");
         Objects.requireNonNull(frequencyHz, "frequencyHz");
@@ -33,7 +41,9 @@ public record Limit(int line, Quantity quantity, boolean atMost, double bound, S
     public double toDisplay(double si) {
         return switch (displayUnit) {
             case "%" -> si * 100;
-            case "dB" -> quantity == Quantity.BALANCE ? si : 20 * Math.log10(si);
+            case "dB" -> quantity == Quantity.BALANCE || quantity == Quantity.SNR || quantity == Quantity.CROSSTALK
+                    || quantity == Quantity.RESPONSE_DEVIATION ? si : 20 * Math.log10(si);
+            case "kHz" -> si / 1000;
             case "mV" -> si * 1e3;
             case "µV" -> si * 1e6;
             default -> si;

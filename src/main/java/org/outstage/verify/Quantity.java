@@ -13,7 +13,21 @@ public enum Quantity {
     /** Residual output noise with no test signal, RMS. */
     NOISE("noise"),
     /** Level difference between two channels of one capture. */
-    BALANCE("balance");
+    BALANCE("balance"),
+    /** Two-tone intermodulation (SMPTE RP120 modulation method or IEC 60268-3 difference frequency). */
+    IMD("imd"),
+    /** Signal-to-noise ratio 20·lg(√(P·R)/noise) of a noise capture, at a stated power, unweighted or A-weighted. */
+    SNR("snr"),
+    /** Crosstalk into an undriven channel, 20·lg(V_undriven/V_driven), at a frequency. */
+    CROSSTALK("crosstalk"),
+    /** Largest |deviation| of the swept response from its 1 kHz gain over the deviation band. */
+    RESPONSE_DEVIATION("response-deviation"),
+    /** Lower −3 dB point of the swept response. */
+    BANDWIDTH_LOW("bandwidth-low"),
+    /** Upper −3 dB point of the swept response. */
+    BANDWIDTH_HIGH("bandwidth-high"),
+    /** Damping factor R_L/Z_out at a frequency. */
+    DAMPING_FACTOR("damping-factor");
 
     private final String keyword;
 

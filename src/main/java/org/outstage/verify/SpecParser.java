@@ -78,7 +78,8 @@ public final class SpecParser {
                 default -> {
                     if (Quantity.byKeyword(key) == null) {
                         throw error(source, no, "unknown statement '" + kw[0] + "' (expected name, rated-power, rated-load, match-frequency,"
-                                + " match-power, or a limit: thd, thd+n, power, clip-asymmetry, noise, balance)");
+                                + " match-power, or a limit: thd, thd+n, power, clip-asymmetry, noise, balance, imd, snr, crosstalk, response-deviation,"
+                                + " bandwidth-low, bandwidth-high, damping-factor)");
                     }
                     limitLines.add(new String[] {Integer.toString(no), line});
                 }
@@ -165,13 +166,37 @@ public final class SpecParser {
                 if (!unit.equals("dB")) throw error(source, no, "balance takes dB (got '" + unit + "')");
                 bound = v;
             }
+            case IMD -> {
+                if (unit.equals("%")) bound = v / 100;
+                else if (unit.equals("dB")) bound = Math.pow(10, v / 20);
+                else throw error(source, no, "imd takes % or dB (got '" + unit + "')");
+            }
+            case SNR, RESPONSE_DEVIATION -> {
+                if (!unit.equals("dB")) throw error(source, no, q.keyword() + " takes dB (got '" + unit + "')");
+                bound = v;
+            }
+            case CROSSTALK -> {
+                if (!unit.equals("dB")) throw error(source, no, "crosstalk takes dB (got '" + unit + "')");
+                if (!(v < 0)) throw error(source, no, "crosstalk is a level below the driven channel: write it negative, e.g. -60 dB");
+                bound = v;
+            }
+            case BANDWIDTH_LOW, BANDWIDTH_HIGH -> {
+                if (unit.equals("Hz")) bound = v;
+                else if (unit.equals("kHz")) bound = v * 1000;
+                else throw error(source, no, q.keyword() + " takes Hz or kHz (got '" + unit + "')");
+            }
+            case DAMPING_FACTOR -> {
+                if (!unit.isEmpty()) throw error(source, no, "damping-factor is a plain number (got the unit '" + unit + "')");
+                bound = v;
+            }
             default -> throw new IllegalStateException(q.toString());
         }
-        if (!(bound > 0) || !Double.isFinite(bound)) throw error(source, no, "the bound must be > 0");
+        if (q != Quantity.CROSSTALK && (!(bound > 0) || !Double.isFinite(bound))) throw error(source, no, "the bound must be > 0");
         OptionalDouble f = OptionalDouble.empty();
         OptionalDouble p = OptionalDouble.empty();
         OptionalDouble r = OptionalDouble.empty();
         OptionalDouble thd = OptionalDouble.empty();
+        String qualifier = "";
         if (!cond.isEmpty()) {
             Matcher dc = Pattern.compile("[-+]?\\d+,\\d+").matcher(cond);
             if (dc.find())   // "at 1,5 kHz": the comma separates conditions, so a decimal comma would split the number
@@ -179,6 +204,15 @@ public final class SpecParser {
                         + "): commas separate the conditions");
             for (String c : cond.split(",")) {
                 String t = c.strip();
+                String word = t.toLowerCase(Locale.ROOT);
+                if (q == Quantity.IMD && (word.equals("smpte") || word.equals("difference-frequency") || word.equals("twin"))) {
+                    qualifier = word.equals("twin") ? "difference-frequency" : word;
+                    continue;
+                }
+                if (q == Quantity.SNR && (word.equals("a-weighted") || word.equals("unweighted"))) {
+                    qualifier = word;
+                    continue;
+                }
                 if (t.equalsIgnoreCase("rated power") || t.equalsIgnoreCase("rated")) {
                     if (ratedPower.isEmpty()) throw error(source, no, "'rated power' needs a rated-power line before the limits");
                     p = ratedPower;
@@ -210,7 +244,8 @@ public final class SpecParser {
         }
         if (q == Quantity.POWER && thd.isEmpty()) throw error(source, no, "power needs the THD it is read at, e.g. 'at 1 kHz, 1 % thd, 8 ohm'");
         if (q == Quantity.POWER && p.isPresent()) throw error(source, no, "power is what is measured; it cannot also be a condition");
-        return new Limit(no, q, atMost, bound, unit, f, p, r, thd, line);
+        if (q == Quantity.SNR && p.isEmpty()) throw error(source, no, "snr needs the power it is referred to, e.g. 'at rated power, a-weighted' or 'at 1 W'");
+        return new Limit(no, q, atMost, bound, unit, f, p, r, thd, line, qualifier);
     }
 
     private static int indexOfWord(String line, String word) {

@@ -40,9 +40,29 @@ public final class Verifier {
     static final double NOISE_TONE_LIMIT_VOLTS = 0.01;
 
     public static VerificationResult verify(SpecProfile spec, List<MeasuredChannel> channels) {
+        return verify(spec, channels, List.of());
+    }
+
+    /** As {@link #verify(SpecProfile, List)}, with the spec-sheet figures (IMD, noise, crosstalk, response, impedance). */
+    public static VerificationResult verify(SpecProfile spec, List<MeasuredChannel> channels, List<SpecReading> readings) {
         List<LimitResult> out = new ArrayList<>();
-        for (Limit l : spec.limits()) out.add(check(spec, l, channels));
+        for (Limit l : spec.limits()) {
+            out.add(switch (l.quantity()) {
+                case IMD, SNR, CROSSTALK, RESPONSE_DEVIATION, BANDWIDTH_LOW, BANDWIDTH_HIGH, DAMPING_FACTOR -> SpecLimits.check(spec, l, readings);
+                default -> check(spec, l, channels);
+            });
+        }
         return new VerificationResult(spec, out);
+    }
+
+    /** Whether a profile has limits that need {@link SpecReading}s. */
+    public static boolean needsReadings(SpecProfile spec) {
+        for (Limit l : spec.limits())
+            switch (l.quantity()) {
+                case IMD, SNR, CROSSTALK, RESPONSE_DEVIATION, BANDWIDTH_LOW, BANDWIDTH_HIGH, DAMPING_FACTOR -> { return true; }
+                default -> { }
+            }
+        return false;
     }
 
     private static boolean matches(SpecProfile spec, Limit l, KeyFigures f) {
@@ -65,12 +85,12 @@ public final class Verifier {
 
     private static String where(MeasuredChannel c) { return c.captureName() + " ch" + c.channel(); }
 
-    private static LimitResult result(Limit l, double measured, String evidence) {
+    static LimitResult result(Limit l, double measured, String evidence) {
         return new LimitResult(l, l.passes(measured) ? Verdict.PASS : Verdict.FAIL, OptionalDouble.of(measured),
                 OptionalDouble.of(l.marginDisplay(measured)), evidence);
     }
 
-    private static LimitResult notMeasured(Limit l, String why) {
+    static LimitResult notMeasured(Limit l, String why) {
         return new LimitResult(l, Verdict.NOT_MEASURED, OptionalDouble.empty(), OptionalDouble.empty(), why);
     }
 

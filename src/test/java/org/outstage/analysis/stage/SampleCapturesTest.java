@@ -154,11 +154,20 @@ class SampleCapturesTest {
                 0.010811742098371, 0.000776584825226, 0.000013887217352};
         int files = 0;
         try (var list = java.nio.file.Files.list(DIR)) {
-            for (Path p : list.filter(f -> f.toString().endsWith(".wav")).sorted().toList()) {
+            // two-tone and sweep captures (issue 12) carry non-harmonic lines on purpose: intermodulation products, a
+            // swept tone; their figures are checked in SpecFiguresTest and SweepResponseTest
+            for (Path p : list.filter(f -> f.toString().endsWith(".wav"))
+                    .filter(f -> !f.getFileName().toString().startsWith("da60-imd-") && !f.getFileName().toString().startsWith("da60-sweep-"))
+                    .sorted().toList()) {
                 Capture c = CaptureReader.open(p, CaptureOptions.none().withFullScaleVolts(40));
                 for (int ch = 0; ch < c.channelCount(); ch++) {
                     double[] y = c.readChannel(ch);
-                    double fs = c.sampleRateHz(), f0 = SineFitter.fit(y, fs).frequencyHz();
+                    double fs = c.sampleRateHz();
+                    var fit = SineFitter.fit(y, fs);
+                    // a channel without a test tone (input shorted, the undriven channel of a crosstalk capture: fitted
+                    // line below 10 mV rms, the analyzer's noise-capture rule) has no harmonics to measure spurs against
+                    if (fit.amplitudePeak() / Math.sqrt(2) < 0.01) continue;
+                    double f0 = fit.frequencyHz();
                     int n = y.length;
                     double[] buf = new double[2 * n];
                     for (int i = 0; i < n; i++) {
@@ -183,6 +192,6 @@ class SampleCapturesTest {
                 files++;
             }
         }
-        assertEquals(11, files, "WAV sample captures read");
+        assertEquals(15, files, "WAV sample captures read (11 of issue 11, 4 single-tone or quiet ones of issue 12)");
     }
 }

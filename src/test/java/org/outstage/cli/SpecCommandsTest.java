@@ -1,0 +1,150 @@
+package org.outstage.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Map;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.outstage.capture.WavWriter;
+import org.outstage.json.Json;
+
+/** The JSON contracts of issue 12 (docs/cli.md): analyze's imd / noise / crosstalk, response, impedance. */
+class SpecCommandsTest {
+    @TempDir Path dir;
+
+    static double[] tone(double fs, int n, double f, double peak) {
+        double[] y = new double[n];
+        for (int i = 0; i < n; i++) y[i] = peak * Math.sin(2 * Math.PI * f * i / fs);
+        return y;
+    }
+
+    @SuppressWarnings("unchecked")
+    static Map<String, Object> firstCapture(String json) {
+        Map<String, Object> root = (Map<String, Object>) Json.parse(json);
+        return (Map<String, Object>) ((List<Object>) root.get("captures")).get(0);
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void analyzeJson_smpteCapture_hasImdObject() throws Exception {
+        double fs = 48000;
+        double[] lo = tone(fs, 96000, 60, 0.4), hi = tone(fs, 96000, 7000, 0.1);
+        double[] y = new double[lo.length];
+        for (int i = 0; i < y.length; i++) { double x = lo[i] + hi[i]; y[i] = x + 0.01 * x * x; }
+        Path wav = dir.resolve("smpte.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, y);
+        CliRun r = CliRun.of("analyze", "--json", "--fs-volts", "40", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> c = firstCapture(r.out());
+        Map<String, Object> imd = (Map<String, Object>) c.get("imd");
+        assertEquals("smpte", imd.get("method"));
+        assertEquals(60.0, ((Number) imd.get("f1_hz")).doubleValue(), 0.1);
+        assertEquals(4.0, ((Number) imd.get("ratio")).doubleValue(), 0.05);
+        // y = x + a2·x²: each of f2 ± f1 is a2·A1·A2 (docs/references.md §3), d2 = 2·a2·A1 = 0.008 relative to U(f2) = A2
+        assertEquals(0.008, ((Number) imd.get("d2")).doubleValue(), 0.008 * 0.01);
+        assertTrue(((List<Object>) imd.get("products")).size() >= 2);
+        assertNull(c.get("noise"));
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void analyzeJson_stimulusNone_hasNoiseWithSnr() throws Exception {
+        double fs = 48000;
+        Random rnd = new Random(4);
+        double[] y = new double[96000];
+        for (int i = 0; i < y.length; i++) y[i] = 2.5e-6 * rnd.nextGaussian();   // ×40 V = 100 µV rms
+        Path wav = dir.resolve("noise.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, y);
+        CliRun r = CliRun.of("analyze", "--json", "--fs-volts", "40", "--load", "8", "--rated-power", "60", "--stimulus", "none", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> n = (Map<String, Object>) firstCapture(r.out()).get("noise");
+        double truth = 100e-6 * Math.sqrt((20000 - 20) / 24000.0);   // band share of white noise (docs/references.md §13)
+        assertEquals(0, 20 * Math.log10(((Number) n.get("rms")).doubleValue() / truth), 0.1);
+        Map<String, Object> snr = (Map<String, Object>) n.get("snr_db");
+        assertEquals(20 * Math.log10(Math.sqrt(480) / truth), ((Number) snr.get("re_rated")).doubleValue(), 0.1);
+        assertTrue(snr.get("re_rated_a") instanceof Number);
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void analyzeJson_driven1_reportsCrosstalkOnChannel2() throws Exception {
+        double fs = 48000;
+        double[] a = tone(fs, 48000, 1000, 0.5), b = tone(fs, 48000, 1000, 0.5e-3);   // −60 dB
+        Path wav = dir.resolve("xtalk.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, a, b);
+        CliRun r = CliRun.of("analyze", "--json", "--driven", "1", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> root = (Map<String, Object>) Json.parse(r.out());
+        List<Object> caps = (List<Object>) root.get("captures");
+        assertNull(((Map<String, Object>) caps.get(0)).get("crosstalk"));
+        Map<String, Object> x = (Map<String, Object>) ((Map<String, Object>) caps.get(1)).get("crosstalk");
+        assertEquals(1, ((Number) x.get("from_channel")).intValue());
+        assertEquals(-60, ((Number) x.get("db")).doubleValue(), 0.05);
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void responseJson_withReference_wireReadsZeroDb() throws Exception {
+        double fs = 48000, t = 4;
+        int n = (int) (fs * t);
+        double l = Math.log(20000 / 5.0);
+        double[] x = new double[n];
+        for (int i = 0; i < n; i++) x[i] = 0.5 * Math.sin(2 * Math.PI * 5 * t / l * (Math.exp(i / fs * l / t) - 1));
+        double[] y = x.clone();
+        for (int i = 0; i < n; i++) y[i] *= 0.5;   // −6.02 dB, a divider
+        Path wav = dir.resolve("sweep.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, x, y);
+        CliRun r = CliRun.of("response", "--reference", "1", "--json", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> o = (Map<String, Object>) Json.parse(r.out());
+        for (Object p : (List<Object>) o.get("points"))   // 20·lg(1/2); 0.05 dB is the issue's in-band target
+            assertEquals(-6.0206, ((Number) ((Map<String, Object>) p).get("gain_db")).doubleValue(), 0.05, "20·lg(1/2)");
+        Map<String, Object> m3 = (Map<String, Object>) o.get("minus_3db_hz");
+        assertNull(m3.get("low"));
+        assertTrue(o.containsKey("deviation_db") && o.containsKey("thd_vs_frequency"));
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void responseJson_knownSweepWithoutReference_startFoundByCrossCorrelation_wireIsFlat() throws Exception {
+        double fs = 48000;
+        double[] played = ResponseCommand.render("sweep:5-20k,4", fs);
+        int lead = 14_321;   // the capture starts 0.298 s before the sweep
+        double[] y = new double[played.length + lead + 4800];
+        for (int i = 0; i < played.length; i++) y[lead + i] = 0.25 * played[i];
+        Path wav = dir.resolve("known.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, y);
+        CliRun r = CliRun.of("response", "--sweep", "sweep:5-20k,4", "--json", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> o = (Map<String, Object>) Json.parse(r.out());
+        assertEquals(false, o.get("from_reference"));
+        for (Object p : (List<Object>) o.get("points")) {
+            Map<String, Object> m = (Map<String, Object>) p;
+            // a wire: flat (0.05 dB, the issue's in-band target) and, once the start is found, no phase
+            assertEquals(0, ((Number) m.get("gain_re_1khz_db")).doubleValue(), 0.05);
+            assertEquals(0, ((Number) m.get("phase_deg")).doubleValue(), 1.0);
+        }
+        assertEquals(2, CliRun.of("response", wav.toString()).exit(), "no reference and no sweep: bad input");
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void impedanceJson_dividerOf0Point1Ohm() throws Exception {
+        double fs = 48000;
+        Path open = dir.resolve("open.wav"), loaded = dir.resolve("loaded.wav");
+        WavWriter.write(open, (int) fs, WavWriter.Encoding.FLOAT_64, false, tone(fs, 48000, 1000, 0.1));
+        WavWriter.write(loaded, (int) fs, WavWriter.Encoding.FLOAT_64, false, tone(fs, 48000, 1000, 0.1 * 8 / 8.1));
+        CliRun r = CliRun.of("impedance", "--load", "8", "--fs-volts", "40", "--json", loaded.toString(), open.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> o = (Map<String, Object>) Json.parse(r.out());
+        assertEquals(0.1, ((Number) o.get("output_impedance_ohms")).doubleValue(), 1e-6, "voltage divider, §13");
+        assertEquals(80, ((Number) o.get("damping_factor")).doubleValue(), 1e-3);
+        CliRun bad = CliRun.of("impedance", loaded.toString(), open.toString());
+        assertEquals(2, bad.exit());
+    }
+}
