@@ -45,7 +45,7 @@ public final class FitCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "FILE", description = "Capture (WAV or scope CSV) or transfer-curve CSV (columns output_v,gain).") Path file;
     @Mixin ModelOptions stage;
     @Option(names = "--level-v", paramLabel = "V", converter = Units.Volts.class, description = "Output level of the optimum-bias criterion (default 0.6 x rails).") Double levelV;
-    @Option(names = "--tolerance-mv", paramLabel = "MV", converter = Units.MilliVolts.class, description = "No longer used (kept for scripts): 'leave it' now means inside the near-optimal band, crossover ratio 1 +/- 0.3 %.") double toleranceMv = 2;
+    @Option(names = "--tolerance-mv", paramLabel = "MV", converter = Units.MilliVolts.class, description = "No longer used (kept for scripts): 'leave it' now means inside the near-optimal band, crossover ratio 1 within 0.3 percent.") double toleranceMv = 2;
     @Option(names = "--json", description = "Print the result as JSON.") boolean json;
     @Option(names = "--fs-volts", paramLabel = "V", converter = Units.Volts.class, description = "Capture: WAV calibration, peak volts at the output that reach full scale (divider included).") Double fsVolts;
     @Option(names = "--probe", paramLabel = "X", description = "Capture: scope CSV calibration, multiply values by X.") Double probe;

@@ -15,7 +15,7 @@ import picocli.CommandLine.Option;
  * measurements, captures) into a shared one. Idempotent: sessions are known by their UUID, steps by their number,
  * captures by their SHA-256, so pushing again copies only what is new.
  */
-@Command(name = "push", description = "Copy this bench's logbook (units, sessions, steps, measurements, captures) into a shared one;"
+@Command(name = "push", mixinStandardHelpOptions = true, description = "Copy this bench's logbook (units, sessions, steps, measurements, captures) into a shared one;"
         + " pushing again copies only what is new.")
 public final class LogbookPushCommand implements Callable<Integer> {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;

@@ -93,9 +93,11 @@ public final class VerifyCommand implements Callable<Integer> {
             try {
                 measured = measurer.measure(c, analyze, analyze.channel());
             } catch (BadInputException e) {
-                // a two-tone, noise or sweep capture has no THD figures; its spec-sheet figures are read below
-                if (!Verifier.needsReadings(profile) || !String.valueOf(e.getMessage()).contains("not measured")) throw e;
-                spec.commandLine().getErr().println("outstage: note: " + e.getMessage() + " (spec-sheet figures only)");
+                // a two-tone, noise or sweep capture has no THD figures: not bad input; its spec-sheet figures are read below
+                // when the profile has such limits, and the THD limits it cannot serve stay not-measured
+                if (!String.valueOf(e.getMessage()).contains("not measured")) throw e;
+                spec.commandLine().getErr().println("outstage: note: " + e.getMessage()
+                        + (Verifier.needsReadings(profile) ? " (spec-sheet figures only)" : " (no THD figures for this profile)"));
                 continue;
             }
             for (LogbookMeasurer.Measured m : measured) {

@@ -78,7 +78,8 @@ class OneAnswerWalkTest {
     }
 
     /**
-     * verify --report over the whole sample folder (level series, bias series, scope export, stereo X-Y file): the
+     * verify --report over the whole sample folder (level series, bias series, scope export, stereo X-Y file, and the
+     * seven spec-sheet captures: IMD, noise, sweep, crosstalk, open circuit): the
      * THD-against-power chart holds only the named series of bench.txt ({@code series=level}: the seven
      * da60-level files), so one THD line of 7 markers and one THD+N line of 7; and the shared series function gives
      * the same power at 1 % THD as {@code sweep} over the same files.
@@ -89,7 +90,7 @@ class OneAnswerWalkTest {
         try (var s = Files.list(SAMPLES)) {
             s.map(Path::toString).filter(n -> n.endsWith(".wav") || n.endsWith(".csv")).sorted().forEach(files::add);
         }
-        assertEquals(12, files.size());
+        assertEquals(19, files.size());
         Path html = dir.resolve("report.html");
         List<String> args = new ArrayList<>(List.of("verify", "--spec", SAMPLES.resolve("spec/da-60.spec").toString(), "--no-log",
                 "--fs-volts", "40", "--load", "8", "--report", html.toString()));
