@@ -40,10 +40,19 @@ final class LiveCapture {
             @Override public void onBlock(LiveResult r) {}
             @Override public void onFailure(String message) { failure[0] = message; }
         });
-        session.stopAfter(seconds);
+        session.stopAfter(s.stimulus().isPresent() ? Double.POSITIVE_INFINITY : seconds);
+        double recordSeconds = seconds;
         try {
             session.start();
-            if (!session.awaitEnd((long) (seconds * 1000) + 15_000, TimeUnit.MILLISECONDS)) {
+            // With a stimulus, the record must hold SECONDS of it: the output line opens and fills its buffer before the
+            // tone reaches the input (a second or more on a loaded machine), so the record is extended by that lead-in
+            // (whole blocks) and only its last SECONDS are kept (trim below).
+            if (session.stimulusArrivalSeconds().isPresent()) {
+                double lead = session.stimulusArrivalSeconds().get() + LEAD_MARGIN_SECONDS;
+                recordSeconds = Math.ceil((lead + seconds) / seconds) * seconds;
+                session.stopAfter(recordSeconds);
+            }
+            if (!session.awaitEnd((long) (recordSeconds * 1000) + 15_000, TimeUnit.MILLISECONDS)) {
                 session.stop();
                 throw new IllegalStateException("the live capture did not end");
             }
@@ -63,9 +72,33 @@ final class LiveCapture {
             delete(file);
             throw new IllegalStateException(failure[0]);
         }
+        if (recordSeconds > seconds) {
+            try {
+                keepLast(file, seconds);
+            } catch (IOException | org.outstage.capture.CaptureFormatException e) {
+                delete(file);
+                throw new BadInputException("live capture: cannot trim the lead-in of " + file + ": " + e.getMessage());
+            }
+        }
         if (session.droppedFrames() > 0)
             err.println("outstage: warning: " + session.droppedFrames() + " input frames were lost during the live capture (zeros stand in for them)");
         return file;
+    }
+
+    /** Margin after the stimulus' computed arrival before the kept part of the record starts, seconds (scheduling slack). */
+    static final double LEAD_MARGIN_SECONDS = 0.25;
+
+    /** Rewrites the recorded WAV with only its last {@code seconds} (the part after the stimulus' lead-in), 32-bit float. */
+    static void keepLast(Path file, double seconds) throws IOException, org.outstage.capture.CaptureFormatException {
+        org.outstage.capture.Capture c = org.outstage.capture.WavReader.read(file);
+        int rate = (int) Math.round(c.sampleRateHz());
+        int keep = (int) Math.min(c.frameCount(), Math.round(seconds * rate));
+        int from = (int) (c.frameCount() - keep);
+        double[][] ch = new double[c.channelCount()][];
+        for (int i = 0; i < ch.length; i++) ch[i] = java.util.Arrays.copyOfRange(c.readChannel(i), from, from + keep);
+        Path tmp = file.resolveSibling(file.getFileName() + ".part");
+        org.outstage.capture.WavWriter.write(tmp, rate, org.outstage.capture.WavWriter.Encoding.FLOAT_32, false, ch);
+        Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING, java.nio.file.StandardCopyOption.ATOMIC_MOVE);
     }
 
     private static void delete(Path f) {

@@ -61,6 +61,8 @@ public final class LiveSession implements AutoCloseable {
     private final CountDownLatch ended = new CountDownLatch(1);
     private volatile BlockCapture capture;
     private volatile Player player;
+    private volatile long stimulusStartFrame = -1;
+    private volatile int outputBufferFrames;
     private volatile WavRecorder recorder;
     private volatile Thread hook;
     private volatile double stopAfterSeconds = Double.POSITIVE_INFINITY;
@@ -123,6 +125,8 @@ public final class LiveSession implements AutoCloseable {
                 outputName = out.deviceName();
                 Generator g = Generator.of(settings.stimulus().get(), of.sampleRateHz(), settings.levelDbfs(), settings.blockSeconds(), settings.allowLoud())
                         .fadeIn(Generator.MIN_RAMP_SECONDS);
+                stimulusStartFrame = capture.framesCaptured();
+                outputBufferFrames = out.bufferFrames();
                 player = Player.start(out, g);
             }
             listener.onStarted(inputName, outputName, capture.firstReadSeconds().get());
@@ -232,6 +236,18 @@ public final class LiveSession implements AutoCloseable {
     public long skippedBlocks() { return skipped.get(); }
     public long overrunEvents() { BlockCapture c = capture; return c == null ? 0 : c.overrunEvents(); }
     public long outputUnderruns() { Player p = player; return p == null ? 0 : p.underruns(); }
+    /**
+     * Input time (seconds from the first input frame) by which the stimulus can have reached the input: the input
+     * position when the player started plus the output line's buffer (its latency) and the fade-in. Empty without a
+     * stimulus or before the start.
+     */
+    public Optional<Double> stimulusArrivalSeconds() {
+        long f = stimulusStartFrame;
+        if (f < 0) return Optional.empty();
+        double rate = settings.inputFormat().sampleRateHz();
+        return Optional.of((f + outputBufferFrames) / rate + Generator.MIN_RAMP_SECONDS);
+    }
+
     public Optional<Double> firstReadSeconds() { BlockCapture c = capture; return c == null ? Optional.empty() : c.firstReadSeconds(); }
     public String inputDeviceName() { return inputName; }
     public String outputDeviceName() { return outputName; }
