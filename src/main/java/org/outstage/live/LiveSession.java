@@ -108,6 +108,7 @@ public final class LiveSession implements AutoCloseable {
         try {
             if (settings.recordFile().isPresent())
                 recorder = WavRecorder.create(settings.recordFile().get(), settings.inputFormat().sampleRateHz(), settings.inputFormat().channels());
+            warmUp();
             in = backend.openInput(settings.inputDevice(), settings.inputFormat());
             inputName = in.deviceName();
             installHook();
@@ -137,6 +138,27 @@ public final class LiveSession implements AutoCloseable {
             if (e instanceof IOException io) throw io;
             throw (AudioUnavailableException) e;
         }
+    }
+
+    /**
+     * Analyses one synthetic block on the analysis thread while the first real block is being captured, so the first
+     * figures do not wait for the JIT compiler (a cold first analysis took 1.7 s against 0.2 s warm on the bench machine).
+     */
+    private void warmUp() {
+        int rate = settings.inputFormat().sampleRateHz();
+        int n = (int) Math.round(settings.blockSeconds() * rate);
+        analysis.execute(() -> {
+            if (stopped.get()) return;
+            double[][] ch = new double[settings.inputFormat().channels()][n];
+            java.util.SplittableRandom rnd = new java.util.SplittableRandom(1);
+            for (int c = 0; c < ch.length; c++)
+                for (int i = 0; i < n; i++) ch[c][i] = 0.1 * Math.sin(2 * Math.PI * 997.0 * i / rate) + 1e-6 * (rnd.nextDouble() - 0.5);
+            try {
+                measure(Capture.inMemory("warm-up", rate, SampleUnit.FULL_SCALE, ch), settings);
+            } catch (RuntimeException e) {
+                // a warm-up only; the real blocks report their own problems
+            }
+        });
     }
 
     private void installHook() {
@@ -170,13 +192,16 @@ public final class LiveSession implements AutoCloseable {
     private void analyse(AudioBlock block, boolean isFinal) {
         if (stopped.get()) return;
         long t0 = System.nanoTime();
+        java.lang.management.ThreadMXBean mx = java.lang.management.ManagementFactory.getThreadMXBean();
+        long c0 = mx.isCurrentThreadCpuTimeSupported() ? mx.getCurrentThreadCpuTime() : -1;
         try {
             Capture cap = block.capture();
             OptionalDouble fs = settings.fullScaleVolts();
             if (fs.isPresent()) cap = cap.calibrated(fs.getAsDouble(), SampleUnit.VOLTS);
             List<Measurement> ms = measure(cap, settings);
+            double cpu = c0 < 0 ? Double.NaN : (mx.getCurrentThreadCpuTime() - c0) / 1e9;
             LiveResult r = new LiveResult(block.index(), block.endSeconds(), block.droppedFrames(), block.droppedFramesTotal(), skipped.get(), ms, cap,
-                    (System.nanoTime() - t0) / 1e9);
+                    (System.nanoTime() - t0) / 1e9, cpu);
             last.set(r);
             listener.onBlock(r);
         } catch (RuntimeException e) {
