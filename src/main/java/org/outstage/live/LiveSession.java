@@ -57,6 +57,7 @@ public final class LiveSession implements AutoCloseable {
     private final ThreadPoolExecutor analysis;
     private final AtomicLong skipped = new AtomicLong();
     private final AtomicReference<LiveResult> last = new AtomicReference<>();
+    private final AtomicReference<Capture> lastRaw = new AtomicReference<>();
     private final AtomicBoolean stopped = new AtomicBoolean();
     private final CountDownLatch ended = new CountDownLatch(1);
     private volatile BlockCapture capture;
@@ -196,6 +197,7 @@ public final class LiveSession implements AutoCloseable {
         long c0 = mx.isCurrentThreadCpuTimeSupported() ? mx.getCurrentThreadCpuTime() : -1;
         try {
             Capture cap = block.capture();
+            lastRaw.set(cap);
             OptionalDouble fs = settings.fullScaleVolts();
             if (fs.isPresent()) cap = cap.calibrated(fs.getAsDouble(), SampleUnit.VOLTS);
             List<Measurement> ms = measure(cap, settings);
@@ -252,6 +254,22 @@ public final class LiveSession implements AutoCloseable {
 
     /** The last analysed block as a capture (calibrated when full-scale volts are set), for logging a step. */
     public Optional<Capture> lastBlock() { return lastResult().map(LiveResult::capture); }
+
+    /**
+     * Writes the last analysed block's raw samples (full-scale units, every channel, before calibration) to a 32-bit
+     * float WAV file, for logging a step through the same path as a file (the logbook stores the file).
+     *
+     * @throws IllegalStateException when no block has been analysed yet
+     */
+    public void saveLastBlock(java.nio.file.Path wav) throws IOException {
+        Capture c = lastRaw.get();
+        if (c == null) throw new IllegalStateException("no block has been analysed yet");
+        double[][] ch = new double[c.channelCount()][];
+        for (int i = 0; i < ch.length; i++) ch[i] = c.readChannel(i);
+        try (WavRecorder w = WavRecorder.create(wav, (int) Math.round(c.sampleRateHz()), ch.length)) {
+            w.write(ch, 0, ch[0].length);
+        }
+    }
 
     public long droppedFrames() { BlockCapture c = capture; return c == null ? 0 : c.droppedFrames(); }
     public long skippedBlocks() { return skipped.get(); }
