@@ -131,6 +131,14 @@ public final class LiveSession implements AutoCloseable {
         } catch (AudioUnavailableException | IOException | RuntimeException | InterruptedException e) {
             if (in != null && capture == null) in.close();
             stop();
+            // a start that failed leaves no half-written recording behind
+            if (settings.recordFile().isPresent() && recorder != null) {
+                try {
+                    java.nio.file.Files.deleteIfExists(settings.recordFile().get());
+                } catch (IOException ignored) {
+                    // best effort
+                }
+            }
             if (e instanceof InterruptedException) {
                 Thread.currentThread().interrupt();
                 throw new AudioUnavailableException("interrupted while waiting for the input");

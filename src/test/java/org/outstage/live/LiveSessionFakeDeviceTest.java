@@ -154,8 +154,10 @@ class LiveSessionFakeDeviceTest {
     @Test
     void missingDevice_isOneLine_andNothingStaysOpen() {
         Fake fake = new Fake();
-        LiveSession s = new LiveSession(fake, settings().withDevices(Optional.of("usb-card"), Optional.empty()), r -> {});
+        Path rec = dir.resolve("never.wav");
+        LiveSession s = new LiveSession(fake, settings().withDevices(Optional.of("usb-card"), Optional.empty()).withRecordFile(Optional.of(rec)), r -> {});
         AudioUnavailableException e = assertThrows(AudioUnavailableException.class, s::start);
         assertTrue(e.getMessage().contains("usb-card") && !e.getMessage().contains("\n"), e.getMessage());
+        assertTrue(!java.nio.file.Files.exists(rec), "no half-written recording after a failed start");
     }
 }
