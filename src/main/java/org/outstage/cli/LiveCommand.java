@@ -167,6 +167,7 @@ public final class LiveCommand implements Callable<Integer> {
         o.put("dropped_frames_total", r.droppedFramesTotal());
         o.put("skipped_blocks", r.skippedBlocks());
         o.put("analysis_s", r.analysisSeconds());
+        o.put("analysis_cpu_s", Double.isFinite(r.analysisCpuSeconds()) ? r.analysisCpuSeconds() : null);
         o.putAll(MeasurementJson.capture(label, m, r.capture().warnings()));
         return o;
     }

@@ -15,9 +15,10 @@ import org.outstage.capture.Capture;
  * @param measurements       one {@link Measurement} per analysed channel, exactly as {@code analyze} makes them
  * @param capture            the block's samples (calibrated when full-scale volts are set)
  * @param analysisSeconds    wall time the analysis of this block took
+ * @param analysisCpuSeconds CPU time of the analysis thread for this block (the cost, whatever else the machine does)
  */
 public record LiveResult(long block, double timeSeconds, long droppedFrames, long droppedFramesTotal, long skippedBlocks,
-                         List<Measurement> measurements, Capture capture, double analysisSeconds) {
+                         List<Measurement> measurements, Capture capture, double analysisSeconds, double analysisCpuSeconds) {
     public LiveResult {
         measurements = List.copyOf(measurements);
     }

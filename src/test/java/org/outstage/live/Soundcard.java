@@ -12,10 +12,22 @@ import org.outstage.audio.JavaSoundBackend;
 public final class Soundcard {
     private Soundcard() {}
 
+    private static String missing;
+    private static boolean checked;
+
+    /** Why there is no soundcard, or null; found once per test JVM (listing devices opens lines and takes a second). */
+    private static synchronized String missing() {
+        if (!checked) {
+            checked = true;
+            if (System.getenv("PULSE_SERVER") == null) missing = "PULSE_SERVER is not set (run: eval \"$(tools/virtual-soundcard start)\")";
+            else if (new JavaSoundBackend().inputs().isEmpty())
+                missing = "Java Sound lists no input device (is the PulseAudio daemon of tools/virtual-soundcard running?)";
+        }
+        return missing;
+    }
+
     public static void require() {
-        String why = null;
-        if (System.getenv("PULSE_SERVER") == null) why = "PULSE_SERVER is not set (run: eval \"$(tools/virtual-soundcard start)\")";
-        else if (new JavaSoundBackend().inputs().isEmpty()) why = "Java Sound lists no input device (is the PulseAudio daemon of tools/virtual-soundcard running?)";
+        String why = missing();
         if (why == null) return;
         if ("true".equals(System.getenv("CI"))) Assertions.fail("CI=true and no virtual soundcard: " + why);
         Assumptions.abort("no soundcard: " + why);

@@ -67,7 +67,7 @@ final class SyntheticLiveSource implements LiveSource {
                 Capture c = Capture.inMemory("live block " + b, RATE_HZ, SampleUnit.FULL_SCALE, block(levelNow.get(), t, turnSeconds, 100 + b));
                 if (settings.fullScaleVolts().isPresent()) c = c.calibrated(settings.fullScaleVolts().getAsDouble(), SampleUnit.VOLTS);
                 List<Measurement> m = LiveSession.measure(c, settings);
-                LiveResult r = new LiveResult(b, t + BLOCK_SECONDS, 0, 0, 0, m, c, 0);
+                LiveResult r = new LiveResult(b, t + BLOCK_SECONDS, 0, 0, 0, m, c, 0, 0);
                 last.set(r);
                 if (!running.get()) break;
                 listener.onBlock(r);
