@@ -32,7 +32,7 @@ class ChannelRoleTest {
     void benchTxtRoles_giveTheGeneratorChannel() throws Exception {
         java.nio.file.Path d = java.nio.file.Files.createTempDirectory("roles");
         java.nio.file.Path f = d.resolve("bench.txt");
-        java.nio.file.Files.writeString(f, "*.wav roles=output,generator\nbad.wav roles=gen,amp\n");
+        java.nio.file.Files.writeString(f, "*.wav roles=output,generator\nbad.wav roles=gen,amplifier\n");
         assertThrows(CaptureFormatException.class, () -> BenchManifest.read(f));
         java.nio.file.Files.writeString(f, "*.wav roles=output,generator\n");
         BenchManifest m = BenchManifest.read(f);
