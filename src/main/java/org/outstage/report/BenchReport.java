@@ -128,8 +128,20 @@ public final class BenchReport {
         if (!m.measured()) return;
         String name = Path.of(c.file()).getFileName().toString() + (c.capture().channelCount() > 1 ? " ch " + m.channel() : "");
         h.append("<h2>").append(HtmlReport.esc(name)).append("</h2>\n");
-        if (m.stage() instanceof StageDiagnosis.Measured s)
-            h.append("<p>").append(HtmlReport.esc(s.crossover().explanation())).append("</p>\n");
+        boolean crossover = org.outstage.analysis.Plausibility.crossoverGiven(m);
+        if (m.stage() instanceof StageDiagnosis.Measured s) {
+            var clip = s.clipping();
+            if (clip.detected()) // clipping first: it is what the capture shows before anything about the crossover
+                h.append("<p>Clipping: positive ").append(HtmlReport.esc(clip.positive().map(p -> String.format(java.util.Locale.ROOT, "%.2f %s", p.levelVolts(), m.unit())).orElse("none")))
+                        .append(", negative ").append(HtmlReport.esc(clip.negative().map(p -> String.format(java.util.Locale.ROOT, "%.2f %s", p.levelVolts(), m.unit())).orElse("none")))
+                        .append(", first: ").append(HtmlReport.esc(clip.clipsFirst().label())).append(".</p>\n");
+            h.append("<p>").append(HtmlReport.esc(crossover ? "Crossover: " + s.crossover().explanation()
+                    : String.format(java.util.Locale.ROOT, "Crossover: not given; the record spans %.1f cycles, at least %d are needed.",
+                            org.outstage.analysis.Plausibility.cycles(m), org.outstage.analysis.Plausibility.MIN_CYCLES_FOR_CROSSOVER)))
+                    .append("</p>\n");
+        }
+        for (String caution : org.outstage.analysis.Plausibility.cautions(m, m.settings().loadOhms()))
+            if (crossover || !caution.contains("crossover")) h.append("<p class=\"sub\">Caution: ").append(HtmlReport.esc(caution)).append("</p>\n");
         int span = Analyzer.spanFrames(c.capture());
         double[] x = c.capture().readChannel(m.channel() - 1, span);
         figure(h, MeasurementCharts.waveform(name, m, x, ""));
@@ -137,7 +149,7 @@ public final class BenchReport {
         figure(h, MeasurementCharts.residual(name, m, r.samples()));
         MeasurementCharts.spectrum(name, m).ifPresent(sp -> figure(h, sp));
         MeasurementCharts.harmonicProfile(name, m).ifPresent(sp -> figure(h, sp));
-        MeasurementCharts.transfer(name, m, Optional.empty(), "").ifPresent(sp -> figure(h, sp));
+        if (crossover) MeasurementCharts.transfer(name, m, Optional.empty(), "").ifPresent(sp -> figure(h, sp));
     }
 
     private static void figure(StringBuilder h, ChartSpec spec) {

@@ -128,7 +128,19 @@ public final class SvgRenderer {
             double lw = 0;
             for (Series s : spec.series()) lw = Math.max(lw, s.name().length() * 6.8);
             double boxW = lw + 40, boxH = spec.series().size() * 17 + 8;
-            double bx = l + w - boxW - 8, by = t + 8;
+            // the corner whose box covers the fewest data points (top right on a tie), so the legend does not hide curves
+            double[][] corners = {{l + w - boxW - 8, t + 8}, {l + 8, t + 8}, {l + w - boxW - 8, t + h - boxH - 8}, {l + 8, t + h - boxH - 8}};
+            double bx = corners[0][0], by = corners[0][1];
+            long best = Long.MAX_VALUE;
+            for (double[] cn : corners) {
+                long covered = 0;
+                for (Series s : spec.series())
+                    for (int i = 0; i < s.size(); i++) {
+                        double px = vp.px(s.xAt(i)), py = vp.py(s.yAt(i));
+                        if (px >= cn[0] && px <= cn[0] + boxW && py >= cn[1] && py <= cn[1] + boxH) covered++;
+                    }
+                if (covered < best) { best = covered; bx = cn[0]; by = cn[1]; }
+            }
             sb.append("<g><rect x=\"").append(f(bx)).append("\" y=\"").append(f(by)).append("\" width=\"").append(f(boxW)).append("\" height=\"")
                     .append(f(boxH)).append("\" fill=\"#ffffff\" fill-opacity=\"0.88\" stroke=\"").append(Palette.GRID_MAJOR).append("\"/>\n");
             for (int si = 0; si < spec.series().size(); si++) {

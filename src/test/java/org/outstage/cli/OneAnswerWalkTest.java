@@ -147,4 +147,28 @@ class OneAnswerWalkTest {
         assertFalse(scope.out().contains("notch width"), scope.out());
         assertTrue(scope.out().indexOf("  clipping ") < scope.out().indexOf("  crossover "), "clipping is said first:\n" + scope.out());
     }
+
+    /**
+     * The bench report of the sample folder: the clipping captures' sections say clipping first and never call it
+     * "memory"; the 4-cycle scope export gets no crossover reading and no transfer chart; the report is dated.
+     */
+    @Test
+    void finding13_clippingSectionsSayClippingFirst() throws Exception {
+        CliRun bench = CliRun.of("bench", SAMPLES.toString(), "--out", dir.resolve("b").toString());
+        String html = Files.readString(dir.resolve("b").resolve("report.html"));
+        assertFalse(html.contains("(memory)"), "clipping or hysteresis called memory");
+        assertTrue(Pattern.compile("analysed with Outstage [^<]* on \\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2}:\\d{2} UTC").matcher(html).find(), "dated");
+        for (String f : List.of("da60-scope-70W-clipping.csv", "da60-level-070W.wav")) {
+            int at = html.indexOf("<h2>" + f);
+            assertTrue(at > 0, f);
+            int end = html.indexOf("<h2>", at + 4);
+            String section = html.substring(at, end < 0 ? html.length() : end);
+            assertTrue(section.indexOf("Clipping:") >= 0 && section.indexOf("Clipping:") < section.indexOf("Crossover:"), section);
+        }
+        int at = html.indexOf("<h2>da60-scope-70W-clipping.csv");
+        int end = html.indexOf("<h2>", at + 4);
+        String scope = html.substring(at, end < 0 ? html.length() : end);
+        assertTrue(scope.contains("Crossover: not given; the record spans 4.0 cycles"), scope);
+        assertFalse(scope.contains("incremental gain against output"), "no transfer chart for 4 cycles");
+    }
 }

@@ -51,4 +51,26 @@ class ReportWalkTest {
         String svg = SvgRenderer.render(spec, 760, 420);
         assertTrue(svg.contains(">H8</text>") && svg.contains(">H9</text>"), "both harmonic labels");
     }
+
+    @Test
+    void finding13_legendDoesNotCoverTheMarkers() {
+        // THD rising steeply with power: the curve runs into the top-right corner, where the legend used to sit
+        double[] p = {1, 2, 5, 10, 20, 40, 60, 70, 80, 90, 100};
+        double[] thd = {0.0006, 0.0004, 0.0003, 0.0003, 0.0003, 0.0003, 0.04, 0.06, 0.08, 0.09, 0.1};
+        double[] thdN = {0.0007, 0.0005, 0.0004, 0.0004, 0.0004, 0.0004, 0.041, 0.061, 0.081, 0.091, 0.1};
+        String svg = SvgRenderer.render(Charts.levelSweep("s", p, thd, thdN, 0.01), 760, 420);
+        java.util.regex.Matcher box = java.util.regex.Pattern.compile(
+                "<g><rect x=\"([0-9.]+)\" y=\"([0-9.]+)\" width=\"([0-9.]+)\" height=\"([0-9.]+)\" fill=\"#ffffff\"").matcher(svg);
+        assertTrue(box.find(), "legend box");
+        double bx = Double.parseDouble(box.group(1)), by = Double.parseDouble(box.group(2));
+        double bw = Double.parseDouble(box.group(3)), bh = Double.parseDouble(box.group(4));
+        java.util.regex.Matcher c = java.util.regex.Pattern.compile("<circle cx=\"([0-9.]+)\" cy=\"([0-9.]+)\"").matcher(svg);
+        int n = 0;
+        while (c.find()) {
+            double x = Double.parseDouble(c.group(1)), y = Double.parseDouble(c.group(2));
+            assertFalse(x >= bx && x <= bx + bw && y >= by && y <= by + bh, "marker at " + x + "," + y + " under the legend");
+            n++;
+        }
+        assertEquals(22, n);
+    }
 }
