@@ -208,7 +208,7 @@ public final class JsonText {
             for (int c = 0; c < 0x20; c++) {
                 if (c == '\n' || c == '\r' || c == '\t') continue;
                 codes[c] = ESCAPE_CUSTOM;
-                controls[c] = new SerializedString(String.format(Locale.ROOT, "\\u%04x", c));
+                controls[c] = new SerializedString("\\u00" + Character.forDigit(c >> 4, 16) + Character.forDigit(c & 15, 16));
             }
         }
 
@@ -230,7 +230,14 @@ public final class JsonText {
         private int openArrays;
         private int depth;
 
+        /** A newline and 32 levels of indentation, written in one piece. */
+        private static final char[] NEWLINE = ("\n" + " ".repeat(64)).toCharArray();
+
         private void newline(JsonGenerator g) throws IOException {
+            if (2 * depth < NEWLINE.length) {
+                g.writeRaw(NEWLINE, 0, 1 + 2 * depth);
+                return;
+            }
             g.writeRaw('\n');
             for (int i = 0; i < depth; i++) g.writeRaw("  ");
         }

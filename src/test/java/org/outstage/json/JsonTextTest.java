@@ -216,6 +216,10 @@ class JsonTextTest {
             String text = JsonText.pretty(tree);
             assertEquals(EarlierJson.parse(text), JsonText.parse(text));
         }
+        Object deep = JsonText.obj("x", new double[] {1});   // deeper than the indentation written in one piece
+        for (int level = 0; level < 40; level++) deep = level % 2 == 0 ? List.of(deep, level) : JsonText.obj("l" + level, deep);
+        assertEquals(EarlierJson.pretty(deep), JsonText.pretty(deep));
+        assertEquals(EarlierJson.parse(EarlierJson.pretty(deep)), JsonText.parse(JsonText.pretty(deep)));
         // the one intended difference: -0.0 keeps its sign
         assertEquals("[0.0]", EarlierJson.write(new double[] {-0.0}));
         assertEquals("[-0.0]", JsonText.write(new double[] {-0.0}));
