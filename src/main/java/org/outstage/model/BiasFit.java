@@ -24,6 +24,10 @@ import org.outstage.analysis.stage.BiasCriterion;
  * + 0.05 %), where the noise is the RMS second difference of the measured normalised gain divided by √6 (white
  * noise gives var(y[i−1] − 2y[i] + y[i+1]) = 6σ²).
  *
+ * <p>Band (docs/model.md §6): a curve measured on a band-limited capture (a soundcard WAV) is compared with the model's
+ * curve passed through the same band ({@link CaptureBand}, {@link #bandLimitedCurve}); without a band the model's
+ * curve is used as it is. The optimum is read from the unlimited curve in both cases: it is the stage's own.
+ *
  * <p>Assumption: the curve is the open-loop stage's (global feedback would shrink the crossover signature and
  * the fit would read a bias that is too high).
  */
