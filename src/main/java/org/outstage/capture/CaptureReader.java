@@ -32,6 +32,19 @@ public final class CaptureReader {
         return ScopeCsvReader.read(file, options);
     }
 
+    /**
+     * True when {@link #open} reads {@code file} as a WAV (by content, then by extension), false for a scope CSV. A
+     * soundcard WAV is band-limited by the card's anti-alias filter; a scope export usually is not.
+     *
+     * @throws CaptureFormatException when the file cannot be read
+     */
+    public static boolean isWav(Path file) throws CaptureFormatException {
+        if (file == null) throw new IllegalArgumentException("file must not be null");
+        String name = String.valueOf(file.getFileName()).toLowerCase(Locale.ROOT);
+        boolean wavName = name.endsWith(".wav") || name.endsWith(".wave") || name.endsWith(".rf64") || name.endsWith(".bw64");
+        return wavName || WavReader.hasWavMagic(head(file));
+    }
+
     static Capture calibrateWav(Path file, Capture raw, CaptureOptions options) throws CaptureFormatException {
         if (options.sampleRateHz().isPresent()) {
             double given = options.sampleRateHz().getAsDouble();

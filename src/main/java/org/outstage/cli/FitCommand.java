@@ -10,6 +10,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.Optional;
 import java.util.TreeMap;
 import java.util.concurrent.Callable;
 import org.outstage.analysis.Measurement;
@@ -17,9 +18,11 @@ import org.outstage.analysis.TransferCurve;
 import org.outstage.analysis.stage.BiasCriterion;
 import org.outstage.analysis.stage.BiasVerdict;
 import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.capture.CaptureReader;
 import org.outstage.json.JsonText;
 import org.outstage.model.BiasFit;
 import org.outstage.model.BiasFitResult;
+import org.outstage.model.CaptureBand;
 import org.outstage.model.SolverFailureException;
 import org.outstage.model.StageParameters;
 import picocli.CommandLine.Command;
@@ -52,6 +55,11 @@ public final class FitCommand implements Callable<Integer> {
     @Option(names = "--channel", paramLabel = "N", description = "Capture: channel to fit, from 1 (needed when several are measured).") Integer channel;
     @Option(names = "--sample-rate", paramLabel = "HZ", converter = Units.Hertz.class, description = "Capture: sample rate of a scope CSV without time column.") Double sampleRate;
     @Option(names = "--reference", paramLabel = "N", description = "Capture: channel (from 1) carrying the generator signal, for an X-Y transfer curve.") Integer reference;
+    @Option(names = "--capture-band", paramLabel = "HZ|none", description = {"Capture: band edge of the capture (where its anti-alias filter passes half the amplitude); the model's curve is kept to the harmonics below it before fitting.",
+            "Default: 0.4583 x the sample rate for a WAV (22 kHz at 48 kHz: a soundcard flat to 20 kHz and stopped at 24 kHz, common practice), none for a scope CSV; 'none' fits the unlimited curve."}) String captureBand;
+
+    /** The band the capture kept (set while reading a capture); empty for a transfer-curve CSV, a scope CSV or 'none'. */
+    private Optional<CaptureBand> band = Optional.empty();
 
     @Override
     public Integer call() {
@@ -60,10 +68,14 @@ public final class FitCommand implements Callable<Integer> {
         double level = levelV != null ? levelV : 0.6 * p.railVolts();
         if (!(level > 0)) throw new BadInputException("level-v=" + level + " must be > 0");
         if (!(toleranceMv > 0)) throw new BadInputException("tolerance-mv=" + toleranceMv + " must be > 0");
-        TransferCurve curve = isCurveCsv(file) ? readCurve(file) : measuredCurve();
+        Double bandHz = parseBand(captureBand);
+        boolean curveCsv = isCurveCsv(file);
+        if (curveCsv && bandHz != null)
+            throw new BadInputException("capture-band=" + captureBand + " applies to a capture, not to a transfer-curve CSV (" + file + ")");
+        TransferCurve curve = curveCsv ? readCurve(file) : measuredCurve(bandHz);
         BiasFitResult r;
         try {
-            r = BiasFit.fit(curve, p, level, toleranceMv / 1e3, stage.solver());
+            r = BiasFit.fit(curve, p, level, toleranceMv / 1e3, stage.solver(), band);
         } catch (IllegalArgumentException e) {
             throw new BadInputException(file + ": no bias fit: " + e.getMessage());
         } catch (SolverFailureException e) {
@@ -80,11 +92,23 @@ public final class FitCommand implements Callable<Integer> {
                     "optimum_criterion", BiasCriterion.DEFINITION,
                     "optimum_band_low_vq_mv", nullIfNaN(r.bandLowVqVolts() * 1e3), "optimum_band_high_vq_mv", nullIfNaN(r.bandHighVqVolts() * 1e3),
                     "crossover_ratio", nullIfNaN(r.crossoverRatio()),
-                    "flattest_gain_vq_mv", r.flattestGainVqVolts() * 1e3, "flattest_gain_at_search_limit", r.flattestGainAtSearchLimit())));
+                    "flattest_gain_vq_mv", r.flattestGainVqVolts() * 1e3, "flattest_gain_at_search_limit", r.flattestGainAtSearchLimit(),
+                    "capture_band_hz", band.isPresent() ? band.get().bandHz() : null,
+                    "fundamental_hz", band.isPresent() ? band.get().fundamentalHz() : null,
+                    "band_harmonics", r.bandHarmonics() > 0 ? r.bandHarmonics() : null,
+                    "crossover_ratio_in_band", nullIfNaN(r.crossoverRatioInBand()))));
         } else {
             out.println("Bias fit: " + file + " as a " + p.topology().name() + " stage (" + ModelCommand.describe(p) + ")");
             out.println(fmt("  estimated Vq   %8.2f mV per emitter resistor (bias generator %.4f V)", r.vqVolts() * 1e3, r.biasVolts()));
+            if (r.bandHarmonics() > 0)
+                out.println(fmt("  capture band   %.0f Hz: the model's curve kept to harmonics 0..%d of %.2f Hz, as the capture kept it (--capture-band)", band.get().bandHz(),
+                        r.bandHarmonics(), band.get().fundamentalHz()));
+            else if (band.isPresent())
+                out.println(fmt("  capture band   %.0f Hz: %d harmonics of %.2f Hz, too many to matter; the model's curve is not band-limited", band.get().bandHz(),
+                        band.get().harmonics(), band.get().fundamentalHz()));
             out.println(fmt("  model's crossover ratio at the estimate %.4f (gain at zero / large-current gain, as the verdict reads it)", r.crossoverRatio()));
+            if (r.bandHarmonics() > 0)
+                out.println(fmt("  the same through the capture's band %.4f (what analyze reads on the capture)", r.crossoverRatioInBand()));
             if (r.optimumAtSearchLimit()) out.println("  optimum Vq     none: the model's crossover ratio does not reach 1 between Vq 0.1 and 200 mV");
             else out.println(fmt("  optimum Vq     %8.2f mV, near-optimal %.2f to %.2f mV (crossover ratio 1 +/- %.1f %%, Oliver 1971)", r.optimumVqVolts() * 1e3,
                     r.bandLowVqVolts() * 1e3, r.bandHighVqVolts() * 1e3, BiasCriterion.BAND * 100));
@@ -113,8 +137,26 @@ public final class FitCommand implements Callable<Integer> {
         }
     }
 
-    /** Reads the capture and returns the measured transfer curve of the chosen channel. */
-    private TransferCurve measuredCurve() {
+    /** The --capture-band value in hertz; null when not given; NaN for 'none'. */
+    private static Double parseBand(String v) {
+        if (v == null) return null;
+        if (v.strip().equalsIgnoreCase("none")) return Double.NaN;
+        double hz;
+        try {
+            hz = new Units.Hertz().convert(v);
+        } catch (RuntimeException e) {
+            throw new BadInputException("capture-band=" + v + " must be a frequency in hertz (20000, 20kHz) or 'none'");
+        }
+        if (!(hz > 0) || !Double.isFinite(hz)) throw new BadInputException("capture-band=" + v + " must be > 0 Hz");
+        return hz;
+    }
+
+    /**
+     * Reads the capture and returns the measured transfer curve of the chosen channel; sets {@link #band}: the given
+     * band edge (NaN: none), else for a WAV the soundcard default {@link CaptureBand#SOUNDCARD_BAND_FRACTION} × the
+     * sample rate (common practice, from memory), else (scope CSV) none; with the measured tone's frequency.
+     */
+    private TransferCurve measuredCurve(Double bandHz) {
         List<String> args = new ArrayList<>();
         if (fsVolts != null) { args.add("--fs-volts"); args.add(Double.toString(fsVolts)); }
         if (probe != null) { args.add("--probe"); args.add(Double.toString(probe)); }
@@ -136,6 +178,20 @@ public final class FitCommand implements Callable<Integer> {
             // refuses for a reason other than noise (memory, clipping in the outer swing, coarse resolution, level too low).
             if (d.crossover().verdict() == BiasVerdict.UNCLEAR && d.crossover().confidence() == 0)
                 throw new BadInputException(file + " channel " + m.channel() + ": no bias fit: " + d.crossover().explanation());
+            boolean wav;
+            try {
+                wav = CaptureReader.isWav(file);
+            } catch (org.outstage.capture.CaptureFormatException e) {
+                throw new BadInputException(e.getMessage());
+            }
+            double bandEdge = bandHz != null ? bandHz : wav ? CaptureBand.SOUNDCARD_BAND_FRACTION * m.sampleRateHz() : Double.NaN;
+            double f0 = m.fundamental().frequencyHz();
+            if (Double.isFinite(bandEdge)) {
+                if (!(f0 > 0) || bandEdge < f0)
+                    throw new BadInputException(file + ": capture band " + fmt("%.0f", bandEdge) + " Hz does not reach the tone at " + fmt("%.2f", f0)
+                            + " Hz: give --capture-band HZ or none");
+                band = Optional.of(new CaptureBand(bandEdge, f0));
+            }
             return d.transfer().curve();
         }
         throw new BadInputException(file + " channel " + m.channel() + ": no transfer curve: " + ((StageDiagnosis.NotMeasured) m.stage()).reason());

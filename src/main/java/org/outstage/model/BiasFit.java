@@ -24,6 +24,10 @@ import org.outstage.analysis.stage.BiasCriterion;
  * + 0.05 %), where the noise is the RMS second difference of the measured normalised gain divided by √6 (white
  * noise gives var(y[i−1] − 2y[i] + y[i+1]) = 6σ²).
  *
+ * <p>Band (docs/model.md §6): a curve measured on a band-limited capture (a soundcard WAV) is compared with the model's
+ * curve passed through the same band ({@link CaptureBand}, {@link #bandLimitedCurve}); without a band the model's
+ * curve is used as it is. The optimum is read from the unlimited curve in both cases: it is the stage's own.
+ *
  * <p>Assumption: the curve is the open-loop stage's (global feedback would shrink the crossover signature and
  * the fit would read a bias that is too high).
  */
@@ -43,7 +47,26 @@ public final class BiasFit {
      * @param solver         solver settings
      */
     public static BiasFitResult fit(TransferCurve measured, StageParameters stage, double levelVolts, double toleranceVolts, SolverSettings solver) {
+        return fit(measured, stage, levelVolts, toleranceVolts, solver, java.util.Optional.empty());
+    }
+
+    /**
+     * Fits the bias to a curve measured through a band: the model's curve is passed through the same band before it is
+     * compared ({@link #bandLimitedCurve}; docs/model.md §6). Without a band, or with a band holding more than
+     * {@link #MAX_BAND_HARMONICS} harmonics of the fundamental, this is {@link #fit(TransferCurve, StageParameters, double,
+     * double, SolverSettings)}. The optimum (crossover ratio 1) is the stage's own in both cases: it is not band-limited.
+     *
+     * @param band the band the capture kept (band edge and the test tone's frequency); empty for a curve without one
+     *             (a transfer-curve CSV)
+     */
+    public static BiasFitResult fit(TransferCurve measured, StageParameters stage, double levelVolts, double toleranceVolts, SolverSettings solver,
+                                    java.util.Optional<CaptureBand> band) {
         Require.notNull("measured", measured);
+        Require.notNull("band", band);
+        int harmonics = band.map(CaptureBand::harmonics).orElse(0);
+        Require.that(band.isEmpty() || harmonics >= 1, "capture band: the band edge " + band.map(CaptureBand::bandHz).orElse(0.0)
+                + " Hz must reach the fundamental " + band.map(CaptureBand::fundamentalHz).orElse(0.0) + " Hz");
+        final int h = band.isPresent() && harmonics <= MAX_BAND_HARMONICS ? harmonics : 0; // 0: the unlimited path
         Require.positive("levelVolts", levelVolts);
         Require.positive("toleranceVolts", toleranceVolts);
         double[] xRaw = measured.outputVolts(), yRaw = measured.incrementalGain();
@@ -80,7 +103,7 @@ public final class BiasFit {
         final double[] xs = x;
         java.util.function.DoubleUnaryOperator cost = vb -> {
             try {
-                return rms(base.curveAtBias(vb, vin), xs, yn, p);
+                return rms(h > 0 ? bandLimitedCurve(base, vb, p, h) : base.curveAtBias(vb, vin), xs, yn, p);
             } catch (SolverFailureException e) {
                 return Double.POSITIVE_INFINITY;
             }
@@ -100,6 +123,14 @@ public final class BiasFit {
             }
         };
         double ratioAtFit = ratio.applyAsDouble(best[0]);
+        double ratioInBand = Double.NaN;
+        if (h > 0) {
+            try {
+                ratioInBand = modelRatio(bandLimitedCurve(base, best[0], p, h), p);
+            } catch (SolverFailureException e) {
+                ratioInBand = Double.NaN;
+            }
+        }
         CrossoverOptimum oliver = oliverOptimum(ratio, vbLo, vbHi, stage, solver, p).orElse(null);
         OptimumBias flattest = fitted.optimumBias(levelVolts);
         double limit = Math.min(0.005, 3 * noise + 0.0005);
@@ -116,20 +147,20 @@ public final class BiasFit {
                     + " (gain at zero equal to the large-current gain) between Vq 0.1 and 200 mV", mv(vq), stage.topology().name());
         } else {
             given = true;
-            String band = String.format(Locale.ROOT, "near-optimal band %s to %s mV: crossover ratio 1 ± %.1f %%, Oliver's optimum %s mV",
+            String bandText = String.format(Locale.ROOT, "near-optimal band %s to %s mV: crossover ratio 1 ± %.1f %%, Oliver's optimum %s mV",
                     mv(oliver.bandLowVqVolts()), mv(oliver.bandHighVqVolts()), BiasCriterion.BAND * 100, mv(oliver.vqVolts()));
             if (vq < oliver.bandLowVqVolts())
                 advice = String.format(Locale.ROOT, "raise the drop across each emitter resistor by about %s mV (from %s mV to %s mV; %s)",
-                        mv(oliver.vqVolts() - vq), mv(vq), mv(oliver.vqVolts()), band);
+                        mv(oliver.vqVolts() - vq), mv(vq), mv(oliver.vqVolts()), bandText);
             else if (vq > oliver.bandHighVqVolts())
                 advice = String.format(Locale.ROOT, "lower the drop across each emitter resistor by about %s mV (from %s mV to %s mV; %s)",
-                        mv(vq - oliver.vqVolts()), mv(vq), mv(oliver.vqVolts()), band);
+                        mv(vq - oliver.vqVolts()), mv(vq), mv(oliver.vqVolts()), bandText);
             else
-                advice = String.format(Locale.ROOT, "leave it: %s mV across each emitter resistor is in the %s", mv(vq), band);
+                advice = String.format(Locale.ROOT, "leave it: %s mV across each emitter resistor is in the %s", mv(vq), bandText);
         }
         return new BiasFitResult(vq, best[0], oliver != null ? oliver.vqVolts() : Double.NaN, oliver == null, levelVolts, rms, noise, limit, given, advice, used,
                 oliver != null ? oliver.bandLowVqVolts() : Double.NaN, oliver != null ? oliver.bandHighVqVolts() : Double.NaN, ratioAtFit,
-                flattest.vqVolts(), flattest.atSearchLimit());
+                flattest.vqVolts(), flattest.atSearchLimit(), h, ratioInBand);
     }
 
     /**
@@ -212,6 +243,103 @@ public final class BiasFit {
         int c = 0;
         for (int i = 0; i < mx.length; i++) if (Math.abs(mx[i]) >= 0.5 * p && Math.abs(mx[i]) <= 0.9 * p) { s += mg[i]; c++; }
         return g0 / (c > 0 ? s / c : (gIn + gOut) / 2);
+    }
+
+    /**
+     * Points per cycle of the band-limited model (at least 4h): the drive a·cos θ is solved at the 1025 distinct inputs
+     * of 2048. Enough for harmonics 0…22 of an under-biased pair at 40 W: the model's band-limited crossover ratio at
+     * Vq 0.3, 1, 3 and 26 mV is the same to 2e-5 with 512 to 16384 points per cycle (docs/model.md §6).
+     */
+    static final int CYCLE_POINTS = 2048;
+
+    /**
+     * The most harmonics a band may hold and still be applied: above it the fit takes the unlimited model curve. At
+     * 1024 harmonics (a 1 MHz band for a 1 kHz tone) the band-limited crossover ratio of the pair at Vq 1 mV and 40 W is
+     * the unlimited one within 0.1 % (0.7524 against 0.7516; at 300 harmonics it still reads 0.784) (docs/model.md §6).
+     */
+    static final int MAX_BAND_HARMONICS = 1024;
+
+    /**
+     * The model's curve as a capture through a band of {@code h} harmonics records it, as {vout, gain} on ascending
+     * inputs (docs/model.md §6). The model (at bias voltage vb) is driven by a·cos θ, a chosen so that its output
+     * peak max(vout(a), −vout(−a)) equals the measured peak p (Newton on a, two solves of ±a); its output over one cycle
+     * ({@link #CYCLE_POINTS} points, or 4h when more; the output is even in θ, so only θ ∈ [0, π] is solved) is reduced to harmonics
+     * 0…h by the discrete Fourier transform (cosine terms only), and the band-limited curve rebuilt over θ ∈ [0, π]:
+     * yb(θ) = Σ c_k cos kθ. With u = cos θ = vin/a, cos kθ = T_k(u) (Chebyshev polynomials; docs/references.md §6.4),
+     * so the band-limited curve is the Chebyshev series of the static curve on [−a, a] truncated at degree h, and its
+     * incremental gain dyb/dvin = Σ k·c_k·U_{k−1}(u) / a, exact and finite at the ends. The gain is against the drive,
+     * as the measurement's is against the fitted fundamental; the two differ by a constant, which the fit's
+     * normalisation removes.
+     */
+    static double[][] bandLimitedCurve(StageModel base, double vb, double p, int h) {
+        int n = CYCLE_POINTS;
+        while (n < 4 * h) n *= 2;
+        return bandLimitedCurve(base, vb, p, h, n);
+    }
+
+    /** {@link #bandLimitedCurve(StageModel, double, double, int)} with {@code cyclePoints} (even, &gt; 2h) points per cycle. */
+    static double[][] bandLimitedCurve(StageModel base, double vb, double p, int h, int cyclePoints) {
+        StageModel at = base.atBias(vb);
+        double a = driveForPeak(at, p);
+        int m = cyclePoints / 2;
+        double[] vin = new double[m + 1];
+        for (int j = 0; j <= m; j++) vin[j] = a * Math.cos(Math.PI * (m - j) / m); // θ = π(m − j)/m: ascending inputs
+        vin[0] = -a;
+        vin[m] = a;
+        vin[m / 2] = 0;
+        double[] y = at.curve(vin)[0];
+        double[] cosTable = cyclePoints == CYCLE_POINTS ? COS_TABLE : cosTable(cyclePoints);
+        Require.that(cyclePoints % 2 == 0 && cyclePoints > 2 * h, "cyclePoints=" + cyclePoints + " must be even and > 2h = " + 2 * h);
+        double[] c = new double[h + 1];
+        for (int k = 0; k <= h; k++) {
+            // y(θ_i) = y[m − i], θ_i = πi/m; trapezoid over [0, π] = the DFT of the even cycle of 2m points
+            double sum = 0.5 * (y[m] + ((k & 1) == 0 ? 1 : -1) * y[0]);
+            for (int i = 1; i < m; i++) sum += y[m - i] * cosTable[(int) ((long) k * i % (2L * m))];
+            c[k] = (k == 0 ? 1.0 : 2.0) * sum / m;
+        }
+        int g = Math.max(1024, 8 * h);
+        double[] out = new double[g + 1], gain = new double[g + 1];
+        for (int j = 0; j <= g; j++) {
+            double u = Math.cos(Math.PI * (g - j) / g);
+            if (j == 0) u = -1;
+            if (j == g) u = 1;
+            double tPrev = 1, t = u, uPrev = 0, uCur = 1; // T_0, T_1, U_{-1}, U_0
+            double yv = c[0], gv = 0;
+            for (int k = 1; k <= h; k++) {
+                yv += c[k] * t;
+                gv += k * c[k] * uCur;
+                double tNext = 2 * u * t - tPrev, uNext = 2 * u * uCur - uPrev;
+                tPrev = t; t = tNext; uPrev = uCur; uCur = uNext;
+            }
+            out[j] = yv;
+            gain[j] = gv / a;
+        }
+        return new double[][] {out, gain};
+    }
+
+    private static final double[] COS_TABLE = cosTable(CYCLE_POINTS);
+
+    /** cos(2πi/n), i = 0…n−1. */
+    private static double[] cosTable(int n) {
+        double[] t = new double[n];
+        for (int i = 0; i < n; i++) t[i] = Math.cos(2 * Math.PI * i / n);
+        return t;
+    }
+
+    /** The drive amplitude a at which the model's (unlimited) output peak max(vout(a), −vout(−a)) is p: Newton from p·(RL + Re)/RL. */
+    private static double driveForPeak(StageModel at, double p) {
+        StageParameters s = at.parameters();
+        double a = p * (s.loadOhms() + s.emitterOhms()) / s.loadOhms();
+        for (int it = 0; it < 4; it++) {
+            double[][] r = at.curve(new double[] {-a, a});
+            boolean upper = r[0][1] >= -r[0][0];
+            double peak = upper ? r[0][1] : -r[0][0], slope = upper ? r[1][1] : r[1][0];
+            if (!(slope > 0)) break;
+            double next = a + (p - peak) / slope;
+            if (Math.abs(next - a) < 1e-9 * a) { a = next; break; }
+            a = next;
+        }
+        return a;
     }
 
     static String mv(double volts) {

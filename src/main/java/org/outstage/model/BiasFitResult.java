@@ -22,8 +22,12 @@ package org.outstage.model;
  * @param flattestGainVqVolts  another criterion, not the advice: the model's flattest gain over |Vout| ≤ levelVolts
  *                             ({@link OptimumBias})
  * @param flattestGainAtSearchLimit the flattest-gain search ended at its top
+ * @param bandHarmonics        harmonics of the fundamental the model's curve was limited to, as the capture was
+ *                             (docs/model.md §6); 0 when it was not band-limited (no band, or a band too wide to matter)
+ * @param crossoverRatioInBand the fitted model's crossover ratio read from its band-limited curve (what the analysis reads
+ *                             on the capture); NaN when the curve was not band-limited
  */
 public record BiasFitResult(double vqVolts, double biasVolts, double optimumVqVolts, boolean optimumAtSearchLimit, double levelVolts,
                             double rmsResidual, double gainNoise, double residualLimit, boolean adviceGiven, String advice, int points,
                             double bandLowVqVolts, double bandHighVqVolts, double crossoverRatio, double flattestGainVqVolts,
-                            boolean flattestGainAtSearchLimit) {}
+                            boolean flattestGainAtSearchLimit, int bandHarmonics, double crossoverRatioInBand) {}

@@ -444,6 +444,12 @@ public final class StageModel {
         return at.sweep(new Solver(at.circuit, settings, vb, at.inputOffsetVolts), vin);
     }
 
+    /** This stage at bias voltage vb (package use: the fit, which solves several curves at one bias). */
+    StageModel atBias(double vb) { return of(params.withBias(new Bias.GeneratorVolts(vb)), settings); }
+
+    /** {vout, gain} on the given ascending inputs at this stage's own bias (package use: the fit). */
+    double[][] curve(double[] vin) { return sweep(new Solver(circuit, settings, biasVolts, inputOffsetVolts), vin); }
+
     /** max |g/g_L − 1| over |Vout| ≤ level for bias voltage vb (a 301-point curve, dense near zero). */
     double gainDeviation(double vb, double level) {
         StageModel at;

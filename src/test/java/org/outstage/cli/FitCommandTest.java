@@ -124,4 +124,44 @@ class FitCommandTest {
         assertEquals(9.0, (Double) j.get("vq_mv"), 0.5);
         assertTrue(((String) j.get("advice")).startsWith("raise"), (String) j.get("advice"));
     }
+
+    /**
+     * The soundcard capture at 3 mV (sample-captures/, band-limited by its modelled anti-alias filter, flat to 20 kHz and
+     * stopped at 24 kHz): by default a WAV is fitted through a band of 0.4583 × 48 kHz = 22 kHz, i.e. harmonics 0..22 of
+     * 997 Hz, and the fit recovers the generator's 3 mV; with --capture-band none the unlimited model is fitted and,
+     * since it cannot describe the band-limited notch, the fit refuses (docs/model.md §6).
+     */
+    @Test
+    @SuppressWarnings("unchecked")
+    void soundcardCapture_defaultBandFitsBack_noneRefuses() {
+        String capture = Path.of("sample-captures", "da60-bias-03mV-40W.wav").toString();
+        String[] r = run("fit", capture, "--topology", "pair", "--fs-volts", "40", "--json");
+        assertEquals("0", r[0], r[2]);
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(r[1]);
+        assertEquals(22000.0, (Double) j.get("capture_band_hz"), 1e-6);
+        assertEquals(997.0, (Double) j.get("fundamental_hz"), 0.01);
+        assertEquals(22.0, ((Number) j.get("band_harmonics")).doubleValue());
+        assertEquals(3.0, (Double) j.get("vq_mv"), 0.25);
+        assertEquals(Boolean.TRUE, j.get("advice_given"), (String) j.get("advice"));
+        String[] n = run("fit", capture, "--topology", "pair", "--fs-volts", "40", "--capture-band", "none", "--json");
+        assertEquals("0", n[0], n[2]);
+        Map<String, Object> u = (Map<String, Object>) JsonText.parse(n[1]);
+        assertEquals(null, u.get("band_harmonics"));
+        assertEquals(null, u.get("capture_band_hz"));
+        assertEquals(Boolean.FALSE, u.get("advice_given"), (String) u.get("advice"));
+        assertTrue(((String) u.get("advice")).startsWith("no advice: the pair model fits the measured gain poorly"), (String) u.get("advice"));
+    }
+
+    @Test
+    void captureBand_onCurveCsvOrBelowTheTone_exit2() throws Exception {
+        String[] r = run("fit", curveFile(0.008).toString(), "--topology", "darlington", "--capture-band", "20kHz");
+        assertEquals("2", r[0], r[1]);
+        assertTrue(r[2].contains("capture-band=20kHz applies to a capture, not to a transfer-curve CSV"), r[2]);
+        String[] low = run("fit", captureFile(0.009).toString(), "--fs-volts", "20", "--topology", "darlington", "--capture-band", "500");
+        assertEquals("2", low[0], low[1]);
+        assertTrue(low[2].contains("capture band 500 Hz does not reach the tone at 997"), low[2]);
+        String[] bad = run("fit", captureFile(0.009).toString(), "--fs-volts", "20", "--capture-band", "wide");
+        assertEquals("2", bad[0], bad[1]);
+        assertTrue(bad[2].contains("capture-band=wide must be a frequency in hertz"), bad[2]);
+    }
 }
