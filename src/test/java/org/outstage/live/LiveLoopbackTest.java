@@ -90,6 +90,7 @@ class LiveLoopbackTest {
         assertEquals(2, rec.channelCount());
         double[] all = rec.readChannel(0);
         assertTrue(results.size() >= 2);
+        int compared = 0;
         for (LiveResult r : results) {
             int start = (int) Math.round((r.timeSeconds() - 1.0) * 96_000);
             double[] seg = java.util.Arrays.copyOfRange(all, start, start + 96_000);
@@ -100,8 +101,13 @@ class LiveLoopbackTest {
             Measurement fromFile = Analyzer.analyze(Capture.inMemory("seg", 96_000, org.outstage.capture.SampleUnit.FULL_SCALE, seg, seg), 0,
                     org.outstage.analysis.AnalysisSettings.defaults());
             Measurement fromLive = r.measurements().get(0);
+            // a block before the tone arrived (a slow output start on a loaded machine) is silence: not measured either way
+            assertEquals(fromLive.notMeasuredReason(), fromFile.notMeasuredReason(), "block " + r.block());
+            if (!fromLive.measured()) continue;
             assertEquals(fromLive.thdN().ratio(), fromFile.thdN().ratio(), 1e-12 * Math.max(1, fromLive.thdN().ratio()));
             assertEquals(fromLive.fundamental().frequencyHz(), fromFile.fundamental().frequencyHz(), 1e-9);
+            compared++;
         }
+        assertTrue(compared >= 1, "no block carried the tone");
     }
 }
