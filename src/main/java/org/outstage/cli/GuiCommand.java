@@ -20,7 +20,7 @@ public final class GuiCommand implements Callable<Integer> {
     List<Path> files = new ArrayList<>();
 
     @picocli.CommandLine.Option(names = "--exit-after-first-render",
-            description = "Close the workbench once the first capture is drawn, printing the time since the process started (smoke tests, start-up timing).")
+            description = "Close the workbench once the first capture is drawn, printing the time since the JVM started (smoke tests, start-up timing).")
     boolean exitAfterFirstRender;
 
     @Override
