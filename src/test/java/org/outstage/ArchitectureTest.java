@@ -76,6 +76,13 @@ class ArchitectureTest {
     }
 
     @Test
+    void onlyJson_importsJackson() {
+        noClasses().that().resideOutsideOfPackage("org.outstage.json..")
+                .should().dependOnClassesThat().resideInAnyPackage("com.fasterxml.jackson..")
+                .check(MAIN);
+    }
+
+    @Test
     void stimulus_importsNothingOfOursAndNoAudio() {
         noClasses().that().resideInAPackage("org.outstage.stimulus..")
                 .should().dependOnClassesThat().resideInAnyPackage("org.outstage.capture..", "org.outstage.analysis..", "org.outstage.model..",

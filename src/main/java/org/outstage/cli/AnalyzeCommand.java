@@ -16,7 +16,7 @@ import org.outstage.analysis.Plausibility;
 import org.outstage.analysis.stage.Residual;
 import org.outstage.analysis.stage.StageAnalyzer;
 import org.outstage.analysis.stage.StageSettings;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.report.FigureTable;
 import org.outstage.report.MeasurementJson;
 import picocli.CommandLine.Command;
@@ -83,7 +83,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
             List<Object> caps = new ArrayList<>();
             for (Measuring.FileResult r : good)
                 for (Measurement m : r.measurements()) caps.add(MeasurementJson.capture(r.file(), m, r.capture().warnings()));
-            out.println(Json.pretty(Json.obj("captures", caps)));
+            out.println(JsonText.pretty(JsonText.obj("captures", caps)));
         } else if (csv) {
             out.print(FigureTable.csvHeader());
             for (Measuring.FileResult r : good)

@@ -9,7 +9,7 @@ import org.outstage.audio.AudioBackend;
 import org.outstage.audio.DeviceInfo;
 import org.outstage.audio.JavaSoundBackend;
 import org.outstage.audio.SampleFormat;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
@@ -36,7 +36,7 @@ public final class DevicesCommand implements Callable<Integer> {
         List<DeviceInfo> in = b.inputs();
         List<DeviceInfo> outs = b.outputs();
         if (json) {
-            out.println(Json.pretty(Json.obj("backend", b.name(), "inputs", list(in), "outputs", list(outs))));
+            out.println(JsonText.pretty(JsonText.obj("backend", b.name(), "inputs", list(in), "outputs", list(outs))));
         } else {
             out.println("inputs (" + b.name() + "):");
             text(out, in);
@@ -54,7 +54,7 @@ public final class DevicesCommand implements Callable<Integer> {
         for (DeviceInfo d : ds) {
             List<String> bits = new ArrayList<>();
             for (SampleFormat f : d.sampleFormats()) bits.add(f.label());
-            Map<String, Object> o = Json.obj("name", d.name(), "description", d.description(), "channels", d.channels(),
+            Map<String, Object> o = JsonText.obj("name", d.name(), "description", d.description(), "channels", d.channels(),
                     "sample_rates_hz", d.sampleRatesHz(), "bits", bits, "default", d.isDefault());
             l.add(o);
         }

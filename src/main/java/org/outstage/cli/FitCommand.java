@@ -17,7 +17,7 @@ import org.outstage.analysis.TransferCurve;
 import org.outstage.analysis.stage.BiasCriterion;
 import org.outstage.analysis.stage.BiasVerdict;
 import org.outstage.analysis.stage.StageDiagnosis;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.model.BiasFit;
 import org.outstage.model.BiasFitResult;
 import org.outstage.model.SolverFailureException;
@@ -73,7 +73,7 @@ public final class FitCommand implements Callable<Integer> {
             return OutstageCommand.EXIT_FAULT;
         }
         if (json) {
-            out.println(Json.pretty(Json.obj("file", file.toString(), "topology", p.topology().name(), "vq_mv", r.vqVolts() * 1e3,
+            out.println(JsonText.pretty(JsonText.obj("file", file.toString(), "topology", p.topology().name(), "vq_mv", r.vqVolts() * 1e3,
                     "bias_v", r.biasVolts(), "optimum_vq_mv", nullIfNaN(r.optimumVqVolts() * 1e3), "optimum_at_search_limit", r.optimumAtSearchLimit(),
                     "optimum_level_v", r.levelVolts(), "fit_rms_residual", r.rmsResidual(), "gain_noise", r.gainNoise(),
                     "residual_limit", r.residualLimit(), "advice_given", r.adviceGiven(), "advice", r.advice(), "points", r.points(),

@@ -8,7 +8,7 @@ import java.util.OptionalInt;
 import java.util.concurrent.Callable;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.OutputImpedance;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Parameters;
@@ -49,7 +49,7 @@ public final class ImpedanceCommand implements Callable<Integer> {
         }
         PrintWriter out = spec.commandLine().getOut();
         if (json) {
-            out.println(Json.pretty(Json.obj("output_impedance_ohms", z.zOutOhms(), "damping_factor", z.dampingFactor(),
+            out.println(JsonText.pretty(JsonText.obj("output_impedance_ohms", z.zOutOhms(), "damping_factor", z.dampingFactor(),
                     "frequency_hz", z.frequencyHz(), "open_rms", z.openRms(), "loaded_rms", z.loadedRms(), "load_ohms", z.loadOhms(),
                     "unit", ml.unit(), "channel", ml.channel())));
         } else {

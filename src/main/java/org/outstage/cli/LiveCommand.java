@@ -17,7 +17,7 @@ import org.outstage.analysis.stage.StageDiagnosis;
 import org.outstage.audio.AudioBackend;
 import org.outstage.audio.AudioUnavailableException;
 import org.outstage.audio.JavaSoundBackend;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.live.LiveListener;
 import org.outstage.live.LiveResult;
 import org.outstage.live.LiveSession;
@@ -100,7 +100,7 @@ public final class LiveCommand implements Callable<Integer> {
                 synchronized (out) {
                     for (Measurement m : r.measurements()) {
                         if (calibrateVolts != null && m.channel() == calChannel) calibration.add(m);
-                        if (json) out.println(Json.write(jsonLine(label, r, m)));
+                        if (json) out.println(JsonText.write(jsonLine(label, r, m)));
                         else if (inPlace) out.print("\r" + textLine(r, m) + "   ");
                         else out.println(textLine(r, m));
                     }

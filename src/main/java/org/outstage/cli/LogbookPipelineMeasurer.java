@@ -7,7 +7,7 @@ import java.util.OptionalInt;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.stage.StageDiagnosis;
 import org.outstage.capture.Capture;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.report.MeasurementJson;
 import org.outstage.verify.KeyFigures;
 
@@ -33,7 +33,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
             }
             List<String> warnings = new ArrayList<>(cap.warnings());
             warnings.addAll(skipped);
-            out.add(new Measured(m.channel(), cap.channelCount(), figures(m), Json.write(MeasurementJson.capture(file.toString(), m, cap.warnings())),
+            out.add(new Measured(m.channel(), cap.channelCount(), figures(m), JsonText.write(MeasurementJson.capture(file.toString(), m, cap.warnings())),
                     warnings, java.util.Optional.of(m)));
         }
         if (out.isEmpty()) throw new BadInputException(skipped.isEmpty() ? file + ": no channel to measure" : skipped.get(0));

@@ -2,7 +2,7 @@ package org.outstage.cli;
 
 import java.io.PrintWriter;
 import java.util.concurrent.Callable;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.PushResult;
 import picocli.CommandLine;
@@ -40,7 +40,7 @@ public final class LogbookPushCommand implements Callable<Integer> {
         }
         PrintWriter out = spec.commandLine().getOut();
         if (json) {
-            out.println(Json.write(Json.obj("to", target, "sessions", r.sessions(), "sessions_added", r.sessionsAdded(),
+            out.println(JsonText.write(JsonText.obj("to", target, "sessions", r.sessions(), "sessions_added", r.sessionsAdded(),
                     "sessions_updated", r.sessionsUpdated(), "steps_added", r.stepsAdded(), "measurements_added", r.measurementsAdded(),
                     "captures_added", r.capturesAdded(), "captures_missing", r.capturesMissing())));
         } else {

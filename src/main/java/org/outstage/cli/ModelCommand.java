@@ -8,7 +8,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import org.outstage.analysis.TransferCurve;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.analysis.stage.BiasCriterion;
 import org.outstage.model.BiasFit;
 import org.outstage.model.ClipLevels;
@@ -65,7 +65,7 @@ public final class ModelCommand implements Callable<Integer> {
                 return 0;
             }
             Summary s = summary(m, curve, level, thdLevels);
-            if (json) out.println(Json.pretty(s.json()));
+            if (json) out.println(JsonText.pretty(s.json()));
             else s.print(out);
             out.flush();
             return 0;
@@ -99,16 +99,16 @@ public final class ModelCommand implements Callable<Integer> {
             StageParameters p = m.parameters();
             List<Object> params = new ArrayList<>();
             for (StageParameters.Parameter q : p.parameters())
-                params.add(Json.obj("name", q.name(), "value", q.value(), "unit", q.unit(), "defaulted", q.defaulted()));
+                params.add(JsonText.obj("name", q.name(), "value", q.value(), "unit", q.unit(), "defaulted", q.defaulted()));
             List<Object> devices = new ArrayList<>();
             for (OperatingPoint.DeviceCurrent d : m.quiescent().devices())
-                devices.add(Json.obj("name", d.name(), "role", d.role(), "collector_a", d.collectorAmps(), "base_a", d.baseAmps()));
+                devices.add(JsonText.obj("name", d.name(), "role", d.role(), "collector_a", d.collectorAmps(), "base_a", d.baseAmps()));
             List<Object> thdList = new ArrayList<>();
             for (Distortion d : thd)
-                thdList.add(Json.obj("level_v", d.outputPeakVolts(), "input_peak_v", d.inputPeakVolts(), "thd", d.thd(), "thd_percent", d.thd() * 100,
+                thdList.add(JsonText.obj("level_v", d.outputPeakVolts(), "input_peak_v", d.inputPeakVolts(), "thd", d.thd(), "thd_percent", d.thd() * 100,
                         "h2", d.harmonic(2), "h3", d.harmonic(3), "h5", d.harmonic(5),
                         "h2_percent", d.harmonic(2) * 100, "h3_percent", d.harmonic(3) * 100, "h5_percent", d.harmonic(5) * 100));
-            return Json.obj("topology", p.topology().name(), "parameters", params,
+            return JsonText.obj("topology", p.topology().name(), "parameters", params,
                     "bias_v", m.biasVolts(), "vq_mv", m.vqVolts() * 1e3, "quiescent_current_a", m.quiescentAmps(), "devices", devices,
                     "optimum_vq_mv", optimum.vqVolts() * 1e3, "optimum_level_v", levelVolts, "optimum_max_gain_deviation", optimum.maxGainDeviation(),
                     "optimum_at_search_limit", optimum.atSearchLimit(),
@@ -120,7 +120,7 @@ public final class ModelCommand implements Callable<Integer> {
                     "crossover_criterion", BiasCriterion.DEFINITION,
                     "clip_positive_v", clip.positiveVolts(), "clip_negative_v", clip.negativeVolts(),
                     "gain_at_zero", gainZero, "gain_large_signal", gainLarge, "thd", thdList,
-                    "thermal", Json.obj("junctions_in_bias_loop", thermalFixed.junctionsInLoop(), "diq_dvbias_a_per_v", thermalFixed.ampsPerBiasVolt(),
+                    "thermal", JsonText.obj("junctions_in_bias_loop", thermalFixed.junctionsInLoop(), "diq_dvbias_a_per_v", thermalFixed.ampsPerBiasVolt(),
                             "diq_dt_fixed_bias_a_per_k", thermalFixed.untrackedAmpsPerKelvin(),
                             "tracked_junctions", thermalTracked.trackedJunctions(), "diq_dt_tracked_a_per_k", thermalTracked.trackedAmpsPerKelvin()),
                     "warnings", m.warnings(), "thermal_voltage_v", p.thermalVolts(),

@@ -11,7 +11,7 @@ import org.outstage.analysis.Band;
 import org.outstage.analysis.FrequencyResponse;
 import org.outstage.analysis.SweepResponse;
 import org.outstage.capture.Capture;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.stimulus.Stimulus;
 import org.outstage.stimulus.SweepParameters;
 import picocli.CommandLine.Command;
@@ -91,7 +91,7 @@ public final class ResponseCommand implements Callable<Integer> {
             throw new BadInputException(file + ": " + e.getMessage());
         }
         PrintWriter out = spec.commandLine().getOut();
-        if (json) out.println(Json.pretty(toJson(file.toString(), ch, c.unit().symbol(), r)));
+        if (json) out.println(JsonText.pretty(toJson(file.toString(), ch, c.unit().symbol(), r)));
         else out.print(text(file.toString(), ch, r));
         out.flush();
         return OutstageCommand.EXIT_OK;
@@ -121,16 +121,16 @@ public final class ResponseCommand implements Callable<Integer> {
     static Map<String, Object> toJson(String file, int channel, String unit, FrequencyResponse r) {
         List<Object> pts = new ArrayList<>();
         for (FrequencyResponse.Point p : r.points())
-            pts.add(Json.obj("frequency_hz", p.frequencyHz(), "gain_db", p.gainDb(), "gain_re_1khz_db", p.gainRe1kHzDb(), "phase_deg", p.phaseDeg()));
+            pts.add(JsonText.obj("frequency_hz", p.frequencyHz(), "gain_db", p.gainDb(), "gain_re_1khz_db", p.gainRe1kHzDb(), "phase_deg", p.phaseDeg()));
         List<Object> thd = new ArrayList<>();
-        for (FrequencyResponse.ThdPoint t : r.thdVsFrequency()) thd.add(Json.obj("frequency_hz", t.frequencyHz(), "thd_percent", t.percent()));
-        return Json.obj("file", file, "channel", channel, "unit", unit, "from_reference", r.fromReference(),
-                "sweep", Json.obj("low_hz", r.sweepLowHz(), "high_hz", r.sweepHighHz(), "seconds", r.sweepSeconds()),
+        for (FrequencyResponse.ThdPoint t : r.thdVsFrequency()) thd.add(JsonText.obj("frequency_hz", t.frequencyHz(), "thd_percent", t.percent()));
+        return JsonText.obj("file", file, "channel", channel, "unit", unit, "from_reference", r.fromReference(),
+                "sweep", JsonText.obj("low_hz", r.sweepLowHz(), "high_hz", r.sweepHighHz(), "seconds", r.sweepSeconds()),
                 "gain_at_1khz_db", r.gainAt1kHzDb(),
                 "points", pts,
-                "minus_3db_hz", Json.obj("low", r.minus3dbLowHz().isPresent() ? r.minus3dbLowHz().getAsDouble() : null,
+                "minus_3db_hz", JsonText.obj("low", r.minus3dbLowHz().isPresent() ? r.minus3dbLowHz().getAsDouble() : null,
                         "high", r.minus3dbHighHz().isPresent() ? r.minus3dbHighHz().getAsDouble() : null),
-                "deviation_db", Json.obj("band_hz", new double[] {r.deviationLowHz(), r.deviationHighHz()}, "min", r.deviationMinDb(),
+                "deviation_db", JsonText.obj("band_hz", new double[] {r.deviationLowHz(), r.deviationHighHz()}, "min", r.deviationMinDb(),
                         "max", r.deviationMaxDb()),
                 "thd_vs_frequency", thd);
     }

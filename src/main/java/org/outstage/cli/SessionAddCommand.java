@@ -8,7 +8,7 @@ import java.util.List;
 import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.concurrent.Callable;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.BiasAdvice;
 import org.outstage.logbook.BiasAdvisor;
 import org.outstage.logbook.BiasReading;
@@ -101,7 +101,7 @@ public final class SessionAddCommand implements Callable<Integer> {
         PrintWriter out = spec.commandLine().getOut();
         for (String w : warnings) spec.commandLine().getErr().println("outstage: warning: " + capture.getFileName() + ": " + w);
         if (json) {
-            out.println(Json.pretty(Json.obj("step", SessionSupport.stepJson(step), "recommendation", SessionSupport.adviceJson(advice))));
+            out.println(JsonText.pretty(JsonText.obj("step", SessionSupport.stepJson(step), "recommendation", SessionSupport.adviceJson(advice))));
         } else {
             out.println(SessionSupport.stepLine(step));
             out.println("advice: " + advice.text());

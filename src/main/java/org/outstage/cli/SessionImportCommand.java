@@ -5,7 +5,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.SessionData;
 import org.outstage.logbook.SessionExport;
@@ -41,7 +41,7 @@ public final class SessionImportCommand implements Callable<Integer> {
         try (Logbook lb = logbook.open()) {
             id = lb.importSession(d);
         }
-        spec.commandLine().getOut().println(json ? Json.write(Json.obj("session_id", id)) : Long.toString(id));
+        spec.commandLine().getOut().println(json ? JsonText.write(JsonText.obj("session_id", id)) : Long.toString(id));
         spec.commandLine().getOut().flush();
         return 0;
     }

@@ -5,7 +5,7 @@ import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.Session;
 import picocli.CommandLine;
@@ -32,10 +32,10 @@ public final class SessionListCommand implements Callable<Integer> {
         if (json) {
             List<Object> l = new ArrayList<>();
             for (Session s : sessions) {
-                l.add(Json.obj("session_id", s.id(), "unit", s.unitName(), "kind", s.kind().label(), "started_at", s.startedAt().toString(),
+                l.add(JsonText.obj("session_id", s.id(), "unit", s.unitName(), "kind", s.kind().label(), "started_at", s.startedAt().toString(),
                         "ended_at", s.endedAt().map(Instant::toString), "notes", s.notes()));
             }
-            out.println(Json.pretty(Json.obj("sessions", l)));
+            out.println(JsonText.pretty(JsonText.obj("sessions", l)));
         } else {
             for (Session s : sessions) {
                 out.printf("%d  %-16s %-15s %s%s%n", s.id(), s.unitName(), s.kind().label(), s.startedAt(),

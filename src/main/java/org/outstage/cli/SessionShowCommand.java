@@ -2,7 +2,7 @@ package org.outstage.cli;
 
 import java.io.PrintWriter;
 import java.util.concurrent.Callable;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.BiasAdvice;
 import org.outstage.logbook.BiasAdvisor;
 import org.outstage.logbook.BiasStep;
@@ -55,7 +55,7 @@ public final class SessionShowCommand implements Callable<Integer> {
         }
         PrintWriter out = spec.commandLine().getOut();
         if (json) {
-            out.println(Json.pretty(SessionSupport.sessionJson(d)));
+            out.println(JsonText.pretty(SessionSupport.sessionJson(d)));
         } else {
             out.println("session " + d.session().id() + "  " + d.session().kind().label() + "  unit " + d.unit().name() + "  started "
                     + d.session().startedAt() + d.session().endedAt().map(e -> "  ended " + e).orElse("  (open)"));

@@ -5,7 +5,7 @@ import java.time.Instant;
 import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.concurrent.Callable;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.SessionKind;
 import org.outstage.logbook.UnitUnderTest;
@@ -56,7 +56,7 @@ public final class SessionStartCommand implements Callable<Integer> {
             id = lb.startSession(u, k, Instant.now(), notes);
         }
         PrintWriter out = spec.commandLine().getOut();
-        out.println(json ? Json.write(Json.obj("session_id", id)) : Long.toString(id));
+        out.println(json ? JsonText.write(JsonText.obj("session_id", id)) : Long.toString(id));
         out.flush();
         return 0;
     }

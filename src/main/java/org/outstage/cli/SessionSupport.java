@@ -13,7 +13,7 @@ import java.util.OptionalInt;
 import java.util.Set;
 import java.util.TreeMap;
 import java.util.TreeSet;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.BiasAdvice;
 import org.outstage.logbook.BiasAdvisor;
 import org.outstage.logbook.BiasReading;
@@ -80,7 +80,7 @@ final class SessionSupport {
     static String readingKey(BiasReading.Unit u) { return u == BiasReading.Unit.MILLIVOLTS ? "bias_mv" : "bias_ma"; }
 
     static Map<String, Object> stepJson(BiasStep s) {
-        Map<String, Object> o = Json.obj("seq", s.seq(), "taken_at", s.takenAt().toString(), readingKey(s.reading().unit()), s.reading().value(),
+        Map<String, Object> o = JsonText.obj("seq", s.seq(), "taken_at", s.takenAt().toString(), readingKey(s.reading().unit()), s.reading().value(),
                 "heatsink_c", s.heatsinkCelsius(), "ambient_c", s.ambientCelsius(), "channel", s.channel());
         Optional<KeyFigures> f = s.measurement().map(MeasurementRecord::figures);
         o.put("gain_at_zero", f.isPresent() ? f.get().gainAtZero() : OptionalDouble.empty());
@@ -92,18 +92,18 @@ final class SessionSupport {
         o.put("fundamental_rms", f.map(KeyFigures::fundamentalRms));
         o.put("unit", f.map(KeyFigures::unit));
         o.put("power_watts", f.isPresent() ? f.get().powerWatts() : OptionalDouble.empty());
-        o.put("capture", s.measurement().flatMap(MeasurementRecord::capture).map(c -> Json.obj("sha256", c.sha256(), "file_name", c.fileName())));
+        o.put("capture", s.measurement().flatMap(MeasurementRecord::capture).map(c -> JsonText.obj("sha256", c.sha256(), "file_name", c.fileName())));
         return o;
     }
 
     static Map<String, Object> adviceJson(BiasAdvice a) {
         String k = a.unit() == BiasReading.Unit.MILLIVOLTS ? "bias_mv" : "bias_ma";
-        return Json.obj(k + "_low", a.low(), k + "_high", a.high(), k + "_best", a.best(),
+        return JsonText.obj(k + "_low", a.low(), k + "_high", a.high(), k + "_best", a.best(),
                 "direction", a.direction().name().toLowerCase(Locale.ROOT), "advice", a.text(), "warnings", a.warnings());
     }
 
     static Map<String, Object> driftJson(DriftReport d) {
-        return Json.obj("settled", d.settled(), "change_percent", d.changeRatio().isPresent() ? OptionalDouble.of(d.changeRatio().getAsDouble() * 100)
+        return JsonText.obj("settled", d.settled(), "change_percent", d.changeRatio().isPresent() ? OptionalDouble.of(d.changeRatio().getAsDouble() * 100)
                 : OptionalDouble.empty(), "slope_per_celsius", d.slopePerCelsius(), "runaway_risk", d.runawayRisk(), "text", d.text());
     }
 
@@ -113,7 +113,7 @@ final class SessionSupport {
         BiasAdvice advice = BiasAdvisor.recommend(d.steps());
         DriftReport drift = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.READING);
         DriftReport driftGain = DriftAnalysis.analyze(d.steps(), DriftAnalysis.Quantity.GAIN_AT_ZERO);
-        return Json.obj("session_id", d.session().id(), "unit", d.unit().name(), "kind", d.session().kind().label(),
+        return JsonText.obj("session_id", d.session().id(), "unit", d.unit().name(), "kind", d.session().kind().label(),
                 "started_at", d.session().startedAt().toString(), "ended_at", d.session().endedAt().map(Instant::toString),
                 "notes", d.session().notes(), "steps", steps, "measurements", d.measurements().size(),
                 "recommendation", adviceJson(advice), "drift", driftJson(drift), "drift_gain_at_zero", driftJson(driftGain));

@@ -13,7 +13,7 @@ import org.outstage.analysis.stage.LevelSeries;
 import org.outstage.analysis.stage.LevelSweep;
 import org.outstage.analysis.stage.LevelSweepResult;
 import org.outstage.analysis.stage.RatedPower;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -58,7 +58,7 @@ public final class SweepCommand implements Callable<Integer> {
             points.add(LevelSeries.point(r.file(), m, options.calibrationLabel(), fsVolts).orElseThrow());
         }
         LevelSweepResult result = LevelSweep.analyze(points);
-        if (json) out.println(Json.pretty(toJson(result)));
+        if (json) out.println(JsonText.pretty(toJson(result)));
         else out.print(text(result));
         out.flush();
         return OutstageCommand.EXIT_OK;

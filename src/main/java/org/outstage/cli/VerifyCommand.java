@@ -14,7 +14,7 @@ import org.outstage.capture.BenchManifest;
 import org.outstage.capture.CaptureFormatException;
 import java.util.OptionalDouble;
 import java.util.concurrent.Callable;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.CaptureRef;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.MeasurementRecord;
@@ -135,11 +135,11 @@ public final class VerifyCommand implements Callable<Integer> {
         }
         ReportDocument doc = new ReportDocument(u, session, result, channels, charts, Instant.now(), SessionSupport.programVersion());
         if (report != null) org.outstage.report.AtomicFile.write(report, HtmlReport.render(doc));
-        if (reportJson != null) org.outstage.report.AtomicFile.write(reportJson, Json.pretty(ReportJson.of(doc)) + "\n");
+        if (reportJson != null) org.outstage.report.AtomicFile.write(reportJson, JsonText.pretty(ReportJson.of(doc)) + "\n");
 
         PrintWriter out = spec.commandLine().getOut();
         if (json) {
-            out.println(Json.pretty(ReportJson.of(doc)));
+            out.println(JsonText.pretty(ReportJson.of(doc)));
         } else {
             out.println(profile.name() + ": " + doc.outcome().toUpperCase(Locale.ROOT) + " (" + result.summary() + ")"
                     + session.map(s -> ", logged as session " + s.id()).orElse(""));

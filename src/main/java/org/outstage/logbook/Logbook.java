@@ -31,7 +31,7 @@ import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.Set;
 import java.util.UUID;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.verify.KeyFigures;
 import org.sqlite.SQLiteConfig;
 import org.sqlite.SQLiteOpenMode;
@@ -403,8 +403,8 @@ public final class Logbook implements AutoCloseable {
         ins.setInt(4, m.channel());
         ins.setString(5, m.measuredAt().toString());
         ins.setString(6, m.programVersion());
-        ins.setString(7, Json.write(m.settings()));
-        ins.setString(8, Json.write(new ArrayList<>(m.defaulted())));
+        ins.setString(7, JsonText.write(m.settings()));
+        ins.setString(8, JsonText.write(new ArrayList<>(m.defaulted())));
         ins.setString(9, m.measurementJson());
         ins.setDouble(10, f.fundamentalHz());
         ins.setDouble(11, f.fundamentalRms());
@@ -433,11 +433,11 @@ public final class Logbook implements AutoCloseable {
         Optional<CaptureRef> cap = sha == null ? Optional.empty()
                 : Optional.of(new CaptureRef(sha, rs.getString(k + 2), rs.getLong(k + 3)));
         Map<String, String> settings = new LinkedHashMap<>();
-        for (Map.Entry<String, Object> e : ((Map<String, Object>) Json.parse(rs.getString(k + 6))).entrySet()) {
+        for (Map.Entry<String, Object> e : ((Map<String, Object>) JsonText.parse(rs.getString(k + 6))).entrySet()) {
             settings.put(e.getKey(), String.valueOf(e.getValue()));
         }
         Set<String> defaulted = new LinkedHashSet<>();
-        for (Object o : (List<Object>) Json.parse(rs.getString(k + 7))) defaulted.add(String.valueOf(o));
+        for (Object o : (List<Object>) JsonText.parse(rs.getString(k + 7))) defaulted.add(String.valueOf(o));
         KeyFigures f = new KeyFigures(rs.getDouble(k + 9), rs.getDouble(k + 10), rs.getString(k + 11), rs.getDouble(k + 12),
                 rs.getDouble(k + 13), real(rs, k + 14), real(rs, k + 15), real(rs, k + 16), real(rs, k + 17), text(rs, k + 18),
                 real(rs, k + 19), real(rs, k + 20));

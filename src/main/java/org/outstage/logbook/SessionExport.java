@@ -17,7 +17,7 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.verify.KeyFigures;
 
 /**
@@ -50,28 +50,28 @@ public final class SessionExport {
     public static String toJson(SessionData d) {
         List<Object> steps = new ArrayList<>();
         for (BiasStep s : d.steps()) {
-            steps.add(Json.obj("seq", s.seq(), "taken_at", s.takenAt().toString(), "reading", s.reading().value(),
+            steps.add(JsonText.obj("seq", s.seq(), "taken_at", s.takenAt().toString(), "reading", s.reading().value(),
                     "reading_unit", s.reading().unit().symbol(), "heatsink_c", s.heatsinkCelsius(), "ambient_c", s.ambientCelsius(),
                     "channel", s.channel(), "measurement", s.measurement().map(SessionExport::measurementJson)));
         }
         List<Object> ms = new ArrayList<>();
         for (MeasurementRecord m : d.measurements()) ms.add(measurementJson(m));
-        return Json.pretty(Json.obj("format", FORMAT, "version", VERSION, "unit", unitJson(d.unit()), "session", sessionJson(d.session()),
+        return JsonText.pretty(JsonText.obj("format", FORMAT, "version", VERSION, "unit", unitJson(d.unit()), "session", sessionJson(d.session()),
                 "steps", steps, "measurements", ms)) + "\n";
     }
 
     private static Map<String, Object> unitJson(UnitUnderTest u) {
-        return Json.obj("name", u.name(), "serial", u.serial(), "topology", u.topology(), "notes", u.notes(),
+        return JsonText.obj("name", u.name(), "serial", u.serial(), "topology", u.topology(), "notes", u.notes(),
                 "rated_power_watts", u.ratedPowerWatts(), "rated_load_ohms", u.ratedLoadOhms());
     }
 
     private static Map<String, Object> sessionJson(Session s) {
-        return Json.obj("kind", s.kind().label(), "started_at", s.startedAt().toString(), "ended_at", s.endedAt().map(Instant::toString),
+        return JsonText.obj("kind", s.kind().label(), "started_at", s.startedAt().toString(), "ended_at", s.endedAt().map(Instant::toString),
                 "notes", s.notes());
     }
 
     static Map<String, Object> figuresJson(KeyFigures f) {
-        return Json.obj("fundamental_hz", f.fundamentalHz(), "fundamental_rms", f.fundamentalRms(), "unit", f.unit(),
+        return JsonText.obj("fundamental_hz", f.fundamentalHz(), "fundamental_rms", f.fundamentalRms(), "unit", f.unit(),
                 "thd_ratio", f.thdRatio(), "thdn_ratio", f.thdNRatio(), "residual_rms", f.residualRms(), "power_watts", f.powerWatts(),
                 "load_ohms", f.loadOhms(), "gain_at_zero", f.gainAtZero(), "crossover_verdict", f.crossoverVerdict(),
                 "clip_asymmetry_ratio", f.clipAsymmetryRatio(), "crossover_ratio", f.crossoverRatio());
@@ -80,12 +80,12 @@ public final class SessionExport {
     private static Map<String, Object> measurementJson(MeasurementRecord m) {
         Object full;
         try {
-            full = Json.parse(m.measurementJson());
+            full = JsonText.parse(m.measurementJson());
         } catch (IllegalArgumentException e) {
             full = m.measurementJson(); // not JSON after all: keep the text as a string
         }
-        return Json.obj("channel", m.channel(),
-                "capture", m.capture().map(c -> Json.obj("sha256", c.sha256(), "file_name", c.fileName(), "size_bytes", c.sizeBytes())),
+        return JsonText.obj("channel", m.channel(),
+                "capture", m.capture().map(c -> JsonText.obj("sha256", c.sha256(), "file_name", c.fileName(), "size_bytes", c.sizeBytes())),
                 "measured_at", m.measuredAt().toString(), "program_version", m.programVersion(), "settings", m.settings(),
                 "defaulted", new ArrayList<>(m.defaulted()), "figures", figuresJson(m.figures()), "measurement", full);
     }
@@ -95,7 +95,7 @@ public final class SessionExport {
     public static SessionData fromJson(String text, String source) {
         Object root;
         try {
-            root = Json.parse(text);
+            root = JsonText.parse(text);
         } catch (IllegalArgumentException e) {
             throw new IllegalArgumentException(source + ": " + e.getMessage(), e);
         }
@@ -143,7 +143,7 @@ public final class SessionExport {
                 f.num("thdn_ratio"), f.optNum("residual_rms"), f.optNum("power_watts"), f.optNum("load_ohms"), f.optNum("gain_at_zero"),
                 f.optStr("crossover_verdict"), f.optNum("clip_asymmetry_ratio"), f.optNum("crossover_ratio"));
         Object full = m.raw("measurement");
-        String fullText = full instanceof String str ? str : Json.write(full);
+        String fullText = full instanceof String str ? str : JsonText.write(full);
         return new MeasurementRecord((int) m.num("channel"), cap, m.instant("measured_at"), m.str("program_version"), settings, defaulted,
                 fullText, kf);
     }
@@ -153,7 +153,7 @@ public final class SessionExport {
     public static String toCsv(SessionData d) {
         StringBuilder sb = new StringBuilder();
         sb.append(CSV_FIRST).append('\n');
-        sb.append(CSV_SESSION).append(Json.write(Json.obj("unit", unitJson(d.unit()), "session", sessionJson(d.session())))).append('\n');
+        sb.append(CSV_SESSION).append(JsonText.write(JsonText.obj("unit", unitJson(d.unit()), "session", sessionJson(d.session())))).append('\n');
         try (CSVPrinter p = new CSVPrinter(sb, CSVFormat.RFC4180.builder().setRecordSeparator("\n").setHeader(CSV_HEADER).get())) {
             for (BiasStep s : d.steps()) {
                 List<String> row = new ArrayList<>(List.of("step", Integer.toString(s.seq()), s.takenAt().toString(), num(s.reading().value()),
@@ -198,8 +198,8 @@ public final class SessionExport {
         cells.add(f.crossoverVerdict().orElse(""));
         cells.add(num(f.clipAsymmetryRatio()));
         cells.add(num(f.crossoverRatio()));
-        cells.add(Json.write(m.settings()));
-        cells.add(Json.write(new ArrayList<>(m.defaulted())));
+        cells.add(JsonText.write(m.settings()));
+        cells.add(JsonText.write(new ArrayList<>(m.defaulted())));
         cells.add(m.measurementJson());
         return cells;
     }
@@ -218,7 +218,7 @@ public final class SessionExport {
         if (!lines[1].startsWith(CSV_SESSION)) throw new IllegalArgumentException(source + ", line 2: expected '" + CSV_SESSION.strip() + "'");
         Map<String, Object> head;
         try {
-            head = asMap(Json.parse(lines[1].substring(CSV_SESSION.length())), source, "line 2");
+            head = asMap(JsonText.parse(lines[1].substring(CSV_SESSION.length())), source, "line 2");
         } catch (IllegalArgumentException e) {
             throw new IllegalArgumentException(source + ", line 2: " + e.getMessage(), e);
         }
@@ -286,11 +286,11 @@ public final class SessionExport {
             Optional<CaptureRef> cap = r.get("capture_sha256").isEmpty() ? Optional.empty()
                     : Optional.of(new CaptureRef(r.get("capture_sha256"), r.get("capture_name"), Long.parseLong(r.get("capture_size_bytes"))));
             Map<String, String> settings = new LinkedHashMap<>();
-            for (Map.Entry<String, Object> e : ((Map<String, Object>) Json.parse(r.get("settings_json"))).entrySet()) {
+            for (Map.Entry<String, Object> e : ((Map<String, Object>) JsonText.parse(r.get("settings_json"))).entrySet()) {
                 settings.put(e.getKey(), String.valueOf(e.getValue()));
             }
             Set<String> defaulted = new LinkedHashSet<>();
-            for (Object o : (List<Object>) Json.parse(r.get("defaulted_json"))) defaulted.add(String.valueOf(o));
+            for (Object o : (List<Object>) JsonText.parse(r.get("defaulted_json"))) defaulted.add(String.valueOf(o));
             KeyFigures f = new KeyFigures(dbl("fundamental_hz"), dbl("fundamental_rms"), r.get("unit"), dbl("thd_ratio"), dbl("thdn_ratio"),
                     opt("residual_rms"), opt("power_watts"), opt("load_ohms"), opt("gain_at_zero"), optText("crossover_verdict"),
                     opt("clip_asymmetry_ratio"), opt("crossover_ratio"));

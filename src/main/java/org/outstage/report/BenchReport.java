@@ -14,7 +14,7 @@ import org.outstage.analysis.stage.Residual;
 import org.outstage.analysis.stage.StageAnalyzer;
 import org.outstage.analysis.stage.StageDiagnosis;
 import org.outstage.analysis.stage.StageSettings;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.plot.ChartSpec;
 import org.outstage.plot.MeasurementCharts;
 
@@ -46,7 +46,7 @@ public final class BenchReport {
         AtomicFile.write(html, html(folder, captures, sweeps, failures, generatedAt));
         Map<String, Object> j = new java.util.LinkedHashMap<>(json(folder, captures, sweeps, failures));
         j.put("generated_at", HtmlReport.when(generatedAt));
-        AtomicFile.write(json, Json.pretty(j) + "\n");
+        AtomicFile.write(json, JsonText.pretty(j) + "\n");
         return new Written(html, json);
     }
 
@@ -56,7 +56,7 @@ public final class BenchReport {
             for (Measurement m : c.measurements()) caps.add(MeasurementJson.capture(c.file(), m, c.capture().warnings()));
         Map<String, Object> series = new java.util.LinkedHashMap<>();
         sweeps.forEach((k, v) -> series.put(k, SweepJson.of(v)));
-        return Json.obj("folder", folder, "captures", caps, "series", series, "failures", failures,
+        return JsonText.obj("folder", folder, "captures", caps, "series", series, "failures", failures,
                 "cautions", ReportDocument.CAUTIONS);
     }
 

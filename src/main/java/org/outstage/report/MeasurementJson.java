@@ -12,7 +12,7 @@ import org.outstage.analysis.stage.ClippingMetrics;
 import org.outstage.analysis.stage.CrossoverMetrics;
 import org.outstage.analysis.stage.MeasuredTransfer;
 import org.outstage.analysis.stage.StageDiagnosis;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /**
  * The JSON face of a {@link Measurement}. The keys documented in docs/cli.md are a contract that users'
@@ -31,7 +31,7 @@ public final class MeasurementJson {
         c.put("unit", m.unit());
         c.put("duration_s", m.durationSeconds());
         c.put("not_measured", m.notMeasuredReason().orElse(null));
-        c.put("fundamental", Json.obj("frequency_hz", m.fundamental().frequencyHz(), "rms", m.fundamental().rms(),
+        c.put("fundamental", JsonText.obj("frequency_hz", m.fundamental().frequencyHz(), "rms", m.fundamental().rms(),
                 "peak", m.fundamental().amplitudePeak(), "phase_deg", m.fundamental().phaseDeg()));
         c.put("thd", ratio(m.thd().ratio()));
         c.put("thd_r", ratio(m.thdR().ratio()));
@@ -40,19 +40,19 @@ public final class MeasurementJson {
         thdN.put("weighting", m.thdN().weighting().name().toLowerCase(java.util.Locale.ROOT));
         thdN.put("at_floor", m.measured() ? m.thdN().atFloor() : null);
         c.put("thd_n", thdN);
-        c.put("floor", Json.obj("ratio", m.floor().ratio(), "db", m.floor().db(),
+        c.put("floor", JsonText.obj("ratio", m.floor().ratio(), "db", m.floor().db(),
                 "kind", m.floor().kind().name().toLowerCase(java.util.Locale.ROOT).replace('_', '-'),
                 "quantisation_ratio", m.floor().quantisationRatio(), "measured_noise_ratio", m.floor().measuredNoiseRatio()));
         c.put("sinad_db", m.sinadDb());
         c.put("enob", m.enob());
         c.put("dc_offset", m.dcOffset());
         c.put("total_rms", m.totalRms());
-        c.put("power", m.powerWatts().map(p -> Json.obj("load_ohms", p.loadOhms(), "fundamental_w", p.fundamentalWatts(),
+        c.put("power", m.powerWatts().map(p -> JsonText.obj("load_ohms", p.loadOhms(), "fundamental_w", p.fundamentalWatts(),
                 "total_w", p.totalWatts())).orElse(null));
         c.put("method", m.method().name().toLowerCase(java.util.Locale.ROOT).replace('_', '-'));
         List<Object> hs = new ArrayList<>();
         for (Measurement.Harmonic h : m.harmonics())
-            hs.add(Json.obj("order", h.order(), "frequency_hz", h.frequencyHz(), "rms", h.rms(), "ratio", h.ratio(),
+            hs.add(JsonText.obj("order", h.order(), "frequency_hz", h.frequencyHz(), "rms", h.rms(), "ratio", h.ratio(),
                     "dbc", h.dbc(), "phase_deg", h.phaseDeg(), "resolved", h.resolved()));
         c.put("harmonics", hs);
         c.put("crossover", crossover(m.stage()));
@@ -61,7 +61,7 @@ public final class MeasurementJson {
         c.put("transfer", transfer(m.stage()));
         c.put("imd", m.imd().map(MeasurementJson::imd).orElse(null));
         c.put("noise", m.noise().map(n -> noise(n, m.unit())).orElse(null));
-        c.put("crosstalk", m.crosstalk().map(x -> Json.obj("from_channel", x.fromChannel(), "frequency_hz", x.frequencyHz(), "db", x.db(),
+        c.put("crosstalk", m.crosstalk().map(x -> JsonText.obj("from_channel", x.fromChannel(), "frequency_hz", x.frequencyHz(), "db", x.db(),
                 "ratio", x.ratio(), "resolved", x.resolved())).orElse(null));
         c.put("warnings", List.copyOf(warnings));
         // added (issue 11): figures beyond any audio bench, why power is missing, and whether the record is long
@@ -75,7 +75,7 @@ public final class MeasurementJson {
     public static Map<String, Object> imd(Intermodulation i) {
         List<Object> ps = new ArrayList<>();
         for (Intermodulation.Product p : i.products())
-            ps.add(Json.obj("order", p.order(), "frequency_hz", p.frequencyHz(), "rms", p.rms(), "dbc", p.dbc(), "resolved", p.resolved()));
+            ps.add(JsonText.obj("order", p.order(), "frequency_hz", p.frequencyHz(), "rms", p.rms(), "dbc", p.dbc(), "resolved", p.resolved()));
         Map<String, Object> o = new LinkedHashMap<>();
         o.put("method", i.method().label());
         o.put("f1_hz", i.f1Hz());
@@ -100,7 +100,7 @@ public final class MeasurementJson {
     public static Map<String, Object> noise(NoiseFigures n, String unit) {
         boolean volts = "V".equals(unit);
         List<Object> hum = new ArrayList<>();
-        for (NoiseFigures.HumLine h : n.hum()) hum.add(Json.obj("harmonic", h.harmonic(), "frequency_hz", h.frequencyHz(), "rms", h.rms()));
+        for (NoiseFigures.HumLine h : n.hum()) hum.add(JsonText.obj("harmonic", h.harmonic(), "frequency_hz", h.frequencyHz(), "rms", h.rms()));
         Map<String, Object> o = new LinkedHashMap<>();
         o.put("rms", n.rms());
         o.put("rms_a", n.rmsA());
@@ -109,7 +109,7 @@ public final class MeasurementJson {
         o.put("band_hz", new double[] {n.lowHz(), n.highHz()});
         o.put("mains_hz", n.mainsHz().isPresent() ? n.mainsHz().getAsDouble() : null);
         o.put("hum", hum);
-        o.put("snr_db", Json.obj("re_1w", opt(n.snrRe1WDb()), "re_1w_a", opt(n.snrRe1WADb()), "re_rated", opt(n.snrReRatedDb()),
+        o.put("snr_db", JsonText.obj("re_1w", opt(n.snrRe1WDb()), "re_1w_a", opt(n.snrRe1WADb()), "re_rated", opt(n.snrReRatedDb()),
                 "re_rated_a", opt(n.snrReRatedADb())));
         return o;
     }
@@ -117,12 +117,12 @@ public final class MeasurementJson {
     private static Object opt(java.util.OptionalDouble v) { return v.isPresent() ? v.getAsDouble() : null; }
 
     static Map<String, Object> ratio(double r) {
-        return Json.obj("ratio", r, "percent", 100 * r, "db", 20 * Math.log10(r));
+        return JsonText.obj("ratio", r, "percent", 100 * r, "db", 20 * Math.log10(r));
     }
 
     static Map<String, Object> crossover(StageDiagnosis d) {
         if (!(d instanceof StageDiagnosis.Measured s)) {
-            return Json.obj("verdict", "unclear", "gain_at_zero", null, "not_measured", reason(d));
+            return JsonText.obj("verdict", "unclear", "gain_at_zero", null, "not_measured", reason(d));
         }
         CrossoverMetrics x = s.crossover();
         Map<String, Object> o = new LinkedHashMap<>();
@@ -150,7 +150,7 @@ public final class MeasurementJson {
     }
 
     static Map<String, Object> clipping(StageDiagnosis d) {
-        if (!(d instanceof StageDiagnosis.Measured s)) return Json.obj("detected", null, "not_measured", reason(d));
+        if (!(d instanceof StageDiagnosis.Measured s)) return JsonText.obj("detected", null, "not_measured", reason(d));
         ClippingMetrics c = s.clipping();
         Map<String, Object> o = new LinkedHashMap<>();
         o.put("detected", c.detected());
@@ -164,7 +164,7 @@ public final class MeasurementJson {
     }
 
     private static Map<String, Object> side(ClipSide s) {
-        return Json.obj("level", s.levelVolts(), "fraction_of_cycle", s.fractionOfCycle(), "onset_ideal", s.onsetIdealVolts(),
+        return JsonText.obj("level", s.levelVolts(), "fraction_of_cycle", s.fractionOfCycle(), "onset_ideal", s.onsetIdealVolts(),
                 "recovery_time_s", s.recoveryTimeSeconds(), "knee", s.knee().name().toLowerCase(java.util.Locale.ROOT),
                 "knee_depth", s.kneeDepthVolts(), "flat_tops", s.flatTops());
     }
@@ -172,7 +172,7 @@ public final class MeasurementJson {
     static Map<String, Object> residual(StageDiagnosis d) {
         if (!(d instanceof StageDiagnosis.Measured s)) return null;
         var r = s.residual();
-        return Json.obj("rms", r.rmsVolts(), "peak", r.peakVolts(), "peak_time_s", r.peakTimeSeconds(),
+        return JsonText.obj("rms", r.rmsVolts(), "peak", r.peakVolts(), "peak_time_s", r.peakTimeSeconds(),
                 "high_pass_hz", r.highPassHz(), "low_pass_hz", r.lowPassHz());
     }
 
@@ -184,9 +184,9 @@ public final class MeasurementJson {
         o.put("from_reference", t.fromReference());
         o.put("large_signal_gain", t.largeSignalGain());
         o.put("noise_rms", t.noiseRmsVolts());
-        o.put("hysteresis", Json.obj("detected", t.hysteresis().detected(), "chi_square_per_bin", t.hysteresis().chiSquarePerBin(),
+        o.put("hysteresis", JsonText.obj("detected", t.hysteresis().detected(), "chi_square_per_bin", t.hysteresis().chiSquarePerBin(),
                 "rms_difference", t.hysteresis().rmsDifferenceVolts()));
-        s.reference().ifPresent(a -> o.put("reference", Json.obj("delay_s", a.delaySeconds(), "delay_samples", a.delaySamples(),
+        s.reference().ifPresent(a -> o.put("reference", JsonText.obj("delay_s", a.delaySeconds(), "delay_samples", a.delaySamples(),
                 "gain", a.gain(), "correlation_delay_samples", a.correlationDelaySamples(),
                 "correlation_significance", a.correlationSignificance())));
         return o;

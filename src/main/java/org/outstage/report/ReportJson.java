@@ -6,7 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.OptionalDouble;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Session;
 import org.outstage.verify.KeyFigures;
 import org.outstage.verify.LimitResult;
@@ -19,30 +19,30 @@ public final class ReportJson {
     public static Map<String, Object> of(ReportDocument d) {
         List<Object> limits = new ArrayList<>();
         for (LimitResult r : d.result().results()) {
-            limits.add(Json.obj("line", r.limit().line(), "limit", r.limit().text(), "quantity", r.limit().quantity().keyword(),
+            limits.add(JsonText.obj("line", r.limit().line(), "limit", r.limit().text(), "quantity", r.limit().quantity().keyword(),
                     "comparison", r.limit().atMost() ? "<=" : ">=", "bound", r.limit().boundDisplay(), "unit", r.limit().displayUnit(),
                     "measured", r.measured().isPresent() ? OptionalDouble.of(r.limit().toDisplay(r.measured().getAsDouble())) : OptionalDouble.empty(),
                     "margin", r.margin(), "verdict", r.verdict().name().toLowerCase(Locale.ROOT).replace('_', '-'), "evidence", r.evidence()));
         }
         List<Object> channels = new ArrayList<>();
         for (MeasuredChannel c : d.channels()) channels.add(channelJson(c));
-        return Json.obj("report", "verification", "generated_at", d.generatedAt().toString(), "program_version", d.programVersion(),
-                "unit", Json.obj("name", d.unit().name(), "serial", d.unit().serial(), "topology", d.unit().topology(),
+        return JsonText.obj("report", "verification", "generated_at", d.generatedAt().toString(), "program_version", d.programVersion(),
+                "unit", JsonText.obj("name", d.unit().name(), "serial", d.unit().serial(), "topology", d.unit().topology(),
                         "rated_power_watts", d.unit().ratedPowerWatts(), "rated_load_ohms", d.unit().ratedLoadOhms()),
                 "session", d.session().map(ReportJson::sessionJson),
-                "spec", Json.obj("name", d.result().spec().name(), "source", d.result().spec().source()),
+                "spec", JsonText.obj("name", d.result().spec().name(), "source", d.result().spec().source()),
                 "outcome", d.outcome(), "summary", d.result().summary(), "limits", limits, "captures", channels,
                 "cautions", ReportDocument.CAUTIONS);
     }
 
     private static Map<String, Object> sessionJson(Session s) {
-        return Json.obj("session_id", s.id(), "kind", s.kind().label(), "started_at", s.startedAt().toString(),
+        return JsonText.obj("session_id", s.id(), "kind", s.kind().label(), "started_at", s.startedAt().toString(),
                 "ended_at", s.endedAt().map(Instant::toString));
     }
 
     static Map<String, Object> channelJson(MeasuredChannel c) {
         KeyFigures f = c.figures();
-        return Json.obj("capture", c.captureName(), "channel", c.channel(), "fundamental_hz", f.fundamentalHz(),
+        return JsonText.obj("capture", c.captureName(), "channel", c.channel(), "fundamental_hz", f.fundamentalHz(),
                 "fundamental_rms", f.fundamentalRms(), "unit", f.unit(), "thd_percent", f.thdRatio() * 100, "thdn_percent", f.thdNRatio() * 100,
                 "power_watts", f.powerWatts(), "load_ohms", f.loadOhms(), "residual_rms", f.residualRms(), "gain_at_zero", f.gainAtZero(),
                 "crossover_verdict", f.crossoverVerdict(),

@@ -11,7 +11,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 class AnalyzeCommandTest {
     @TempDir Path dir;
@@ -40,7 +40,7 @@ class AnalyzeCommandTest {
         Path wav = cubicWav("cubic.wav", a, a3);
         CliRun r = CliRun.of("analyze", "--json", "--fs-volts", "40", "--load", "8", wav.toString());
         assertEquals(0, r.exit(), r.err());
-        Map<String, Object> root = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> root = (Map<String, Object>) JsonText.parse(r.out());
         List<Object> caps = (List<Object>) root.get("captures");
         assertEquals(1, caps.size());
         Map<String, Object> c = (Map<String, Object>) caps.get(0);

@@ -14,7 +14,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /**
  * Findings of issue 10 item 5 (bad input), issue 11 item 9 (decimal-comma CSV) and issue 11 item 11 (messages a
@@ -91,7 +91,7 @@ class BadInputFindingsTest {
         assertTrue(r.err().contains("outstage: warning: " + cut + ": byte 40: data chunk claims 20000 bytes but the file holds 9600"), r.err());
         assertEquals(1, r.err().lines().filter(l -> l.startsWith("outstage: warning:")).count(), r.err());
         @SuppressWarnings("unchecked")
-        Map<String, Object> c = (Map<String, Object>) ((List<Object>) ((Map<String, Object>) Json.parse(r.out())).get("captures")).get(0);
+        Map<String, Object> c = (Map<String, Object>) ((List<Object>) ((Map<String, Object>) JsonText.parse(r.out())).get("captures")).get(0);
         assertEquals(List.of("byte 40: data chunk claims 20000 bytes but the file holds 9600 after its header; read 4800 whole frames"), c.get("warnings"));
     }
 
@@ -126,7 +126,7 @@ class BadInputFindingsTest {
         CliRun r = CliRun.of("analyze", "--json", csv.toString());
         assertEquals(0, r.exit(), r.err());
         @SuppressWarnings("unchecked")
-        List<Object> caps = (List<Object>) ((Map<String, Object>) Json.parse(r.out())).get("captures");
+        List<Object> caps = (List<Object>) ((Map<String, Object>) JsonText.parse(r.out())).get("captures");
         assertEquals(1, caps.size(), "one channel (CH1), not four");
         @SuppressWarnings("unchecked")
         Map<String, Object> c = (Map<String, Object>) caps.get(0);
@@ -153,7 +153,7 @@ class BadInputFindingsTest {
         CliRun r = CliRun.of("analyze", "--json", csv.toString());
         assertEquals(0, r.exit(), r.err());   // quoted cells are unambiguous: read with decimal commas
         @SuppressWarnings("unchecked")
-        List<Object> caps = (List<Object>) ((Map<String, Object>) Json.parse(r.out())).get("captures");
+        List<Object> caps = (List<Object>) ((Map<String, Object>) JsonText.parse(r.out())).get("captures");
         assertEquals(1, caps.size());
         // a quoted decimal-comma file with no readable rows says why
         Path bad = text("q2.csv", "time,CH1\n\"0,5\",\"x\"\n\"1,5\",\"y\"\n");

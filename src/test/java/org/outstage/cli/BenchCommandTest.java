@@ -10,7 +10,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 class BenchCommandTest {
     @TempDir Path dir;
@@ -38,7 +38,7 @@ class BenchCommandTest {
         assertTrue(html.startsWith("<!DOCTYPE html>"));
         assertTrue(html.contains("<svg"), "charts are inline SVG");
         assertTrue(html.contains("soundcard input"), "the cautions are in the report");
-        Map<String, Object> j = (Map<String, Object>) Json.parse(Files.readString(out.resolve("report.json")));
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(Files.readString(out.resolve("report.json")));
         assertEquals(2, ((List<Object>) j.get("captures")).size());
         Map<String, Object> drive = (Map<String, Object>) ((Map<String, Object>) j.get("series")).get("drive");
         assertEquals(2, ((List<Object>) drive.get("points")).size());

@@ -17,7 +17,7 @@ import java.util.regex.Pattern;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.analysis.stage.BiasCriterion;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /**
  * Issue 11, findings 6–8: one answer for bias advice. Every face (analyze's verdict, fit, the session advice) reads the
@@ -40,7 +40,7 @@ class BiasAdviceFindingsTest {
     static String capture(String mv) { return CAPTURES.resolve("da60-bias-" + mv + "mV-40W.wav").toString(); }
 
     @SuppressWarnings("unchecked")
-    static Map<String, Object> json(String text) { return (Map<String, Object>) Json.parse(text); }
+    static Map<String, Object> json(String text) { return (Map<String, Object>) JsonText.parse(text); }
 
     /** Oliver's condition for an emitter-follower pair (docs/references.md §7): r∞ = (RL + Re)/(RL + (Re + VT·Re/Vq)/2); the Vq where r∞ = 1 + d. */
     static double pairVqAt(double d, double vt) {

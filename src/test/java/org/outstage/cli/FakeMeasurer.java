@@ -8,7 +8,7 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.OptionalInt;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.verify.KeyFigures;
 
 /**
@@ -50,7 +50,7 @@ final class FakeMeasurer implements LogbookMeasurer {
         if (options.load != null) f = f.withPower(rms * rms / options.load, options.load);
         if (kv.containsKey("g0")) f = f.withCrossover(Double.parseDouble(kv.get("g0")), kv.getOrDefault("verdict", "near-optimal"));
         if (kv.containsKey("clip")) f = f.withClipAsymmetry(Double.parseDouble(kv.get("clip")));
-        String json = Json.write(Json.obj("file", capture.getFileName().toString(), "channel", ch, "thd", f.thdRatio()));
+        String json = JsonText.write(JsonText.obj("file", capture.getFileName().toString(), "channel", ch, "thd", f.thdRatio()));
         return new Measured(ch, channels, f, json, List.of());
     }
 }

@@ -12,7 +12,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.analysis.TransferCurve;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.model.Bias;
 import org.outstage.model.SolverSettings;
 import org.outstage.model.StageModel;
@@ -44,7 +44,7 @@ class FitCommandTest {
         String[] r = run("fit", curveFile(0.008).toString(), "--topology", "darlington", "--json");
         assertEquals("0", r[0], r[2]);
         @SuppressWarnings("unchecked")
-        Map<String, Object> j = (Map<String, Object>) Json.parse(r[1]);
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(r[1]);
         assertEquals(8.0, (Double) j.get("vq_mv"), 0.2);
         // the optimum (crossover ratio 1) lies inside its near-optimal band, and the 8 mV estimate below it
         assertTrue((Double) j.get("optimum_band_low_vq_mv") < (Double) j.get("optimum_vq_mv")
@@ -71,7 +71,7 @@ class FitCommandTest {
         String[] r = run("fit", f.toString(), "--json");
         assertEquals("0", r[0], r[2]);
         @SuppressWarnings("unchecked")
-        Map<String, Object> j = (Map<String, Object>) Json.parse(r[1]);
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(r[1]);
         assertEquals(12.0, (Double) j.get("vq_mv"), 0.05);
     }
 
@@ -119,7 +119,7 @@ class FitCommandTest {
         String[] r = run("fit", captureFile(0.009).toString(), "--fs-volts", "20", "--topology", "darlington", "--json");
         assertEquals("0", r[0], r[2]);
         @SuppressWarnings("unchecked")
-        Map<String, Object> j = (Map<String, Object>) Json.parse(r[1]);
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(r[1]);
         System.out.println("capture fit: " + r[1]);
         assertEquals(9.0, (Double) j.get("vq_mv"), 0.5);
         assertTrue(((String) j.get("advice")).startsWith("raise"), (String) j.get("advice"));

@@ -15,7 +15,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.Capture;
 import org.outstage.capture.WavReader;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.live.Soundcard;
 import org.outstage.live.UserSettings;
 
@@ -43,7 +43,7 @@ class LiveCommandEndToEndTest {
         assertTrue(lines.size() >= 2, r.out());
         long expected = 0;
         for (String l : lines) {
-            Map<String, Object> o = (Map<String, Object>) Json.parse(l);
+            Map<String, Object> o = (Map<String, Object>) JsonText.parse(l);
             // Contract of docs/cli.md: the analyze capture object plus block (from 0), time_s, dropped_frames.
             assertEquals((double) expected++, (Double) o.get("block"), 0.0, "blocks numbered from 0 without gaps: " + l);
             assertTrue(o.containsKey("time_s") && o.containsKey("dropped_frames") && o.containsKey("thd_n") && o.containsKey("crossover"), l);
@@ -70,7 +70,7 @@ class LiveCommandEndToEndTest {
         CliRun after = CliRun.of("live", "--play", "sine:997", "--level-dbfs", "-20", "--seconds", "2", "--channel", "1", "--json");
         assertEquals(0, after.exit(), after.err());
         @SuppressWarnings("unchecked")
-        Map<String, Object> last = (Map<String, Object>) Json.parse(after.out().lines().reduce((a, b) -> b).orElseThrow());
+        Map<String, Object> last = (Map<String, Object>) JsonText.parse(after.out().lines().reduce((a, b) -> b).orElseThrow());
         assertEquals("V", last.get("unit"), "the remembered calibration is the default --fs-volts");
     }
 
@@ -80,7 +80,7 @@ class LiveCommandEndToEndTest {
         CliRun s = CliRun.of("session", "start", "--unit", "bench amp", "--logbook", db, "--json");
         assertEquals(0, s.exit(), s.err());
         @SuppressWarnings("unchecked")
-        long id = ((Double) ((Map<String, Object>) Json.parse(s.out())).get("session_id")).longValue();
+        long id = ((Double) ((Map<String, Object>) JsonText.parse(s.out())).get("session_id")).longValue();
         CliRun add = CliRun.of("session", "add", Long.toString(id), "--bias-mv", "12", "--live", "2", "--play", "sine:997", "--level-dbfs", "-20",
                 "--channel", "1", "--logbook", db);
         assertEquals(0, add.exit(), add.err());

@@ -11,7 +11,7 @@ import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /** {@code outstage model}: exit codes and output. */
 class ModelCommandTest {
@@ -40,7 +40,7 @@ class ModelCommandTest {
         Run r = run("model", "--topology", "cfp", "--vq-mv", "12", "--json", "--thd-levels", "2");
         assertEquals(0, r.code(), r.err());
         @SuppressWarnings("unchecked")
-        Map<String, Object> j = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(r.out());
         assertEquals("cfp", j.get("topology"));
         assertEquals(12.0, (Double) j.get("vq_mv"), 1e-9);
         assertEquals(0.012 / 0.22, (Double) j.get("quiescent_current_a"), 1e-9);
@@ -112,7 +112,7 @@ class ModelCommandTest {
         Run r = run("model", "--stage", f.toString(), "--rails", "45", "--json", "--thd-levels", "1");
         assertEquals(0, r.code(), r.err());
         @SuppressWarnings("unchecked")
-        Map<String, Object> j = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(r.out());
         assertEquals("darlington", j.get("topology"));
         assertEquals(15.0, (Double) j.get("vq_mv"), 1e-9);
         assertTrue(r.out().contains("\"name\": \"rails\",\n      \"value\": 45"), r.out());

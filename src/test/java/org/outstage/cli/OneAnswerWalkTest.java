@@ -14,7 +14,7 @@ import java.util.regex.Pattern;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /** Issue 11 ("one answer everywhere"): a channel's role and the level series, the same in every command. */
 class OneAnswerWalkTest {
@@ -51,7 +51,7 @@ class OneAnswerWalkTest {
         assertTrue(text.out().contains("channel 1  generator (reference)"), text.out());
         assertFalse(text.out().contains("channel 1  48000 Hz"), "channel 1 measured as an output:\n" + text.out());
         CliRun json = CliRun.of("analyze", "--json", "--fs-volts", "40", "--load", "8", xy.toString());
-        List<Object> caps = (List<Object>) ((Map<String, Object>) Json.parse(json.out())).get("captures");
+        List<Object> caps = (List<Object>) ((Map<String, Object>) JsonText.parse(json.out())).get("captures");
         assertEquals(1, caps.size());
         assertEquals(2.0, ((Map<String, Object>) caps.get(0)).get("channel"));
 
@@ -66,14 +66,14 @@ class OneAnswerWalkTest {
         CliRun roled = CliRun.of("verify", "--spec", spec.toString(), "--no-log", "--json", "--fs-volts", "40", "--roles", "generator,output",
                 "--allow-unmeasured", wav.toString());
         assertEquals(0, roled.exit(), roled.err());
-        Map<String, Object> limit = ((List<Map<String, Object>>) ((Map<String, Object>) Json.parse(roled.out())).get("limits")).get(0);
+        Map<String, Object> limit = ((List<Map<String, Object>>) ((Map<String, Object>) JsonText.parse(roled.out())).get("limits")).get(0);
         assertEquals("not-measured", limit.get("verdict"), roled.out());
         Path noted = Files.createDirectories(dir.resolve("noted"));
         Path wav2 = generatorAndOutput(noted);
         Files.writeString(noted.resolve("bench.txt"), "gen-*.wav  reference=1\n");
         CliRun fromNotes = CliRun.of("verify", "--spec", spec.toString(), "--no-log", "--json", "--fs-volts", "40", "--allow-unmeasured", wav2.toString());
         assertEquals(0, fromNotes.exit(), fromNotes.err());
-        limit = ((List<Map<String, Object>>) ((Map<String, Object>) Json.parse(fromNotes.out())).get("limits")).get(0);
+        limit = ((List<Map<String, Object>>) ((Map<String, Object>) JsonText.parse(fromNotes.out())).get("limits")).get(0);
         assertEquals("not-measured", limit.get("verdict"), fromNotes.out());
     }
 

@@ -14,7 +14,7 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Logbook;
 
 class SessionCommandTest {
@@ -49,7 +49,7 @@ class SessionCommandTest {
     void startAddShow_givesStepsAndRecommendation() throws Exception {
         String db = dir.resolve("lb.db").toString();
         assertEquals(0, run("session", "start", "--unit", "DA-60 #3", "--logbook", db, "--json"), err);
-        long id = ((Double) ((Map<String, Object>) Json.parse(out)).get("session_id")).longValue();
+        long id = ((Double) ((Map<String, Object>) JsonText.parse(out)).get("session_id")).longValue();
         double[][] steps = {{10, 0.990}, {15, 0.994}, {20, 0.998}, {25, 1.001}, {30, 1.004}, {35, 1.008}};
         for (double[] s : steps) {
             Path c = capture("take_" + s[0] + ".txt", "f=1000\nrms=2.83\nthd=0.0011\ng0=" + s[1] + "\n");
@@ -58,7 +58,7 @@ class SessionCommandTest {
             assertTrue(out.startsWith("step "), out);
         }
         assertEquals(0, run("session", "show", Long.toString(id), "--logbook", db, "--json"), err);
-        Map<String, Object> show = (Map<String, Object>) Json.parse(out);
+        Map<String, Object> show = (Map<String, Object>) JsonText.parse(out);
         List<Object> st = (List<Object>) show.get("steps");
         assertEquals(6, st.size());
         Map<String, Object> first = (Map<String, Object>) st.get(0);

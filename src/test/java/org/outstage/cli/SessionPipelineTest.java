@@ -11,7 +11,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /** session add and show through the real capture reader and analysis, on WAVs made here. */
 class SessionPipelineTest {
@@ -61,7 +61,7 @@ class SessionPipelineTest {
                     "--logbook", db, p.toString()), err);
         }
         assertEquals(0, run("session", "show", id, "--logbook", db, "--json"), err);
-        Map<String, Object> show = (Map<String, Object>) Json.parse(out);
+        Map<String, Object> show = (Map<String, Object>) JsonText.parse(out);
         List<Object> st = (List<Object>) show.get("steps");
         assertEquals(5, st.size());
         // Expected gain at zero: with s = a·sinθ, the 3rd harmonic is 1e-3·a·sin3θ = 1e-3·(3s − 4s³/a²) (Chebyshev identity

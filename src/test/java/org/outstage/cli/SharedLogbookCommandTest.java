@@ -16,7 +16,7 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.LogbookLocation;
 import org.outstage.logbook.TestLogbooks;
@@ -50,7 +50,7 @@ class SharedLogbookCommandTest {
     @SuppressWarnings("unchecked")
     private Map<String, Object> session(String db) throws Exception {
         assertEquals(0, run("session", "start", "--unit", "DA-60 #5", "--logbook", db, "--json"), err);
-        long id = ((Double) ((Map<String, Object>) Json.parse(out)).get("session_id")).longValue();
+        long id = ((Double) ((Map<String, Object>) JsonText.parse(out)).get("session_id")).longValue();
         double[][] steps = {{10, 0.990}, {20, 0.998}, {30, 1.004}};
         for (double[] s : steps) {
             Path c = dir.resolve("take_" + s[0] + ".txt");
@@ -59,7 +59,7 @@ class SharedLogbookCommandTest {
                     "--logbook", db, "--load", "8", c.toString()), err);
         }
         assertEquals(0, run("session", "show", Long.toString(id), "--logbook", db, "--json"), err);
-        return (Map<String, Object>) Json.parse(out);
+        return (Map<String, Object>) JsonText.parse(out);
     }
 
     /** The keys, recursively, with list lengths; values that depend on the clock or the id are left out. */
@@ -133,12 +133,12 @@ class SharedLogbookCommandTest {
         Map<String, Object> before = session(local);
         long id = ((Double) before.get("session_id")).longValue();
         assertEquals(0, run("logbook", "push", "--to", url, "--logbook", local, "--json"), err);
-        Map<String, Object> r = (Map<String, Object>) Json.parse(out);
+        Map<String, Object> r = (Map<String, Object>) JsonText.parse(out);
         assertEquals(1.0, r.get("sessions_added"));
         assertEquals(3.0, r.get("steps_added"));
         assertEquals(3.0, r.get("captures_added"));
         assertEquals(0, run("logbook", "push", "--to", url, "--logbook", local, "--json"), err);
-        r = (Map<String, Object>) Json.parse(out);
+        r = (Map<String, Object>) JsonText.parse(out);
         assertEquals(0.0, r.get("sessions_added"));
         assertEquals(0.0, r.get("steps_added"));
         assertEquals(0.0, r.get("captures_added"), "idempotent: nothing copied twice");
@@ -148,7 +148,7 @@ class SharedLogbookCommandTest {
         assertEquals(0, run("session", "add", Long.toString(id), "--bias-mv", "40", "--logbook", local, c.toString()), err);
         assertEquals(0, run("session", "end", Long.toString(id), "--logbook", local), err);
         assertEquals(0, run("logbook", "push", "--to", url, "--logbook", local, "--json"), err);
-        r = (Map<String, Object>) Json.parse(out);
+        r = (Map<String, Object>) JsonText.parse(out);
         assertEquals(1.0, r.get("sessions_updated"));
         assertEquals(1.0, r.get("steps_added"));
         assertEquals(1.0, r.get("captures_added"));

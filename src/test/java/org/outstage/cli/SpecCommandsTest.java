@@ -11,7 +11,7 @@ import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /** The JSON contracts of issue 12 (docs/cli.md): analyze's imd / noise / crosstalk, response, impedance. */
 class SpecCommandsTest {
@@ -25,7 +25,7 @@ class SpecCommandsTest {
 
     @SuppressWarnings("unchecked")
     static Map<String, Object> firstCapture(String json) {
-        Map<String, Object> root = (Map<String, Object>) Json.parse(json);
+        Map<String, Object> root = (Map<String, Object>) JsonText.parse(json);
         return (Map<String, Object>) ((List<Object>) root.get("captures")).get(0);
     }
 
@@ -79,7 +79,7 @@ class SpecCommandsTest {
         WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, a, b);
         CliRun r = CliRun.of("analyze", "--json", "--driven", "1", wav.toString());
         assertEquals(0, r.exit(), r.err());
-        Map<String, Object> root = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> root = (Map<String, Object>) JsonText.parse(r.out());
         List<Object> caps = (List<Object>) root.get("captures");
         assertNull(((Map<String, Object>) caps.get(0)).get("crosstalk"));
         Map<String, Object> x = (Map<String, Object>) ((Map<String, Object>) caps.get(1)).get("crosstalk");
@@ -101,7 +101,7 @@ class SpecCommandsTest {
         WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, x, y);
         CliRun r = CliRun.of("response", "--reference", "1", "--json", wav.toString());
         assertEquals(0, r.exit(), r.err());
-        Map<String, Object> o = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> o = (Map<String, Object>) JsonText.parse(r.out());
         for (Object p : (List<Object>) o.get("points"))   // 20·lg(1/2); 0.05 dB is the issue's in-band target
             assertEquals(-6.0206, ((Number) ((Map<String, Object>) p).get("gain_db")).doubleValue(), 0.05, "20·lg(1/2)");
         Map<String, Object> m3 = (Map<String, Object>) o.get("minus_3db_hz");
@@ -121,7 +121,7 @@ class SpecCommandsTest {
         WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, y);
         CliRun r = CliRun.of("response", "--sweep", "sweep:5-20k,4", "--json", wav.toString());
         assertEquals(0, r.exit(), r.err());
-        Map<String, Object> o = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> o = (Map<String, Object>) JsonText.parse(r.out());
         assertEquals(false, o.get("from_reference"));
         for (Object p : (List<Object>) o.get("points")) {
             Map<String, Object> m = (Map<String, Object>) p;
@@ -141,7 +141,7 @@ class SpecCommandsTest {
         WavWriter.write(loaded, (int) fs, WavWriter.Encoding.FLOAT_64, false, tone(fs, 48000, 1000, 0.1 * 8 / 8.1));
         CliRun r = CliRun.of("impedance", "--load", "8", "--fs-volts", "40", "--json", loaded.toString(), open.toString());
         assertEquals(0, r.exit(), r.err());
-        Map<String, Object> o = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> o = (Map<String, Object>) JsonText.parse(r.out());
         assertEquals(0.1, ((Number) o.get("output_impedance_ohms")).doubleValue(), 1e-6, "voltage divider, §13");
         assertEquals(80, ((Number) o.get("damping_factor")).doubleValue(), 1e-3);
         CliRun bad = CliRun.of("impedance", loaded.toString(), open.toString());

@@ -11,7 +11,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 class SweepCommandTest {
     @TempDir Path dir;
@@ -53,7 +53,7 @@ class SweepCommandTest {
         args.addAll(series(amps));
         CliRun r = CliRun.of(args.toArray(String[]::new));
         assertEquals(0, r.exit(), r.err());
-        Map<String, Object> root = (Map<String, Object>) Json.parse(r.out());
+        Map<String, Object> root = (Map<String, Object>) JsonText.parse(r.out());
         List<Object> points = (List<Object>) root.get("points");
         assertEquals(amps.length, points.size());
         Map<String, Object> p0 = (Map<String, Object>) points.get(0);

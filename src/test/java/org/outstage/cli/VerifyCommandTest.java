@@ -15,7 +15,7 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.Logbook;
 import org.outstage.logbook.SessionKind;
 
@@ -72,7 +72,7 @@ class VerifyCommandTest {
                 "--report", html.toString(), "--unit", "DA-60 #12"));
         args.addAll(benchSet(0.0003));
         assertEquals(0, run(args), out + err);
-        Map<String, Object> r = (Map<String, Object>) Json.parse(out);
+        Map<String, Object> r = (Map<String, Object>) JsonText.parse(out);
         assertEquals("pass", r.get("outcome"));
         List<Object> limits = (List<Object>) r.get("limits");
         assertEquals(7, limits.size());

@@ -12,7 +12,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.outstage.capture.WavWriter;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 
 /** verify through the real reader, analysis and stage diagnosis, on WAVs made here with known figures. */
 class VerifyPipelineTest {
@@ -66,7 +66,7 @@ class VerifyPipelineTest {
         StringWriter e = new StringWriter();
         int code = OutstageCommand.commandLine(new PrintWriter(o), new PrintWriter(e)).execute(args.toArray(String[]::new));
         assertEquals(1, code, o + "\n" + e); // THD at rated power fails
-        Map<String, Object> r = (Map<String, Object>) Json.parse(o.toString());
+        Map<String, Object> r = (Map<String, Object>) JsonText.parse(o.toString());
         List<Map<String, Object>> limits = (List<Map<String, Object>>) (List<?>) r.get("limits");
         // line order of da-60.spec: thd@1W, thd@rated, thd+n@rated, power@1%, clip-asymmetry, noise, balance
         assertEquals(0.01, (Double) limits.get(0).get("measured"), 1e-4, "THD at 1 W = 0.01 %");

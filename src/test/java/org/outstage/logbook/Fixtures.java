@@ -6,7 +6,7 @@ import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.Random;
 import java.util.Set;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.verify.KeyFigures;
 
 /** Invented records for logbook tests (a fictional amplifier, seeded values). */
@@ -24,7 +24,7 @@ final class Fixtures {
                 .withCrossover(g0, g0 < 0.995 ? "under-biased" : g0 > 1.005 ? "gm-doubling" : "near-optimal");
         if (rnd.nextBoolean()) f = f.withClipAsymmetry(rnd.nextGaussian() * 0.02);
         if (rnd.nextBoolean()) f = f.withCrossoverRatio(g0 - 0.002 * rnd.nextDouble());
-        String json = Json.write(Json.obj("thd", thd, "gain_at_zero", g0, "note", "line\n\"quoted\", comma"));
+        String json = JsonText.write(JsonText.obj("thd", thd, "gain_at_zero", g0, "note", "line\n\"quoted\", comma"));
         return new MeasurementRecord(1 + rnd.nextInt(2), cap, at, "outstage 0.1.0",
                 Map.of("bandwidth", "20-20000", "harmonics", "10", "weighting", "none", "load", "8.0"),
                 Set.of("harmonics", "weighting"), json, f);

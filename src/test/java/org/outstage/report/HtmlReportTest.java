@@ -8,7 +8,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import org.junit.jupiter.api.Test;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.outstage.logbook.UnitUnderTest;
 import org.outstage.verify.KeyFigures;
 import org.outstage.verify.MeasuredChannel;
@@ -37,7 +37,7 @@ class HtmlReportTest {
     @SuppressWarnings("unchecked")
     @Test
     void json_hasTheSameVerdictsAsHtml() {
-        Map<String, Object> j = (Map<String, Object>) Json.parse(Json.write(ReportJson.of(doc("DA-60"))));
+        Map<String, Object> j = (Map<String, Object>) JsonText.parse(JsonText.write(ReportJson.of(doc("DA-60"))));
         List<Object> limits = (List<Object>) j.get("limits");
         assertEquals("pass", ((Map<String, Object>) limits.get(0)).get("verdict"));
         assertEquals("not-measured", ((Map<String, Object>) limits.get(1)).get("verdict"));

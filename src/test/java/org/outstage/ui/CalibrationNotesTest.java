@@ -25,7 +25,7 @@ import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureOptions;
 import org.outstage.capture.CaptureReader;
 import org.outstage.cli.OutstageCommand;
-import org.outstage.json.Json;
+import org.outstage.json.JsonText;
 import org.testfx.api.FxRobot;
 import org.testfx.framework.junit5.ApplicationExtension;
 import org.testfx.framework.junit5.Start;
@@ -171,7 +171,7 @@ class CalibrationNotesTest {
         int code = OutstageCommand.commandLine(new PrintWriter(out), new PrintWriter(err)).execute(args.toArray(String[]::new));
         assertEquals(0, code, err.toString());
         @SuppressWarnings("unchecked")
-        Map<String, Object> json = (Map<String, Object>) Json.parse(out.toString());
+        Map<String, Object> json = (Map<String, Object>) JsonText.parse(out.toString());
         double cli = ((Number) json.get("power_at_1pct_thd_w")).doubleValue();
         assertEquals(cli, r.atOnePercent().powerWatts().orElseThrow(), 1e-9 * cli);
         String title = pane.sweepChart.spec().orElseThrow().title();

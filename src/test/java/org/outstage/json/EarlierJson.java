@@ -10,17 +10,15 @@ import java.util.OptionalDouble;
 import java.util.OptionalInt;
 
 /**
- * Minimal JSON (RFC 8259). Writing: {@link #write(Object)} turns maps (keys in insertion order), lists,
- * arrays of double, strings, numbers, booleans, {@code null}, {@link Optional} and {@link OptionalDouble}
- * into compact text; {@link #pretty(Object)} indents. Non-finite doubles are written as {@code null}.
- * Reading: {@link #parse(String)} gives {@code LinkedHashMap}, {@code ArrayList}, {@code String},
- * {@code Double} (every number), {@code Boolean} or {@code null}; malformed text throws
- * {@link IllegalArgumentException} naming the character offset.
+ * The hand-written JSON writer and reader that {@link JsonText} replaced (issue 13), kept unchanged from
+ * {@code src/main/java/org/outstage/json/Json.java} at commit 8c0a202 as the naive reference for the tests:
+ * JsonText must write the same bytes (except {@code -0.0}, which this one wrote as {@code 0.0}) and read the same
+ * values. Not for production use.
  */
-public final class Json {
-    private Json() {}
+final class EarlierJson {
+    private EarlierJson() {}
 
-    /** An ordered map builder: {@code Json.obj("a", 1, "b", "x")}. */
+    /** An ordered map builder: {@code EarlierJson.obj("a", 1, "b", "x")}. */
     public static Map<String, Object> obj(Object... keyValues) {
         if (keyValues.length % 2 != 0) throw new IllegalArgumentException("obj needs key/value pairs, got " + keyValues.length + " items");
         Map<String, Object> m = new LinkedHashMap<>();
