@@ -101,15 +101,26 @@ public final class AnalyzeCommand implements Callable<Integer> {
     /** The result of one file: figures or a one-line error. */
     record Outcome(Measuring.FileResult result, String error) {}
 
-    /** Analyses files in parallel (as many threads as cores), keeping their order. */
+    /**
+     * Analyses files in parallel, keeping their order: as many threads as cores, bounded by memory (see
+     * {@link #threadsFor}).
+     */
     static List<Outcome> analyseAll(List<Path> files, AnalyzeOptions options, PrintWriter err) throws InterruptedException {
-        int threads = Math.max(1, Math.min(files.size(), Runtime.getRuntime().availableProcessors()));
+        long largest = 0;
+        for (Path f : files) {
+            try {
+                largest = Math.max(largest, java.nio.file.Files.size(f));
+            } catch (IOException | RuntimeException e) {
+                // reported by the file's own analysis
+            }
+        }
+        int threads = threadsFor(files.size(), Runtime.getRuntime().availableProcessors(), Runtime.getRuntime().maxMemory(), largest);
         ExecutorService pool = Executors.newFixedThreadPool(threads, r -> {
             Thread t = new Thread(r, "analyze");
             t.setDaemon(true);
             return t;
         });
-        try (Progress progress = new Progress(err)) {
+        try (Progress progress = new Progress(err, files.size(), Progress.onTerminal())) {
             List<Future<Outcome>> futures = new ArrayList<>();
             int i = 0;
             for (Path f : files) {
@@ -122,6 +133,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
                         return new Outcome(null, e.getMessage());
                     } catch (java.io.UncheckedIOException e) {
                         return new Outcome(null, f + ": " + e.getCause().getMessage());
+                    } finally {
+                        progress.itemDone();
                     }
                 }));
             }
@@ -137,6 +150,19 @@ public final class AnalyzeCommand implements Callable<Integer> {
         } finally {
             pool.shutdownNow();
         }
+    }
+
+    /**
+     * Threads for a batch: one per core, at most one per file, and no more than the heap holds at once. A file's
+     * analysis keeps its samples as doubles (up to 8 bytes per stored byte, for 8-bit data) plus the spectrum's
+     * work arrays of about the same size again, so one file needs about 16 times its size; half the heap is given
+     * to files in flight.
+     */
+    static int threadsFor(int files, int cores, long maxHeapBytes, long largestFileBytes) {
+        int t = Math.max(1, Math.min(files, cores));
+        long perFile = Math.max(1, largestFileBytes) * 16;
+        long fit = (maxHeapBytes / 2) / perFile;
+        return (int) Math.max(1, Math.min(t, fit));
     }
 
     private void writeResidual(List<Measuring.FileResult> good) throws IOException {

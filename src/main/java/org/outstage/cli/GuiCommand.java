@@ -19,12 +19,16 @@ public final class GuiCommand implements Callable<Integer> {
     @Parameters(paramLabel = "FILE", arity = "0..*", description = "capture files or folders to open")
     List<Path> files = new ArrayList<>();
 
+    @picocli.CommandLine.Option(names = "--exit-after-first-render",
+            description = "Close the workbench once the first capture is drawn, printing the time since the JVM started (smoke tests, start-up timing).")
+    boolean exitAfterFirstRender;
+
     @Override
     public Integer call() {
         for (Path f : files)
             if (!Files.exists(f)) throw new BadInputException(f + ": not found");
         try {
-            WorkbenchLauncher.launch(files.stream().map(Path::toString).toArray(String[]::new));
+            WorkbenchLauncher.launch(files.stream().map(Path::toString).toArray(String[]::new), exitAfterFirstRender);
         } catch (RuntimeException | Error e) {
             String m = e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage().lines().findFirst().orElse("");
             spec.commandLine().getErr().println("outstage: the workbench could not start (" + m + "); it needs a display");

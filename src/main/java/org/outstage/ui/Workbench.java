@@ -35,6 +35,13 @@ public final class Workbench extends Application {
     /** Raw parameter that marks the bundled sample session (added by {@link WorkbenchLauncher}). */
     static final String SAMPLE_FLAG = "--outstage-sample-session";
 
+    /**
+     * Raw parameter (added by {@link WorkbenchLauncher} for {@code gui --exit-after-first-render}): close the workbench
+     * once the first capture is drawn, after printing the time since the JVM started. For smoke tests of an
+     * installed image and for measuring a cold start.
+     */
+    static final String EXIT_FLAG = "--outstage-exit-after-first-render";
+
     /** Builds the window content (also used by tests and the screenshot tool). */
     static WorkbenchPane createPane() {
         return new WorkbenchPane(defaultBackend(), new TransferPanel(defaultModel()));
@@ -57,9 +64,18 @@ public final class Workbench extends Application {
         stage.show();
         List<String> raw = getParameters().getRaw();
         boolean sample = raw.contains(SAMPLE_FLAG);
-        List<Path> files = raw.stream().filter(a -> !a.equals(SAMPLE_FLAG)).map(Path::of).toList();
+        boolean exitAfterFirstRender = raw.contains(EXIT_FLAG);
+        List<Path> files = raw.stream().filter(a -> !a.equals(SAMPLE_FLAG) && !a.equals(EXIT_FLAG)).map(Path::of).toList();
+        if (exitAfterFirstRender) {
+            pane.afterFirstRender(() -> {
+                long ms = System.currentTimeMillis() - java.lang.management.ManagementFactory.getRuntimeMXBean().getStartTime();
+                System.err.println("outstage: workbench first render " + ms + " ms after the JVM started");
+                System.err.flush();
+                javafx.application.Platform.exit();
+            });
+        }
         if (!files.isEmpty()) pane.openPaths(files, sample ? SAMPLE_SESSION : Calibration.NONE);
-        if (!Cautions.dismissed(Cautions.dismissalFile())) showCautions(stage, true);
+        if (!exitAfterFirstRender && !Cautions.dismissed(Cautions.dismissalFile())) showCautions(stage, true);
     }
 
     /** Shows the cautions; on first start a check box lets the user stop it appearing at start-up. */

@@ -14,9 +14,19 @@ public final class WorkbenchLauncher {
     private WorkbenchLauncher() {}
 
     /** Starts the workbench and returns when its window closes. */
-    public static void launch(String[] files) {
+    public static void launch(String[] files) { launch(files, false); }
+
+    /**
+     * Starts the workbench and returns when its window closes; with {@code exitAfterFirstRender} it closes itself once
+     * the first capture is drawn (smoke tests, cold-start timing).
+     */
+    public static void launch(String[] files, boolean exitAfterFirstRender) {
         String[] args = files;
         if (files.length == 0) args = sampleSession().map(p -> new String[] {p.toString(), Workbench.SAMPLE_FLAG}).orElse(new String[0]);
+        if (exitAfterFirstRender) {
+            args = Arrays.copyOf(args, args.length + 1);
+            args[args.length - 1] = Workbench.EXIT_FLAG;
+        }
         Application.launch(Workbench.class, Arrays.copyOf(args, args.length));
     }
 

@@ -669,7 +669,21 @@ final class WorkbenchPane extends BorderPane {
     void show(ViewData d) {
         for (WorkbenchView v : allViews()) v.show(d);
         figures.show(d);
+        Runnable r = afterFirstRender;
+        if (r != null && d.notMeasured().isEmpty()) {
+            afterFirstRender = null;
+            // the figures are in the views; the next layout pulse draws them
+            Runnable[] l = new Runnable[1];
+            l[0] = () -> { getScene().removePostLayoutPulseListener(l[0]); r.run(); };
+            getScene().addPostLayoutPulseListener(l[0]);
+            javafx.application.Platform.requestNextPulse();
+        }
     }
+
+    private Runnable afterFirstRender;
+
+    /** Runs {@code r} once, on the FX thread, after the first analysed capture has been drawn. */
+    void afterFirstRender(Runnable r) { afterFirstRender = r; }
 
     /** The level sweep (see {@link LevelSweepView} for which captures it is over). */
     void refreshSweep() {
