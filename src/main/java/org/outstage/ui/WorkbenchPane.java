@@ -328,6 +328,9 @@ final class WorkbenchPane extends BorderPane {
         cancelButton.setId("cancelButton");
         cancelButton.setDisable(true);
         cancelButton.setOnAction(e -> { if (running != null) running.cancel(); });
+        // a long status line is cut with an ellipsis, not the Cancel button
+        cancelButton.setMinWidth(Region.USE_PREF_SIZE);
+        statusText.setMinWidth(0);
         HBox bar = new HBox(8, statusText, spacer(), progress, cancelButton);
         bar.setAlignment(Pos.CENTER_LEFT);
         bar.setPadding(new Insets(3, 6, 3, 6));
