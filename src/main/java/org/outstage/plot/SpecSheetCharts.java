@@ -74,13 +74,20 @@ public final class SpecSheetCharts {
             x = x.withRange(Math.max(0, imd.f2Hz() - 1.25 * reach), imd.f2Hz() + 1.25 * reach);
             if (imd.f1Hz() < imd.f2Hz() - 1.25 * reach)
                 tonesName = String.format(java.util.Locale.ROOT, "tones (f1 %.4g Hz, %+.1f dB, off the axis)", imd.f1Hz(), tl[0]);
+        } else {
+            // difference frequency: from the lowest product (f2 − f1) to the highest, with a margin so the bars at
+            // either end stand clear of the axes
+            double fMin = Math.min(imd.f1Hz(), imd.f2Hz()), fMax = Math.max(imd.f1Hz(), imd.f2Hz());
+            for (double f : pf) { fMin = Math.min(fMin, f); fMax = Math.max(fMax, f); }
+            double pad = 0.06 * (fMax - fMin);
+            x = x.withRange(Math.max(0, fMin - pad), fMax + pad);
         }
         // bars rise from the floor of a dB axis, 10 dB below the lowest product
         double lo = Double.POSITIVE_INFINITY, hi = Double.NEGATIVE_INFINITY;
         for (double v : pl) { lo = Math.min(lo, v); hi = Math.max(hi, v); }
         for (double v : tl) { lo = Math.min(lo, v); hi = Math.max(hi, v); }
         Axis y = Axis.db("Level", unit);
-        if (hi > lo) y = y.withRange(Math.floor((lo - 10) / 10) * 10, Math.ceil((hi + 5) / 10) * 10);
+        if (hi > lo) y = y.withRange(Math.floor((lo - 10) / 10) * 10, Math.ceil((hi + 15) / 10) * 10);   // room for the legend above the tones
         return new ChartSpec(name + " — intermodulation (" + imd.method().label() + ", " + String.format(java.util.Locale.ROOT, "%.4g %%", imd.percent()) + ")",
                 x, y,
                 List.of(new Series(tonesName, tf, tl, Series.Style.BARS, Series.Role.MEASURED),

@@ -174,7 +174,7 @@ final class AnalyzerBackend implements Backend {
     /** The intermodulation figures: IMD in % and dB by its method, and the orders d2 and d3. */
     static List<FigureRow> imdRows(Intermodulation i) {
         List<FigureRow> rows = new ArrayList<>();
-        String tones = num(i.f1Hz()) + " Hz + " + num(i.f2Hz()) + " Hz at " + String.format(Locale.ROOT, "%.2f", i.ratio()) + ":1";
+        String tones = Levels.formatHz(i.f1Hz()) + " + " + Levels.formatHz(i.f2Hz()) + " at " + String.format(Locale.ROOT, "%.2f", i.ratio()) + ":1";
         rows.add(new FigureRow("imdValue", "IMD", pct(i.percent()), "%", i.method().label() + " method; " + tones));
         rows.add(new FigureRow("imdDbValue", "IMD", db(i.db()), "dB", i.method() == Intermodulation.Method.MODULATION
                 ? "re the f2 tone" : "re the two tones together"));
