@@ -119,7 +119,7 @@ public final class ScreenshotTool {
         Thread.sleep(600);
         save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve("figures-clipping.png"));
         // the spec-sheet view of the sample session's two-tone, noise and sweep captures
-        String[][] sheets = {{"imd-smpte", "spec-imd.png"}, {"noise-input", "spec-noise.png"}, {"sweep-gen", "spec-response.png"}};
+        String[][] sheets = {{"imd-smpte", "spec-imd.png"}, {"imd-twin", "spec-imd-twin.png"}, {"noise-input", "spec-noise.png"}, {"sweep-gen", "spec-response.png"}};
         for (String[] s : sheets) {
             boolean found = fx(() -> {
                 var items = pane.captureList.getItems();
