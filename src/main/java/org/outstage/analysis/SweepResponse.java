@@ -64,25 +64,27 @@ public final class SweepResponse {
         int nfft = Integer.highestOneBit(n) << 2;   // ≥ 2n: linear, not circular, deconvolution
         double[] x = Arrays.copyOf(stimulus, nfft);
         double[] y = Arrays.copyOf(output, nfft);
-        DoubleFFT_1D fft = Fft.of(nfft);
+        DoubleFFT_1D fft = Fft.cached(nfft);
         fft.realForward(x);
         fft.realForward(y);
         int half = nfft / 2;
         double binW = fs / nfft;
         // the swept band: where |X|²·k (flat for an exponential sweep) is within 3 dB of its in-band level
-        double[] w = new double[half];
+        // (w = |X|²·k is recomputed where needed rather than stored, and h serves as scratch for the median:
+        // each 2^21-point array less is 16 MB less to allocate and collect)
         double wMax = 0;
-        for (int k = 1; k < half; k++) {
-            w[k] = (x[2 * k] * x[2 * k] + x[2 * k + 1] * x[2 * k + 1]) * k;
-            wMax = Math.max(wMax, w[k]);
-        }
+        for (int k = 1; k < half; k++) wMax = Math.max(wMax, (x[2 * k] * x[2 * k] + x[2 * k + 1] * x[2 * k + 1]) * k);
         if (!(wMax > 0)) throw new IllegalArgumentException("the stimulus is silent");
-        double[] strong = new double[half];
+        double[] h = new double[nfft];
         int ns = 0;
-        for (int k = 1; k < half; k++) if (w[k] > 1e-3 * wMax) strong[ns++] = w[k];
-        double level = Stats.median(strong, ns);
+        for (int k = 1; k < half; k++) {
+            double wk = (x[2 * k] * x[2 * k] + x[2 * k + 1] * x[2 * k + 1]) * k;
+            if (wk > 1e-3 * wMax) h[ns++] = wk;
+        }
+        double level = Stats.median(h, ns);
         int kLo = -1, kHi = -1;
-        for (int k = 1; k < half; k++) if (w[k] >= 0.5 * level) { if (kLo < 0) kLo = k; kHi = k; }
+        for (int k = 1; k < half; k++)
+            if ((x[2 * k] * x[2 * k] + x[2 * k + 1] * x[2 * k + 1]) * k >= 0.5 * level) { if (kLo < 0) kLo = k; kHi = k; }
         double fLo = kLo * binW, fHi = kHi * binW;
         if (!(fHi > 4 * fLo)) throw new IllegalArgumentException("the stimulus is not a sweep of at least two octaves (found "
                 + Levels.formatHz(fLo) + "–" + Levels.formatHz(fHi) + ")");
@@ -91,13 +93,14 @@ public final class SweepResponse {
         // band: the impulse responses then decay fast instead of ringing for seconds at the band's sharp edges
         // (which would leak into the harmonic windows); the reported band starts where the taper is 1
         double tLo = fLo * Math.pow(2, 2.0 / 3), tHi = fHi / Math.pow(2, 1.0 / 6);
-        double[] h = new double[nfft];
         double[] hp = highPassTable(half, binW, tLo);
+        h[0] = 0;
+        h[1] = 0;
         for (int k = 1; k < half; k++) {
             double f = k * binW;
             double g = f <= fLo || f >= fHi ? 0
                     : f > tHi ? 0.5 * (1 - Math.cos(Math.PI * Math.log(fHi / f) / Math.log(fHi / tHi))) : 1;
-            if (g == 0) continue;
+            if (g == 0) { h[2 * k] = 0; h[2 * k + 1] = 0; continue; }
             double xr = x[2 * k], xi = x[2 * k + 1], yr = y[2 * k], yi = y[2 * k + 1];
             double d = xr * xr + xi * xi + eps / k;
             double hr = g * (yr * xr + yi * xi) / d, hi = g * (yi * xr - yr * xi) / d;
@@ -109,8 +112,9 @@ public final class SweepResponse {
         if (align) {
             int p = 0;
             for (int i = 1; i < nfft; i++) if (Math.abs(h[i]) > Math.abs(h[p])) p = i;
-            double[] r = new double[nfft];
-            for (int i = 0; i < nfft; i++) r[i] = h[(i + p) % nfft];
+            double[] r = y;   // the output's spectrum is no longer needed: its array takes the rotated response
+            System.arraycopy(h, p, r, 0, nfft - p);
+            System.arraycopy(h, 0, r, nfft - p, p);
             h = r;
         }
         // sweep duration from the stimulus envelope (constant amplitude while it sweeps)
@@ -126,8 +130,9 @@ public final class SweepResponse {
 
         // linear response: from −Δt_2/2 (faded in over its first half) to +nfft/2
         int pre = (int) Math.min(nfft / 4, Math.floor(dt[2] / 2 * fs));
-        double[] lin = new double[nfft];
+        double[] lin = x;   // the stimulus's spectrum is no longer needed
         System.arraycopy(h, 0, lin, 0, half);
+        Arrays.fill(lin, half, nfft - pre, 0);
         for (int i = 1; i <= pre; i++) {
             double t = (double) (i - 1) / pre;  // 0 at −1 sample, 1 at −pre
             double g = t < 0.5 ? 1 : 0.5 * (1 + Math.cos(Math.PI * (t - 0.5) / 0.5));
@@ -140,8 +145,10 @@ public final class SweepResponse {
         List<FrequencyResponse.Point> raw = new ArrayList<>();
         double step = Math.pow(2, 1.0 / 24);
         double ref1k = 1000 >= lo && 1000 <= hi ? gainDbAt(lin, 1000, binW, half) : gainDbAt(lin, Math.sqrt(lo * hi), binW, half);
-        for (double f = lo; f <= hi * (1 + 1e-9); f *= step)
-            raw.add(new FrequencyResponse.Point(f, gainDbAt(lin, f, binW, half), gainDbAt(lin, f, binW, half) - ref1k, phaseDegAt(lin, f, binW, half)));
+        for (double f = lo; f <= hi * (1 + 1e-9); f *= step) {
+            double g = gainDbAt(lin, f, binW, half);
+            raw.add(new FrequencyResponse.Point(f, g, g - ref1k, phaseDegAt(lin, f, binW, half)));
+        }
         double fRef = 1000 >= lo && 1000 <= hi ? 1000 : Math.sqrt(lo * hi);
         OptionalDouble low = crossing(lin, raw, fRef, ref1k + MINUS_3DB, binW, half, true);
         OptionalDouble high = crossing(lin, raw, fRef, ref1k + MINUS_3DB, binW, half, false);
@@ -172,7 +179,7 @@ public final class SweepResponse {
                 double g = e >= fade ? 1 : 0.5 * (1 - Math.cos(Math.PI * e / fade));
                 seg[Math.floorMod(i - centre, len)] = g * h[Math.floorMod(i, nfft)];
             }
-            Fft.of(len).realForward(seg);
+            Fft.cached(len).realForward(seg);
             undoHighPass(seg, highPassTable(len / 2, fs / len, tLo));
             hn[m] = seg;
             orders = m;
@@ -233,12 +240,12 @@ public final class SweepResponse {
 
     static void undoHighPass(double[] spec, double[] table) {
         for (int k = 1; k < spec.length / 2; k++) {
-            double[] c = {table[2 * k], table[2 * k + 1]};
-            double d = c[0] * c[0] + c[1] * c[1];
+            double c0 = table[2 * k], c1 = table[2 * k + 1];
+            double d = c0 * c0 + c1 * c1;
             if (d < 1e-20) { spec[2 * k] = 0; spec[2 * k + 1] = 0; continue; }
             double r = spec[2 * k], i = spec[2 * k + 1];
-            spec[2 * k] = (r * c[0] + i * c[1]) / d;
-            spec[2 * k + 1] = (i * c[0] - r * c[1]) / d;
+            spec[2 * k] = (r * c0 + i * c1) / d;
+            spec[2 * k + 1] = (i * c0 - r * c1) / d;
         }
     }
 

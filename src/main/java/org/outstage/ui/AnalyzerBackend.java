@@ -11,6 +11,11 @@ import java.util.function.DoubleConsumer;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Analyzer;
 import org.outstage.analysis.Band;
+import org.outstage.analysis.FrequencyResponse;
+import org.outstage.analysis.Intermodulation;
+import org.outstage.analysis.NoiseFigures;
+import org.outstage.analysis.SpecConditions;
+import org.outstage.analysis.SweepResponse;
 import org.outstage.analysis.Levels;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.Weighting;
@@ -23,6 +28,7 @@ import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureOptions;
 import org.outstage.capture.CaptureReader;
 import org.outstage.plot.MeasurementCharts;
+import org.outstage.plot.SpecSheetCharts;
 import org.outstage.plot.Ticks;
 
 /**
@@ -57,26 +63,56 @@ final class AnalyzerBackend implements Backend {
         UiSettings s = ref.isPresent() && (ref.getAsInt() >= capture.channelCount() || ref.getAsInt() == channel)
                 ? settings.withReference(OptionalInt.empty()) : settings;
         Measurement m;
+        Optional<FrequencyResponse> response = Optional.empty();
+        String responseProblem = "";
         try {
-            m = Analyzer.analyze(capture, channel, settingsFor(s, calibration));
+            // the spec-sheet figures as analyze and verify find them with no stated stimulus (SpecConditions.AUTO)
+            m = Analyzer.analyze(capture, channel, settingsFor(s, calibration), SpecConditions.AUTO);
+            if (s.referenceChannel().isPresent() && sweepLike(m)) {
+                if (cancelled.getAsBoolean()) return ViewData.failed(capture.name(), "cancelled");
+                progress.accept(0.3);
+                try {
+                    response = Optional.of(SweepResponse.measure(capture.readChannel(channel), capture.readChannel(s.referenceChannel().getAsInt()),
+                            capture.sampleRateHz(), true, Band.AUDIO_20_20K));
+                } catch (IllegalArgumentException e) {
+                    responseProblem = WorkbenchPane.oneLine(e);
+                }
+            }
         } catch (IllegalArgumentException | java.io.UncheckedIOException e) {
             return ViewData.failed(capture.name(), "Not measured: " + WorkbenchPane.oneLine(e));
         }
         if (cancelled.getAsBoolean()) return ViewData.failed(capture.name(), "cancelled");
         progress.accept(0.6);
-        return fromMeasurement(capture, channel, m, calibration, cancelled, progress);
+        return fromMeasurement(capture, channel, m, calibration, cancelled, progress, response, responseProblem);
+    }
+
+    /**
+     * Whether a capture with a generator channel is taken for a sweep: no single tone was measured and no two-tone
+     * stimulus was found ({@code verify}'s rule for a capture with no stated stimulus). Unlike verify this ignores
+     * the noise figures: with no tone found the analysis also reads a swept capture as noise, but a capture whose
+     * generator channel carries a signal is not a noise capture. Whether it is a sweep is then
+     * {@link SweepResponse#measure}'s to say (it refuses a stimulus of less than two octaves).
+     */
+    static boolean sweepLike(Measurement m) {
+        return !m.measured() && m.imd().isEmpty();
     }
 
     /** Builds what the views show from a measurement (public to the tests, which compare against it). */
     static ViewData fromMeasurement(Capture capture, int channel, Measurement m, Calibration cal, BooleanSupplier cancelled,
-                                    DoubleConsumer progress) {
+                                    DoubleConsumer progress, Optional<FrequencyResponse> response, String responseProblem) {
         String unit = m.unit();
         String name = capture.name() + (capture.channelCount() > 1 ? " ch " + m.channel() : "");
+        Optional<SpecSheet> sheet = specSheet(name, m, response);
         if (!m.measured()) {
-            String why = m.notMeasuredReason().get();
-            return ViewData.failed(name, "Not measured: " + why);
+            String why = "Not measured: " + m.notMeasuredReason().get()
+                    + (responseProblem.isEmpty() ? "" : "; no swept response: " + responseProblem);
+            if (sheet.isEmpty()) return ViewData.failed(name, why);
+            Panel p = Panel.message(why);
+            return new ViewData(name, sheet.get().rows(), Optional.of(why + " — see the Spec sheet view"),
+                    p, p, p, p, p, Optional.empty(), Optional.empty(), sheet);
         }
-        List<FigureRow> rows = figures(m);
+        List<FigureRow> rows = new ArrayList<>(figures(m));
+        sheet.ifPresent(x -> rows.addAll(x.rows()));
         // waveform and residual over the analysis span (the fit refers to its first sample)
         int span = Analyzer.spanFrames(capture);
         double[] x = capture.readChannel(channel, span);
@@ -105,7 +141,93 @@ final class AnalyzerBackend implements Backend {
         Optional<ViewData.SweepPoint> sweep = LevelSeries.point(capture.name(), m, label, cal.fullScaleVolts().orElse(0))
                 .filter(p -> p.thdRatio() > 0 && p.thdNRatio() > 0).map(ViewData.SweepPoint::new);
         progress.accept(1);
-        return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, spectrumRelative, harmonics, curve, sweep);
+        return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, spectrumRelative, harmonics, curve, sweep, sheet);
+    }
+
+    /**
+     * The spec-sheet view's figures and charts: the swept response when there is one (a swept capture also reads as
+     * noise, see {@link #sweepLike}), else the intermodulation, else the noise and hum; empty for an ordinary tone.
+     * The charts are {@link SpecSheetCharts}' descriptions, the ones the HTML report draws.
+     */
+    static Optional<SpecSheet> specSheet(String name, Measurement m, Optional<FrequencyResponse> response) {
+        if (response.isPresent()) {
+            FrequencyResponse r = response.get();
+            return Optional.of(new SpecSheet("Swept response", responseRows(r), Panel.of(SpecSheetCharts.responseGain(name, r)),
+                    Optional.of(Panel.of(SpecSheetCharts.responsePhase(name, r)))));
+        }
+        if (m.imd().isPresent()) {
+            Intermodulation i = m.imd().get();
+            return Optional.of(new SpecSheet("Intermodulation (" + i.method().label() + ")", imdRows(i),
+                    Panel.of(SpecSheetCharts.intermodulation(name, i)), Optional.empty()));
+        }
+        if (m.noise().isPresent()) {
+            NoiseFigures n = m.noise().get();
+            return Optional.of(new SpecSheet("Noise and hum", noiseRows(n, m.unit()), Panel.of(SpecSheetCharts.noiseSpectrum(name, m, n)),
+                    Optional.empty()));
+        }
+        return Optional.empty();
+    }
+
+    /** One decimal place in dB, as the text table of {@code analyze} gives them. */
+    static String db(double v) { return Double.isFinite(v) ? String.format(Locale.ROOT, "%.1f", v) : "—"; }
+
+    /** The intermodulation figures: IMD in % and dB by its method, and the orders d2 and d3. */
+    static List<FigureRow> imdRows(Intermodulation i) {
+        List<FigureRow> rows = new ArrayList<>();
+        String tones = Levels.formatHz(i.f1Hz()) + " + " + Levels.formatHz(i.f2Hz()) + " at " + String.format(Locale.ROOT, "%.2f", i.ratio()) + ":1";
+        rows.add(new FigureRow("imdValue", "IMD", pct(i.percent()), "%", i.method().label() + " method; " + tones));
+        rows.add(new FigureRow("imdDbValue", "IMD", db(i.db()), "dB", i.method() == Intermodulation.Method.MODULATION
+                ? "re the f2 tone" : "re the two tones together"));
+        for (int order : new int[] {2, 3})
+            rows.add(new FigureRow("imdD" + order + "Value", "d" + order, pct(100 * i.order(order)), "%",
+                    i.order(order) > 0 ? db(Levels.ratioToDb(i.order(order))) + " dB" : "no product inside the band"));
+        return rows;
+    }
+
+    /** The noise figures: rms and A-weighted in the band, S/N when a load is known, the mains hum lines. */
+    static List<FigureRow> noiseRows(NoiseFigures n, String unit) {
+        List<FigureRow> rows = new ArrayList<>();
+        String dbUnit = "V".equals(unit) ? "dBV" : "dB re 1 " + unit;
+        String band = Levels.formatHz(n.lowHz()) + "–" + Levels.formatHz(n.highHz());
+        rows.add(new FigureRow("noiseValue", "Noise (rms)", num(n.rms()), unit, db(n.db()) + " " + dbUnit + "; " + band + ", unweighted"));
+        rows.add(new FigureRow("noiseAValue", "Noise A-wtd", num(n.rmsA()), unit, db(n.dbA()) + " " + dbUnit + "; IEC 61672-1 A-weighting"));
+        rows.add(new FigureRow("noiseDbValue", "Noise", db(n.db()), dbUnit, "unweighted, " + band));
+        if (n.snrRe1WDb().isPresent())
+            rows.add(new FigureRow("snrValue", "S/N re 1 W", db(n.snrRe1WDb().getAsDouble()), "dB",
+                    "A-weighted " + db(n.snrRe1WADb().getAsDouble()) + " dB"));
+        else
+            rows.add(new FigureRow("snrValue", "S/N re 1 W", "—", "", "enter the load (and the full-scale volts) for S/N"));
+        if (n.snrReRatedDb().isPresent())
+            rows.add(new FigureRow("snrRatedValue", "S/N re rated", db(n.snrReRatedDb().getAsDouble()), "dB",
+                    "A-weighted " + db(n.snrReRatedADb().getAsDouble()) + " dB"));
+        StringBuilder lines = new StringBuilder();
+        for (NoiseFigures.HumLine h : n.hum()) {
+            if (lines.length() > 0) lines.append("; ");
+            lines.append(num(h.frequencyHz())).append(" Hz ").append(num(h.rms())).append(' ').append(unit);
+        }
+        rows.add(new FigureRow("humValue", "Mains hum", n.mainsHz().isPresent() ? num(n.mainsHz().getAsDouble()) : "none",
+                n.mainsHz().isPresent() ? "Hz" : "", n.hum().isEmpty() ? "no hum line stands clear of the noise" : lines.toString()));
+        return rows;
+    }
+
+    /** The swept-response figures: the −3 dB points, the deviation over the band, the sweep itself. */
+    static List<FigureRow> responseRows(FrequencyResponse r) {
+        List<FigureRow> rows = new ArrayList<>();
+        double first = r.points().isEmpty() ? Double.NaN : r.points().get(0).frequencyHz();
+        double last = r.points().isEmpty() ? Double.NaN : r.points().get(r.points().size() - 1).frequencyHz();
+        // frequencies with their unit (Levels.formatHz: "3.48 Hz", "29.99 kHz"), so the unit column stays empty
+        rows.add(new FigureRow("responseLowValue", "−3 dB low", r.minus3dbLowHz().isPresent() ? Levels.formatHz(r.minus3dbLowHz().getAsDouble()) : "—",
+                "", r.minus3dbLowHz().isPresent() ? "re the gain at 1 kHz" : "not reached down to " + Levels.formatHz(first)));
+        rows.add(new FigureRow("responseHighValue", "−3 dB high", r.minus3dbHighHz().isPresent() ? Levels.formatHz(r.minus3dbHighHz().getAsDouble()) : "—",
+                "", r.minus3dbHighHz().isPresent() ? "re the gain at 1 kHz" : "not reached up to " + Levels.formatHz(last)));
+        rows.add(new FigureRow("deviationValue", "Deviation",
+                Double.isFinite(r.deviationMaxDb()) ? String.format(Locale.ROOT, "%+.2f / %+.2f", r.deviationMaxDb(), r.deviationMinDb()) : "—",
+                "dB", "max / min re 1 kHz, " + Levels.formatHz(r.deviationLowHz()) + "–" + Levels.formatHz(r.deviationHighHz())));
+        rows.add(new FigureRow("gainAt1kValue", "Gain at 1 kHz", String.format(Locale.ROOT, "%.2f", r.gainAt1kHzDb()), "dB",
+                r.fromReference() ? "output re the generator channel" : "output re the generated sweep"));
+        rows.add(new FigureRow("sweepValue", "Sweep", Levels.formatHz(r.sweepLowHz()) + "–" + Levels.formatHz(r.sweepHighHz()), "",
+                num(r.sweepSeconds()) + " s exponential sweep"));
+        return rows;
     }
 
     /** The figures table, formatted from the measurement. */

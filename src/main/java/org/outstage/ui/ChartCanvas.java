@@ -332,7 +332,12 @@ public final class ChartCanvas extends Region {
             double x = vp.px(m.x()), y = vp.py(m.y());
             if (!Double.isFinite(x) || !Double.isFinite(y)) continue;
             gc.fillPolygon(new double[] {x, x - 4, x + 4}, new double[] {y - 3, y - 10, y - 10}, 3);
-            if (ChartLayout.labelFits(labelled, x, y - 13)) gc.fillText(m.label(), x, y - 13);
+            // the label centred over its marker, but shifted to stay inside the plot (a −3 dB point near the edge)
+            javafx.scene.text.Text probe = new javafx.scene.text.Text(m.label());
+            probe.setFont(SMALL_FONT);
+            double half = probe.getLayoutBounds().getWidth() / 2 + 2;
+            double lx = pw > 2 * half ? Math.max(l + half, Math.min(l + pw - half, x)) : x;
+            if (ChartLayout.labelFits(labelled, lx, y - 13)) gc.fillText(m.label(), lx, y - 13);
         }
         gc.restore();
         gc.setLineDashes();

@@ -30,7 +30,8 @@ final class FiguresPanel {
     private final Consumer<String> status;
 
     /** The figures shown large above the table. */
-    static final List<String> SUMMARY_IDS = List.of("thdValue", "thdnValue", "floorValue", "frequencyValue", "levelValue", "powerValue");
+    static final List<String> SUMMARY_IDS = List.of("thdValue", "thdnValue", "floorValue", "frequencyValue", "levelValue", "powerValue",
+            "imdValue", "noiseValue", "noiseAValue", "snrValue", "responseLowValue", "responseHighValue");
 
     FiguresPanel(Consumer<String> status) {
         this.status = status;
@@ -95,6 +96,11 @@ final class FiguresPanel {
             Label l = new Label(d.notMeasured().get());
             l.setId("notMeasured");
             l.setWrapText(true);
+            // wraps inside the side column (a long reason would otherwise widen the column and squeeze the views)
+            l.setPrefWidth(440);
+            l.setMaxWidth(440);
+            l.setMinWidth(0);
+            l.setMinHeight(javafx.scene.layout.Region.USE_PREF_SIZE);
             l.setStyle("-fx-text-fill: #a0281e;");
             summary.getChildren().add(l);
         }

@@ -18,10 +18,12 @@ import org.outstage.analysis.TransferCurve;
  * @param harmonics     harmonic profile
  * @param measuredCurve measured transfer curve for the transfer view, if the result has one
  * @param sweepPoint    this capture's point for the level sweep: power (W), THD and THD+N (fractions)
+ * @param specSheet     the spec-sheet figures (intermodulation, noise and hum, swept response), when the capture
+ *                      carries a stimulus for them
  */
 record ViewData(String captureName, List<FigureRow> figures, Optional<String> notMeasured, Panel waveform, Panel residual,
                 Panel spectrum, Panel spectrumRelative, Panel harmonics, Optional<TransferCurve> measuredCurve,
-                Optional<SweepPoint> sweepPoint) {
+                Optional<SweepPoint> sweepPoint, Optional<SpecSheet> specSheet) {
 
     ViewData {
         figures = List.copyOf(figures);
@@ -36,7 +38,7 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
 
     static ViewData failed(String name, String message) {
         Panel p = Panel.message(message);
-        return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, p, Optional.empty(), Optional.empty());
+        return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, p, Optional.empty(), Optional.empty(), Optional.empty());
     }
 
     /**
@@ -45,7 +47,7 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
      */
     ViewData light() {
         Panel p = Panel.message(LIGHT);
-        return new ViewData(captureName, figures, notMeasured, p, p, p, p, p, measuredCurve, sweepPoint);
+        return new ViewData(captureName, figures, notMeasured, p, p, p, p, p, measuredCurve, sweepPoint, specSheet.map(s -> s.light(p)));
     }
 
     /** Whether the charts are here (not a {@link #light} copy). */

@@ -83,6 +83,7 @@ final class WorkbenchPane extends BorderPane {
     final HarmonicsView harmonicsView = new HarmonicsView();
     final TransferView transferView;
     final LevelSweepView sweepView = new LevelSweepView();
+    final SpecSheetView specView = new SpecSheetView();
     final LiveView liveView;
     final ChartCanvas waveformChart = waveformView.waveformChart;
     final ChartCanvas residualChart = waveformView.residualChart;
@@ -241,7 +242,7 @@ final class WorkbenchPane extends BorderPane {
     }
 
     /** The views in tab order. */
-    List<WorkbenchView> allViews() { return List.of(waveformView, spectrumView, harmonicsView, transferView, sweepView, liveView); }
+    List<WorkbenchView> allViews() { return List.of(waveformView, spectrumView, harmonicsView, transferView, sweepView, specView, liveView); }
 
     /** Stops anything live (the window is closing or the application stops). */
     void shutdown() { liveView.stop(); }
@@ -249,10 +250,10 @@ final class WorkbenchPane extends BorderPane {
     private Node viewTabs() {
         views.setId("views");
         views.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
-        // six tabs in the middle column: tighter tab headers, so all titles show without the overflow menu
+        // seven tabs in the middle column: tighter tab headers, so all titles show without the overflow menu
         views.getStylesheets().add("data:text/css," + java.net.URLEncoder.encode(
-                ".tab-pane > .tab-header-area .tab { -fx-padding: 2 5 2 5; } "
-                        + ".tab-pane > .tab-header-area .tab .tab-label { -fx-font-size: 12px; }", java.nio.charset.StandardCharsets.UTF_8)
+                ".tab-pane > .tab-header-area .tab { -fx-padding: 2 3 2 3; } "
+                        + ".tab-pane > .tab-header-area .tab .tab-label { -fx-font-size: 11px; }", java.nio.charset.StandardCharsets.UTF_8)
                 .replace("+", "%20"));
         for (WorkbenchView v : allViews()) {
             views.getTabs().add(v.tab());
@@ -327,6 +328,9 @@ final class WorkbenchPane extends BorderPane {
         cancelButton.setId("cancelButton");
         cancelButton.setDisable(true);
         cancelButton.setOnAction(e -> { if (running != null) running.cancel(); });
+        // a long status line is cut with an ellipsis, not the Cancel button
+        cancelButton.setMinWidth(Region.USE_PREF_SIZE);
+        statusText.setMinWidth(0);
         HBox bar = new HBox(8, statusText, spacer(), progress, cancelButton);
         bar.setAlignment(Pos.CENTER_LEFT);
         bar.setPadding(new Insets(3, 6, 3, 6));

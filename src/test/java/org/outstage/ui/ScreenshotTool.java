@@ -118,6 +118,24 @@ public final class ScreenshotTool {
         fx(() -> { pane.figuresTable.getItems().stream().filter(r -> r.id().equals("crossoverValue")).findFirst().ifPresent(pane.figuresTable::scrollTo); return null; });
         Thread.sleep(600);
         save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve("figures-clipping.png"));
+        // the spec-sheet view of the sample session's two-tone, noise and sweep captures
+        String[][] sheets = {{"imd-smpte", "spec-imd.png"}, {"imd-twin", "spec-imd-twin.png"}, {"noise-input", "spec-noise.png"}, {"sweep-gen", "spec-response.png"}};
+        for (String[] s : sheets) {
+            boolean found = fx(() -> {
+                var items = pane.captureList.getItems();
+                for (int i = 0; i < items.size(); i++)
+                    if (items.get(i).name.contains(s[0])) {
+                        pane.captureList.getSelectionModel().clearAndSelect(i);
+                        pane.views.getSelectionModel().select(pane.specView.tab());
+                        return true;
+                    }
+                return false;
+            });
+            if (!found) continue;   // generated captures: no such stimulus
+            waitIdle(pane);
+            Thread.sleep(600);
+            save(fx(() -> pane.getScene().getRoot().snapshot(null, null)), out.resolve(s[1]));
+        }
         fx(() -> { pane.captureList.getSelectionModel().clearAndSelect(pickShowcase(pane)); return null; });
         waitIdle(pane);
         // the model sheet: another topology keeps the edited Vq; a value that is not a number says why

@@ -289,4 +289,112 @@ class WorkbenchTest {
         WaitForAsyncUtils.waitForFxEvents();
         assertEquals("Load 'eight' is not a number", pane.calibrationError.getText());
     }
+
+    /** Opens one bundled sample capture with its folder's notes, shows the spec-sheet view, and waits for the analysis. */
+    private Capture openSample(FxRobot robot, String file) throws Exception {
+        Path f = Path.of("sample-captures", file);
+        assertTrue(Files.isRegularFile(f), "bundled sample capture present: " + f);
+        robot.interact(() -> pane.openPaths(List.of(f), Workbench.SAMPLE_SESSION));
+        idle();
+        TabPane views = robot.lookup("#views").queryAs(TabPane.class);
+        robot.interact(() -> views.getSelectionModel().select(pane.specView.tab()));
+        WaitForAsyncUtils.waitForFxEvents();
+        // bench.txt: fs-volts=40 for every da60 file
+        return org.outstage.capture.CaptureReader.open(f, org.outstage.capture.CaptureOptions.none().withFullScaleVolts(40));
+    }
+
+    /** What analyze and verify measure for the same file and settings (no stated stimulus). */
+    private static Measurement specAnalysis(Capture c, int channel) {
+        return Analyzer.analyze(c, channel, AnalyzerBackend.settingsFor(UiSettings.DEFAULT, Workbench.SAMPLE_SESSION).withLoadOhms(8),
+                org.outstage.analysis.SpecConditions.AUTO);
+    }
+
+    private FigureRow row(String id) {
+        return pane.figuresTable.getItems().stream().filter(r -> r.id().equals(id)).findFirst()
+                .orElseThrow(() -> new AssertionError("no figures-table row " + id));
+    }
+
+    @Test
+    void smpteCapture_specSheetViewShowsTheAnalysisIntermodulation(FxRobot robot) throws Exception {
+        Capture c = openSample(robot, "da60-imd-smpte-60Hz-7kHz-10W.wav");
+        org.outstage.analysis.Intermodulation imd = specAnalysis(c, 0).imd().orElseThrow();
+        assertEquals(org.outstage.analysis.Intermodulation.Method.MODULATION, imd.method());
+        assertEquals(AnalyzerBackend.pct(imd.percent()) + " %", shown(robot, "sheetImdValue"));
+        assertEquals(AnalyzerBackend.db(imd.db()) + " dB", shown(robot, "sheetImdDbValue"));
+        assertEquals(AnalyzerBackend.pct(100 * imd.order(2)) + " %", shown(robot, "sheetImdD2Value"));
+        assertEquals(AnalyzerBackend.pct(100 * imd.order(3)) + " %", shown(robot, "sheetImdD3Value"));
+        assertEquals("Intermodulation (smpte) — da60-imd-smpte-60Hz-7kHz-10W.wav", pane.specView.kindLabel.getText());
+        // the same figures in the figures table, and large in the summary
+        assertEquals(AnalyzerBackend.pct(imd.percent()), row("imdValue").value());
+        assertEquals(AnalyzerBackend.pct(imd.percent()) + " %", shown(robot, "imdValue"));
+        // the chart is the report's: one marker per product, at the analysis' level
+        var spec = pane.specView.specChart.spec().orElseThrow();
+        assertTrue(spec.title().contains("intermodulation (smpte"), spec.title());
+        assertEquals(imd.products().size(), spec.markers().size());
+        assertEquals(Math.max(-200, imd.products().get(0).dbc()), spec.markers().get(0).y(), 1e-12);
+        assertEquals(1, pane.specView.charts().stream().filter(ch -> ch.getParent() != null && ch.isVisible() && ch.getScene() != null).count());
+    }
+
+    @Test
+    void twinToneCapture_specSheetViewShowsTheDifferenceFrequencyFigures(FxRobot robot) throws Exception {
+        Capture c = openSample(robot, "da60-imd-twin-19k-20k-10W.wav");
+        org.outstage.analysis.Intermodulation imd = specAnalysis(c, 0).imd().orElseThrow();
+        assertEquals(org.outstage.analysis.Intermodulation.Method.DIFFERENCE_FREQUENCY, imd.method());
+        assertEquals(AnalyzerBackend.pct(imd.percent()) + " %", shown(robot, "sheetImdValue"));
+        assertEquals(AnalyzerBackend.pct(100 * imd.order(3)) + " %", shown(robot, "sheetImdD3Value"));
+    }
+
+    @Test
+    void noiseCapture_specSheetViewShowsNoiseHumAndSignalToNoise(FxRobot robot) throws Exception {
+        Capture c = openSample(robot, "da60-noise-input-shorted.wav");
+        Measurement m = specAnalysis(c, 0);
+        org.outstage.analysis.NoiseFigures n = m.noise().orElseThrow();
+        assertEquals(AnalyzerBackend.num(n.rms()) + " V", shown(robot, "sheetNoiseValue"));
+        assertEquals(AnalyzerBackend.num(n.rmsA()) + " V", shown(robot, "sheetNoiseAValue"));
+        assertEquals(AnalyzerBackend.db(n.db()) + " dBV", shown(robot, "sheetNoiseDbValue"));
+        assertEquals(AnalyzerBackend.db(n.snrRe1WDb().orElseThrow()) + " dB", shown(robot, "sheetSnrValue"));
+        assertEquals(AnalyzerBackend.num(n.mainsHz().orElseThrow()) + " Hz", shown(robot, "sheetHumValue"));
+        assertEquals(AnalyzerBackend.num(n.rms()), row("noiseValue").value());
+        // the noise spectrum is the analysis' spectrum in dBV, with one marker per hum line at its level and the noise as lines
+        var spec = pane.specView.specChart.spec().orElseThrow();
+        assertEquals(m.spectrum().levelDb()[100] + org.outstage.plot.MeasurementCharts.spectrumShiftDb(m), spec.series().get(0).yAt(100), 1e-9);
+        assertEquals(n.hum().size(), spec.markers().size());
+        assertEquals(20 * Math.log10(n.hum().get(0).rms()), spec.markers().get(0).y(), 1e-9);
+        assertEquals(n.db(), spec.lines().get(0).y(), 1e-12);
+        assertEquals(n.dbA(), spec.lines().get(1).y(), 1e-12);
+    }
+
+    @Test
+    void sweepWithGeneratorChannel_specSheetViewShowsGainWithMinus3dbPointsAndPhase(FxRobot robot) throws Exception {
+        Capture c = openSample(robot, "da60-sweep-gen-ch1-amp-ch2-1W.wav");
+        // bench.txt: reference=1, so the output is channel 2
+        assertEquals(java.util.OptionalInt.of(0), lastSettings.referenceChannel());
+        org.outstage.analysis.FrequencyResponse r = org.outstage.analysis.SweepResponse.measure(c.readChannel(1), c.readChannel(0),
+                c.sampleRateHz(), true, org.outstage.analysis.Band.AUDIO_20_20K);
+        assertEquals(org.outstage.analysis.Levels.formatHz(r.minus3dbLowHz().orElseThrow()), shown(robot, "sheetResponseLowValue"));
+        // the sample amplifier's input high-pass is at 3.5 Hz and nothing rolls off below 22 kHz (sample-captures/README.md)
+        assertTrue(r.minus3dbHighHz().isEmpty());
+        assertEquals("—", shown(robot, "sheetResponseHighValue"));
+        assertTrue(row("responseHighValue").note().startsWith("not reached up to"), row("responseHighValue").note());
+        assertEquals(String.format(java.util.Locale.ROOT, "%+.2f / %+.2f dB", r.deviationMaxDb(), r.deviationMinDb()), shown(robot, "sheetDeviationValue"));
+        assertEquals(org.outstage.analysis.Levels.formatHz(r.minus3dbLowHz().getAsDouble()), row("responseLowValue").value());
+        // a swept capture is not shown as a noise capture
+        assertTrue(pane.figuresTable.getItems().stream().noneMatch(x -> x.id().equals("noiseValue")));
+        var gain = pane.specView.specChart.spec().orElseThrow();
+        assertTrue(gain.title().endsWith("frequency response"), gain.title());
+        assertEquals(1, gain.markers().size());
+        assertEquals(r.minus3dbLowHz().getAsDouble(), gain.markers().get(0).x(), 0.0);
+        assertEquals(r.points().get(10).gainRe1kHzDb(), gain.series().get(0).yAt(10), 0.0);
+        var phase = pane.specView.specChart2.spec().orElseThrow();
+        assertTrue(phase.title().endsWith("phase"), phase.title());
+        assertEquals(r.points().get(10).phaseDeg(), phase.series().get(0).yAt(10), 0.0);
+    }
+
+    @Test
+    void ordinaryTone_specSheetViewSaysWhatItIsFor(FxRobot robot) throws Exception {
+        robot.interact(() -> pane.addCapture(sine("plain tone")));
+        idle();
+        assertTrue(pane.specView.specChart.message().startsWith("No spec-sheet figures"), pane.specView.specChart.message());
+        assertEquals("", pane.specView.kindLabel.getText());
+    }
 }
