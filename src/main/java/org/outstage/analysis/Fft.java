@@ -46,24 +46,4 @@ public final class Fft {
     public static DoubleFFT_1D of(int n) {
         return PLANS.get().computeIfAbsent(n, DoubleFFT_1D::new);
     }
-
-    /** Plans kept per thread, softly (a 2^21-point plan holds 16 MB of twiddle factors). */
-    private static final ThreadLocal<java.util.Map<Integer, java.lang.ref.SoftReference<DoubleFFT_1D>>> PLANS =
-            ThreadLocal.withInitial(java.util.HashMap::new);
-
-    /**
-     * As {@link #of}, but the plan is kept for the calling thread and handed out again for the same length (the
-     * twiddle tables of a 2^21-point plan take about as long to build as one transform). Use it on the calling
-     * thread only; the same plan comes back to the same thread, so two uses on one thread must not interleave.
-     */
-    static DoubleFFT_1D cached(int n) {
-        var m = PLANS.get();
-        var ref = m.get(n);
-        DoubleFFT_1D f = ref == null ? null : ref.get();
-        if (f == null) {
-            f = new DoubleFFT_1D(n);
-            m.put(n, new java.lang.ref.SoftReference<>(f));
-        }
-        return f;
-    }
 }

@@ -64,7 +64,7 @@ public final class SweepResponse {
         int nfft = Integer.highestOneBit(n) << 2;   // ≥ 2n: linear, not circular, deconvolution
         double[] x = Arrays.copyOf(stimulus, nfft);
         double[] y = Arrays.copyOf(output, nfft);
-        DoubleFFT_1D fft = Fft.cached(nfft);
+        DoubleFFT_1D fft = Fft.of(nfft);
         fft.realForward(x);
         fft.realForward(y);
         int half = nfft / 2;
@@ -179,7 +179,7 @@ public final class SweepResponse {
                 double g = e >= fade ? 1 : 0.5 * (1 - Math.cos(Math.PI * e / fade));
                 seg[Math.floorMod(i - centre, len)] = g * h[Math.floorMod(i, nfft)];
             }
-            Fft.cached(len).realForward(seg);
+            Fft.of(len).realForward(seg);
             undoHighPass(seg, highPassTable(len / 2, fs / len, tLo));
             hn[m] = seg;
             orders = m;
