@@ -201,13 +201,13 @@ public final class VerifyCommand implements Callable<Integer> {
             for (var m : fr.measurements()) {
                 SpecReading r = SpecReading.of(name, m.channel(), m.unit(), m.settings().loadOhms())
                         .withImd(m.imd()).withNoise(m.noise()).withCrosstalk(m.crosstalk());
-                boolean sweepLike = conditions.stimulus() == org.outstage.analysis.StimulusKind.SWEEP
-                        || (conditions.stimulus() == org.outstage.analysis.StimulusKind.AUTO && !m.measured() && m.imd().isEmpty() && m.noise().isEmpty());
+                boolean sweepLike = org.outstage.analysis.SweepResponse.sweepCandidate(m, conditions.stimulus());
                 if (sweepLike && fr.generatorChannel().isPresent()) {
                     try {
                         r = r.withResponse(Optional.of(org.outstage.analysis.SweepResponse.measure(fr.capture().readChannel(m.channel() - 1),
                                 fr.capture().readChannel(fr.generatorChannel().getAsInt() - 1), fr.capture().sampleRateHz(), true,
                                 org.outstage.analysis.Band.AUDIO_20_20K)));
+                        r = r.withNoise(Optional.empty()); // a sweep, not a noise capture (SweepResponse.sweepCandidate)
                     } catch (IllegalArgumentException e) {
                         spec.commandLine().getErr().println("outstage: warning: " + c + ": no response: " + e.getMessage());
                     }

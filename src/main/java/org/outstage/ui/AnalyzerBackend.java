@@ -86,15 +86,9 @@ final class AnalyzerBackend implements Backend {
         return fromMeasurement(capture, channel, m, calibration, cancelled, progress, response, responseProblem);
     }
 
-    /**
-     * Whether a capture with a generator channel is taken for a sweep: no single tone was measured and no two-tone
-     * stimulus was found ({@code verify}'s rule for a capture with no stated stimulus). Unlike verify this ignores
-     * the noise figures: with no tone found the analysis also reads a swept capture as noise, but a capture whose
-     * generator channel carries a signal is not a noise capture. Whether it is a sweep is then
-     * {@link SweepResponse#measure}'s to say (it refuses a stimulus of less than two octaves).
-     */
+    /** Whether a capture with a generator channel is taken for a sweep: {@link SweepResponse#sweepCandidate}, no stated stimulus. */
     static boolean sweepLike(Measurement m) {
-        return !m.measured() && m.imd().isEmpty();
+        return SweepResponse.sweepCandidate(m, org.outstage.analysis.StimulusKind.AUTO);
     }
 
     /** Builds what the views show from a measurement (public to the tests, which compare against it). */

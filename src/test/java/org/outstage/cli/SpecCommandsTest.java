@@ -147,4 +147,27 @@ class SpecCommandsTest {
         CliRun bad = CliRun.of("impedance", loaded.toString(), open.toString());
         assertEquals(2, bad.exit());
     }
+
+    /**
+     * One rule for a sweep (SweepResponse.sweepCandidate, shared with the workbench): the sample sweep, whose bench.txt
+     * names the generator channel, is read as a sweep by verify with no stated stimulus, and its noise figures (the
+     * analysis finds no tone) do not stand in for a noise capture.
+     */
+    @Test
+    @SuppressWarnings("unchecked")
+    void verify_sampleSweepWithoutStatedStimulus_isASweepNotANoiseCapture() {
+        Path samples = Path.of(System.getProperty("outstage.project.dir", ".")).resolve("sample-captures");
+        CliRun r = CliRun.of("verify", "--spec", samples.resolve("spec/da-60-sheet.spec").toString(), "--fs-volts", "40", "--load", "8",
+                "--allow-unmeasured", "--no-log", "--json", samples.resolve("da60-sweep-gen-ch1-amp-ch2-1W.wav").toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> root = (Map<String, Object>) JsonText.parse(r.out());
+        Map<String, String> verdicts = new java.util.HashMap<>();
+        for (Object o : (List<Object>) root.get("limits")) {
+            Map<String, Object> l = (Map<String, Object>) o;
+            verdicts.put((String) l.get("quantity"), (String) l.get("verdict"));
+        }
+        assertEquals("pass", verdicts.get("response-deviation"), r.out());
+        assertEquals("pass", verdicts.get("bandwidth-low"), r.out());
+        assertEquals("not-measured", verdicts.get("snr"), r.out());
+    }
 }
