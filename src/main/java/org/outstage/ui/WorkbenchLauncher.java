@@ -27,6 +27,7 @@ public final class WorkbenchLauncher {
             args = Arrays.copyOf(args, args.length + 1);
             args[args.length - 1] = Workbench.EXIT_FLAG;
         }
+        Warmup.start();   // the analysis path warms up on the second core while the toolkit starts
         Application.launch(Workbench.class, Arrays.copyOf(args, args.length));
     }
 
