@@ -93,13 +93,17 @@ public final class LiveCommand implements Callable<Integer> {
         boolean inPlace = !json && System.console() != null;
         List<Measurement> calibration = new ArrayList<>();
         int calChannel = analyze.channel().orElse(1);
+        // with our own stimulus, calibration blocks start after it has reached the input (set once started, under out's lock)
+        double[] calibrateFrom = {s.stimulus().isPresent() ? Double.POSITIVE_INFINITY : 0};
+        final double calBlockSeconds = blockSeconds;
         String label = "live:" + live.deviceKey();
         LiveListener listener = new LiveListener() {
             @Override
             public void onBlock(LiveResult r) {
                 synchronized (out) {
                     for (Measurement m : r.measurements()) {
-                        if (calibrateVolts != null && m.channel() == calChannel) calibration.add(m);
+                        if (calibrateVolts != null && m.channel() == calChannel && r.timeSeconds() - calBlockSeconds >= calibrateFrom[0] - 1e-9)
+                            calibration.add(m);
                         if (json) out.println(JsonText.write(jsonLine(label, r, m)));
                         else if (inPlace) out.print("\r" + textLine(r, m) + "   ");
                         else out.println(textLine(r, m));
@@ -124,6 +128,15 @@ public final class LiveCommand implements Callable<Integer> {
             throw new BadInputException("--record " + record + ": " + e.getMessage());
         } catch (IllegalArgumentException e) {
             throw new BadInputException(e.getMessage());
+        }
+        if (calibrateVolts != null && session.stimulusArrivalSeconds().isPresent()) {
+            // the output's lead-in (opening, buffer, fade-in) is not part of the calibration: three whole blocks after it
+            double from = session.stimulusArrivalSeconds().get() + LiveCapture.LEAD_MARGIN_SECONDS;
+            synchronized (out) { calibrateFrom[0] = from; }
+            double threeBlocks = Math.ceil(from / hop) * hop + 2 * hop + blockSeconds;
+            session.stopAfter(seconds == null ? threeBlocks : Math.max(seconds, threeBlocks));
+        } else if (calibrateVolts != null) {
+            synchronized (out) { calibrateFrom[0] = 0; }
         }
         final LiveSettings started = s;
         if (!json) {
