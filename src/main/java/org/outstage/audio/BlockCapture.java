@@ -193,7 +193,7 @@ public final class BlockCapture implements AutoCloseable {
     @Override
     public void close() {
         running = false;
-        line.close();
+        BoundedClose.run(line::close, 2000, "input");
         try {
             thread.join(2000);
         } catch (InterruptedException e) {

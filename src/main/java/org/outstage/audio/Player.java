@@ -76,9 +76,9 @@ public final class Player implements AutoCloseable {
             generator.fadeOut();
         }
         try {
-            if (!finished.await(2, TimeUnit.SECONDS)) line.close();
+            if (!finished.await(2, TimeUnit.SECONDS)) BoundedClose.run(line::close, 2000, "output");
         } catch (InterruptedException e) {
-            line.close();
+            BoundedClose.run(line::close, 2000, "output");
             Thread.currentThread().interrupt();
         }
     }

@@ -100,11 +100,21 @@ class LiveCommandEndToEndTest {
     @Test
     void ctrlC_duringRecord_leavesAValidWav_andKill9_isSalvaged() throws Exception {
         Path wav = dir.resolve("sigint.wav");
-        Process p = child("live", "--play", "sine:997", "--record", wav.toString(), "--channel", "1");
-        waitForBytes(wav, 96_000 * 8 * 2, p);
-        // SIGINT, as Ctrl-C sends it (the JVM runs its shutdown hooks: JLS 12.8, Runtime.addShutdownHook).
-        new ProcessBuilder("kill", "-INT", Long.toString(p.pid())).inheritIO().start().waitFor();
-        assertTrue(p.waitFor(20, TimeUnit.SECONDS), "child ended after SIGINT");
+        // under coreutils' timeout, which forwards SIGINT to the child and gives it the default disposition even when this
+        // JVM was started with SIGINT ignored (a background job of a non-interactive shell inherits it ignored)
+        Process p = child(List.of("timeout", "600"), "live", "--play", "sine:997", "--record", wav.toString(), "--channel", "1");
+        try {
+            waitForBytes(wav, 96_000 * 8 * 2, p);
+            // SIGINT, as Ctrl-C sends it (the JVM runs its shutdown hooks: JLS 12.8, Runtime.addShutdownHook).
+            new ProcessBuilder("kill", "-INT", Long.toString(p.pid())).inheritIO().start().waitFor();
+            // the hook fades out (50 ms), closes the lines (each bounded to 2 s) and finalises the header; 60 s leaves room
+            // for a heavily loaded machine
+            assertTrue(p.waitFor(60, TimeUnit.SECONDS), "child ended after SIGINT");
+        } finally {
+            // never leave a tone playing into the next test
+            p.descendants().forEach(ProcessHandle::destroyForcibly);
+            p.destroyForcibly();
+        }
         Capture c = WavReader.read(wav);
         assertTrue(c.warnings().isEmpty(), "the header was finalised: " + c.warnings());
         assertEquals((Files.size(wav) - 46) / 8, c.frameCount(), "the data size covers every frame");
@@ -112,16 +122,22 @@ class LiveCommandEndToEndTest {
 
         Path killed = dir.resolve("kill9.wav");
         Process q = child("live", "--record", killed.toString(), "--channel", "1");
-        waitForBytes(killed, 96_000 * 8, q);
-        q.destroyForcibly(); // SIGKILL: no hook runs
+        try {
+            waitForBytes(killed, 96_000 * 8, q);
+        } finally {
+            q.destroyForcibly(); // SIGKILL: no hook runs
+        }
         q.waitFor(20, TimeUnit.SECONDS);
         Capture k = WavReader.read(killed);
         assertFalse(k.warnings().isEmpty(), "a salvaged file says so");
         assertEquals((Files.size(killed) - 46) / 8, k.frameCount(), "every whole frame is read back");
     }
 
-    private Process child(String... args) throws Exception {
-        List<String> cmd = new java.util.ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+    private Process child(String... args) throws Exception { return child(List.of(), args); }
+
+    private Process child(List<String> prefix, String... args) throws Exception {
+        List<String> cmd = new java.util.ArrayList<>(prefix);
+        cmd.addAll(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
                 "-cp", System.getProperty("java.class.path"), "org.outstage.Launcher"));
         cmd.addAll(List.of(args));
         ProcessBuilder pb = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(dir.resolve("child-" + System.nanoTime() + ".log").toFile());
