@@ -126,58 +126,51 @@ public final class JavaSoundBackend implements AudioBackend {
 
     @Override
     public InputLine openInput(Optional<String> device, LineFormat format) throws AudioUnavailableException {
-        AudioFormat af = javaFormat(format);
-        DataLine.Info info = new DataLine.Info(TargetDataLine.class, af);
-        TargetDataLine line;
-        String name;
-        try {
-            if (device.isPresent()) {
-                Mixer m = find(device, TargetDataLine.class, "input");
-                name = m.getMixerInfo().getName();
-                line = (TargetDataLine) m.getLine(info);
-            } else {
-                if (AudioSystem.getMixerInfo().length == 0) throw new AudioUnavailableException("no input device: Java Sound lists no audio device");
-                name = "default";
-                line = (TargetDataLine) AudioSystem.getLine(info);
-            }
-            int buffer = (int) Math.round(format.sampleRateHz() * INPUT_BUFFER_SECONDS) * format.frameBytes();
-            line.open(af, buffer);
-        } catch (IllegalArgumentException e) {
-            throw new AudioUnavailableException("input device " + device.orElse("default") + " does not accept " + format + " (" + e.getMessage() + ")", e);
-        } catch (LineUnavailableException e) {
-            throw new AudioUnavailableException("input device " + device.orElse("default") + " cannot be opened at " + format + ": " + e.getMessage(), e);
-        }
-        checkFormat(line.getFormat(), af, "input", device, format, line);
-        line.start();
-        return new JsInput(line, format, name);
+        Opened<TargetDataLine> o = openLine(TargetDataLine.class, "input", device, format, INPUT_BUFFER_SECONDS, TargetDataLine::open);
+        return new JsInput(o.line(), format, o.name());
     }
 
     @Override
     public OutputLine openOutput(Optional<String> device, LineFormat format) throws AudioUnavailableException {
+        Opened<SourceDataLine> o = openLine(SourceDataLine.class, "output", device, format, OUTPUT_BUFFER_SECONDS, SourceDataLine::open);
+        return new JsOutput(o.line(), format, o.name());
+    }
+
+    /** A line opened and started, and the name of its device. */
+    private record Opened<L>(L line, String name) {}
+
+    /** {@code open(AudioFormat, int)}, which the input and output line types each declare. */
+    private interface LineOpener<L> {
+        void open(L line, AudioFormat format, int bufferBytes) throws LineUnavailableException;
+    }
+
+    /** Opens an input or output line on the named device (or the default), checks the format it got, starts it. */
+    private static <L extends DataLine> Opened<L> openLine(Class<L> lineClass, String what, Optional<String> device, LineFormat format,
+                                                           double bufferSeconds, LineOpener<L> opener) throws AudioUnavailableException {
         AudioFormat af = javaFormat(format);
-        DataLine.Info info = new DataLine.Info(SourceDataLine.class, af);
-        SourceDataLine line;
+        DataLine.Info info = new DataLine.Info(lineClass, af);
+        L line;
         String name;
         try {
             if (device.isPresent()) {
-                Mixer m = find(device, SourceDataLine.class, "output");
+                Mixer m = find(device, lineClass, what);
                 name = m.getMixerInfo().getName();
-                line = (SourceDataLine) m.getLine(info);
+                line = lineClass.cast(m.getLine(info));
             } else {
-                if (AudioSystem.getMixerInfo().length == 0) throw new AudioUnavailableException("no output device: Java Sound lists no audio device");
+                if (AudioSystem.getMixerInfo().length == 0) throw new AudioUnavailableException("no " + what + " device: Java Sound lists no audio device");
                 name = "default";
-                line = (SourceDataLine) AudioSystem.getLine(info);
+                line = lineClass.cast(AudioSystem.getLine(info));
             }
-            int buffer = (int) Math.round(format.sampleRateHz() * OUTPUT_BUFFER_SECONDS) * format.frameBytes();
-            line.open(af, buffer);
+            int buffer = (int) Math.round(format.sampleRateHz() * bufferSeconds) * format.frameBytes();
+            opener.open(line, af, buffer);
         } catch (IllegalArgumentException e) {
-            throw new AudioUnavailableException("output device " + device.orElse("default") + " does not accept " + format + " (" + e.getMessage() + ")", e);
+            throw new AudioUnavailableException(what + " device " + device.orElse("default") + " does not accept " + format + " (" + e.getMessage() + ")", e);
         } catch (LineUnavailableException e) {
-            throw new AudioUnavailableException("output device " + device.orElse("default") + " cannot be opened at " + format + ": " + e.getMessage(), e);
+            throw new AudioUnavailableException(what + " device " + device.orElse("default") + " cannot be opened at " + format + ": " + e.getMessage(), e);
         }
-        checkFormat(line.getFormat(), af, "output", device, format, line);
+        checkFormat(line.getFormat(), af, what, device, format, line);
         line.start();
-        return new JsOutput(line, format, name);
+        return new Opened<>(line, name);
     }
 
     private static void checkFormat(AudioFormat got, AudioFormat want, String what, Optional<String> device, LineFormat format, DataLine line)
