@@ -7,8 +7,12 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
+import org.outstage.analysis.AnalysisSettings;
+import org.outstage.analysis.Analyzer;
 import org.outstage.analysis.Band;
 import org.outstage.analysis.FrequencyResponse;
+import org.outstage.analysis.Measurement;
+import org.outstage.analysis.SteppedResponse;
 import org.outstage.analysis.SweepResponse;
 import org.outstage.capture.Capture;
 import org.outstage.json.JsonText;
@@ -31,8 +35,9 @@ import picocli.CommandLine.Spec;
 public final class ResponseCommand implements Callable<Integer> {
     @Spec picocli.CommandLine.Model.CommandSpec spec;
 
-    @Parameters(index = "0", paramLabel = "FILE", description = "The sweep capture: WAV or scope CSV.")
-    Path file;
+    @Parameters(paramLabel = "FILE", arity = "1..*",
+            description = "The sweep capture (WAV or scope CSV); or several captures, one tone each: a stepped-tone series.")
+    List<Path> files;
 
     @Option(names = "--reference", paramLabel = "N", description = "Channel (from 1) carrying the generator's sweep, captured beside the output.")
     Integer reference;
@@ -71,6 +76,8 @@ public final class ResponseCommand implements Callable<Integer> {
         opts.bandwidth = "20-20k";
         opts.weighting = "none";
         opts.harmonics = 10;
+        if (files.size() > 1) return stepped(opts, band);
+        Path file = files.get(0);
         Capture c = Measuring.open(file, opts);
         int count = c.channelCount();
         if (reference != null && (reference < 1 || reference > count))
@@ -93,6 +100,56 @@ public final class ResponseCommand implements Callable<Integer> {
         PrintWriter out = spec.commandLine().getOut();
         if (json) out.println(JsonText.pretty(toJson(file.toString(), ch, c.unit().symbol(), r)));
         else out.print(text(file.toString(), ch, r));
+        out.flush();
+        return OutstageCommand.EXIT_OK;
+    }
+
+    /**
+     * A stepped-tone series: each file one tone, measured as {@code analyze} measures it; with {@code --reference} the
+     * output over the generator captured beside it ({@link SteppedResponse}).
+     */
+    private Integer stepped(AnalyzeOptions opts, Band band) {
+        if (sweep != null) throw new BadInputException("--sweep is for one sweep capture; a stepped-tone series is several tone captures");
+        List<SteppedResponse.Tone> tones = new ArrayList<>();
+        int ch = 0;
+        String unit = null;
+        for (Path f : files) {
+            Capture c = Measuring.open(f, opts);
+            int count = c.channelCount();
+            if (reference != null && (reference < 1 || reference > count))
+                throw new BadInputException(f + ": --reference " + reference + " does not exist (the capture has " + count + ")");
+            ch = channel != null ? channel : (reference != null && reference == 1 && count > 1 ? 2 : 1);
+            if (ch < 1 || ch > count) throw new BadInputException(f + ": --channel " + ch + " does not exist (the capture has " + count + ")");
+            if (reference != null && reference == ch) throw new BadInputException(f + ": --reference and --channel name the same channel " + ch);
+            AnalysisSettings s = opts.settings();
+            try {
+                Measurement out = Analyzer.analyze(c, ch - 1, s);
+                java.util.Optional<Measurement> gen = reference == null ? java.util.Optional.empty()
+                        : java.util.Optional.of(Analyzer.analyze(c, reference - 1, s));
+                tones.add(SteppedResponse.tone(out, gen));
+            } catch (IllegalArgumentException e) {
+                throw new BadInputException(f + ": " + e.getMessage());
+            }
+            if (unit != null && !unit.equals(c.unit().symbol()))
+                throw new BadInputException(f + ": in " + c.unit().symbol() + " while the series so far is in " + unit + "; calibrate them alike");
+            unit = c.unit().symbol();
+        }
+        FrequencyResponse r;
+        try {
+            r = SteppedResponse.of(tones, reference != null, band);
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException(e.getMessage());
+        }
+        PrintWriter out = spec.commandLine().getOut();
+        String label = files.size() + " tone captures";
+        if (json) {
+            Map<String, Object> o = toJson(label, ch, unit, r);
+            o.put("sweep", null);
+            o.put("tones", tones.size());
+            out.println(JsonText.pretty(o));
+        } else {
+            out.print(text(label, ch, r));
+        }
         out.flush();
         return OutstageCommand.EXIT_OK;
     }
@@ -137,14 +194,28 @@ public final class ResponseCommand implements Callable<Integer> {
 
     static String text(String file, int channel, FrequencyResponse r) {
         StringBuilder sb = new StringBuilder();
-        sb.append(file).append(", channel ").append(channel).append(r.fromReference() ? " over the reference" : " against the played sweep").append('\n');
-        sb.append(String.format(Locale.ROOT, "  swept           %.1f Hz - %.1f kHz in %.2f s%n", r.sweepLowHz(), r.sweepHighHz() / 1000, r.sweepSeconds()));
+        boolean stepped = Double.isNaN(r.sweepSeconds());
+        sb.append(file).append(", channel ").append(channel)
+                .append(r.fromReference() ? " over the reference" : stepped ? " (output level)" : " against the played sweep").append('\n');
+        if (stepped) {
+            sb.append(String.format(Locale.ROOT, "  stepped tones   %d from %.1f Hz to %.1f kHz%n", r.points().size(), r.sweepLowHz(), r.sweepHighHz() / 1000));
+            for (int i = 0; i < r.points().size(); i++) {
+                FrequencyResponse.Point p = r.points().get(i);
+                sb.append(String.format(Locale.ROOT, "    %10.2f Hz  %9.3f dB  %+8.3f dB re 1 kHz  %s  THD %.4f %%%n", p.frequencyHz(), p.gainDb(), p.gainRe1kHzDb(),
+                        Double.isNaN(p.phaseDeg()) ? "         " : String.format(Locale.ROOT, "%+7.2f°", p.phaseDeg()),
+                        100 * r.thdVsFrequency().get(i).thdRatio()));
+            }
+        } else {
+            sb.append(String.format(Locale.ROOT, "  swept           %.1f Hz - %.1f kHz in %.2f s%n", r.sweepLowHz(), r.sweepHighHz() / 1000, r.sweepSeconds()));
+        }
         sb.append(String.format(Locale.ROOT, "  gain at 1 kHz   %.3f dB%n", r.gainAt1kHzDb()));
-        sb.append("  -3 dB points    ").append(r.minus3dbLowHz().isPresent() ? String.format(Locale.ROOT, "%.2f Hz", r.minus3dbLowHz().getAsDouble()) : "below the sweep")
-                .append(", ").append(r.minus3dbHighHz().isPresent() ? String.format(Locale.ROOT, "%.0f Hz", r.minus3dbHighHz().getAsDouble()) : "above the sweep").append('\n');
+        sb.append("  -3 dB points    ").append(r.minus3dbLowHz().isPresent() ? String.format(Locale.ROOT, "%.2f Hz", r.minus3dbLowHz().getAsDouble())
+                : stepped ? "below the lowest tone" : "below the sweep")
+                .append(", ").append(r.minus3dbHighHz().isPresent() ? String.format(Locale.ROOT, "%.0f Hz", r.minus3dbHighHz().getAsDouble())
+                        : stepped ? "above the highest tone" : "above the sweep").append('\n');
         sb.append(String.format(Locale.ROOT, "  deviation       %+.3f / %+.3f dB re 1 kHz over %.0f Hz - %.0f Hz%n", r.deviationMinDb(), r.deviationMaxDb(),
                 r.deviationLowHz(), r.deviationHighHz()));
-        if (!r.thdVsFrequency().isEmpty()) {
+        if (!r.thdVsFrequency().isEmpty() && !stepped) {
             double worst = 0, at = 0;
             for (FrequencyResponse.ThdPoint t : r.thdVsFrequency()) if (t.thdRatio() > worst) { worst = t.thdRatio(); at = t.frequencyHz(); }
             sb.append(String.format(Locale.ROOT, "  THD (H2-H5)     highest %.4f %% at %.0f Hz%n", 100 * worst, at));
