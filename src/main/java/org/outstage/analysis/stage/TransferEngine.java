@@ -538,6 +538,7 @@ final class TransferEngine {
         double[] best = null;
         List<double[]> cands = new ArrayList<>();
         for (double end : new double[] {-lim, lim}) { double[] e = at.apply(end); if (e != null) cands.add(e); }
+        int ends = cands.size();
         for (int i = 0; i + 1 < k; i++) {
             // local maximum of |d| between gx[i] and gx[i+1]: sign(d)·slope goes from + to −
             double s0 = Math.signum(ge[i][0]) * ge[i][1], s1 = Math.signum(ge[i + 1][0]) * ge[i + 1][1];
@@ -554,7 +555,7 @@ final class TransferEngine {
             double[] er = at.apply(0.5 * (a + b));
             cands.add(er != null ? er : eb);
         }
-        if (cands.size() == 2) for (double[] e : ge) cands.add(e); // no interior maximum bracketed: the grid itself
+        if (cands.size() == ends) for (double[] e : ge) cands.add(e); // no interior maximum bracketed: the grid itself
         for (double[] e : cands) if (best == null || Math.abs(e[0]) > Math.abs(best[0])) best = e;
         return new double[] {Math.abs(best[0]), Math.sqrt(best[2])};
     }
