@@ -543,14 +543,14 @@ final class TransferEngine {
             // local maximum of |d| between gx[i] and gx[i+1]: sign(d)·slope goes from + to −
             double s0 = Math.signum(ge[i][0]) * ge[i][1], s1 = Math.signum(ge[i + 1][0]) * ge[i + 1][1];
             if (!(s0 > 0 && s1 <= 0) || Math.signum(ge[i][0]) != Math.signum(ge[i + 1][0])) continue;
-            double a = gx[i], b = gx[i + 1], sa = s0;
+            double a = gx[i], b = gx[i + 1];
             double[] eb = ge[i + 1];
             for (int it = 0; it < 6; it++) {
                 double mid = 0.5 * (a + b);
                 double[] em = at.apply(mid);
                 if (em == null) break;
                 double sm = Math.signum(em[0]) * em[1];
-                if (sm > 0) { a = mid; sa = sm; } else { b = mid; eb = em; }
+                if (sm > 0) a = mid; else { b = mid; eb = em; }
             }
             double[] er = at.apply(0.5 * (a + b));
             cands.add(er != null ? er : eb);
