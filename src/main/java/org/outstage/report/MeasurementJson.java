@@ -139,6 +139,7 @@ public final class MeasurementJson {
         o.put("notch_width", x.notchWidthVolts());
         o.put("notch_width_std_error", x.resolution().notchWidthStdErrorVolts());
         o.put("notch_depth", x.notchDepthVolts());
+        o.put("notch_depth_std_error", x.resolution().notchDepthStdErrorVolts());
         o.put("notch_depth_percent", 100 * x.notchDepthFraction());
         o.put("near_zero_residual_share", x.nearZeroResidualShare());
         o.put("near_zero_time_share", x.nearZeroTimeShare());

@@ -61,8 +61,25 @@ final class AdaptiveSlope {
         double totalVariance() { return noiseVariance + biasAbs * biasAbs; }
     }
 
-    /** A single rung: slope of d, its noise variance, value of d, sample count, bandwidth. */
-    private record Rung(double slope, double var, double value, int n, double h) {}
+    /**
+     * One value estimate of d = y − x at x0 ({@link #valueAt}), the bandwidth chosen on the value.
+     *
+     * @param value          fitted y − x at x0
+     * @param noiseVariance  variance of {@code value} from the sample scatter
+     * @param biasAbs        estimated resolution bias of {@code value} (absolute)
+     * @param bandwidth      half width h of the chosen window (units of x)
+     * @param slope          dy/dx at x0 from the same window
+     */
+    record ValueEstimate(double value, double noiseVariance, double biasAbs, double bandwidth, double slope) {
+        /** Noise variance plus the squared resolution bias. */
+        double totalVariance() { return noiseVariance + biasAbs * biasAbs; }
+    }
+
+    /** A single rung: slope of d, its noise variance, value of d and its noise variance, sample count, bandwidth. */
+    private record Rung(double slope, double var, double value, double valueVar, int n, double h) {
+        double est(boolean onValue) { return onValue ? value : slope; }
+        double estVar(boolean onValue) { return onValue ? valueVar : var; }
+    }
 
     /**
      * Slope dy/dx at {@code x0} using samples with |x − x0| ≤ {@code hMax}, {@code noiseRms} the scatter of single
@@ -70,6 +87,22 @@ final class AdaptiveSlope {
      * {@link #MIN_SAMPLES} samples spread over the four quarters of the window with a well-conditioned design.
      */
     static Optional<Estimate> at(double[] x, double[] y, double x0, double hMax, double noiseRms) {
+        return ladder(x, y, x0, hMax, noiseRms, false).map(c -> new Estimate(1 + c.rung.slope, c.rung.var, c.bias, c.rung.h, c.rung.n, c.rung.value));
+    }
+
+    /**
+     * Value of d = y − x at {@code x0} by the same ladder of local cubic fits, with Lepski's choice and the resolution
+     * bias read on the value instead of the slope (a cubic's value on a symmetric window is exact for curves up to
+     * cubic, so its bias also grows as h⁴); empty under the same conditions as {@link #at}.
+     */
+    static Optional<ValueEstimate> valueAt(double[] x, double[] y, double x0, double hMax, double noiseRms) {
+        return ladder(x, y, x0, hMax, noiseRms, true).map(c -> new ValueEstimate(c.rung.value, c.rung.valueVar, c.bias, c.rung.h, 1 + c.rung.slope));
+    }
+
+    /** The chosen rung and its resolution bias on the estimated quantity. */
+    private record Choice(Rung rung, double bias) {}
+
+    private static Optional<Choice> ladder(double[] x, double[] y, double x0, double hMax, double noiseRms, boolean onValue) {
         // moments per shell: shell s holds hMax·2^(−(s+1)/2) < |t| ≤ hMax·2^(−s/2); u = t/hMax
         double[][] s = new double[RUNGS][2 * P - 1];
         double[][] r = new double[RUNGS][P];
@@ -114,7 +147,7 @@ final class AdaptiveSlope {
         for (int i = 1; i < rungs.size(); i++) {
             boolean ok = true;
             for (int j = 0; j < i && ok; j++)
-                ok = Math.abs(rungs.get(i).slope - rungs.get(j).slope) <= LEPSKI_KAPPA * Math.sqrt(rungs.get(j).var);
+                ok = Math.abs(rungs.get(i).est(onValue) - rungs.get(j).est(onValue)) <= LEPSKI_KAPPA * Math.sqrt(rungs.get(j).estVar(onValue));
             if (!ok) break;
             chosen = i;
         }
@@ -123,12 +156,12 @@ final class AdaptiveSlope {
         double bias;
         if (chosen > 0) {
             Rung f = rungs.get(chosen - 1);
-            bias = Math.abs(c.slope - f.slope) / (1 - Math.pow(f.h / c.h, 4));
+            bias = Math.abs(c.est(onValue) - f.est(onValue)) / (1 - Math.pow(f.h / c.h, 4));
         } else {
             Rung w = rungs.get(1);
-            bias = Math.abs(w.slope - c.slope) / (Math.pow(w.h / c.h, 4) - 1);
+            bias = Math.abs(w.est(onValue) - c.est(onValue)) / (Math.pow(w.h / c.h, 4) - 1);
         }
-        return Optional.of(new Estimate(1 + c.slope, c.var, bias, c.h, c.n, c.value));
+        return Optional.of(new Choice(c, bias));
     }
 
     /**
@@ -185,6 +218,6 @@ final class AdaptiveSlope {
         double s2 = Math.max(rss / (n - P), noiseRms * noiseRms);
         double slope = beta[1] / h;
         double var = s2 * Math.max(m[1][P + 1], 0) / (h * h);
-        return new Rung(slope, var, beta[0], n, h);
+        return new Rung(slope, var, beta[0], s2 * Math.max(m[0][P], 0), n, h);
     }
 }

@@ -38,7 +38,9 @@ package org.outstage.analysis.stage;
  * @param notchWidthVolts         output span around zero where |normalised gain − 1| exceeds the notch tolerance
  *                                (0 when the gain at zero is within it); edges located with the adaptive slope
  *                                (σ in {@link Resolution#notchWidthStdErrorVolts})
- * @param notchDepthVolts         largest |deviation from the best line| for |v| &lt; 50 % of peak
+ * @param notchDepthVolts         largest |deviation from the best line| for |v| &lt; 50 % of peak, read from the raw
+ *                                samples with the adaptive local regression (σ in
+ *                                {@link Resolution#notchDepthStdErrorVolts})
  * @param notchDepthFraction      notchDepthVolts / peak
  * @param nearZeroResidualShare   share of the residual energy in samples with |ideal| &lt; nearZeroFraction·peak
  * @param nearZeroTimeShare       share of time spent there (what a residual spread evenly in time would give)
@@ -72,7 +74,9 @@ public record CrossoverMetrics(double gainAtZero, double gainAtZeroStdError, dou
      * @param notchWidthStdErrorVolts σ of {@code notchWidthVolts}: each edge's gain σ (noise and resolution bias) over
      *                             the rate at which the gain crosses the tolerance there, both edges in quadrature
      *                             (0 when there is no notch)
+     * @param notchDepthStdErrorVolts σ of {@code notchDepthVolts}: the noise of the adaptive local value at the
+     *                             extremum, its resolution bias (h⁴ ladder) and the best line's binning, in quadrature
      */
     public record Resolution(double windowHalfWidthVolts, double noiseStdError, double resolutionBias,
-                             double notchWidthStdErrorVolts) {}
+                             double notchWidthStdErrorVolts, double notchDepthStdErrorVolts) {}
 }

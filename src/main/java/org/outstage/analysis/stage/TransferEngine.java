@@ -133,7 +133,8 @@ final class TransferEngine {
         boolean outerClipped = upPos < 0.75 * peak || upNeg < 0.75 * peak;
         upPos = Math.max(upPos, 0.6 * peak);
         upNeg = Math.max(upNeg, 0.6 * peak);
-        double[] line = lineFit(xs, ys, counts, -Math.min(peak, neg.unaffectedIdealVolts), Math.min(peak, pos.unaffectedIdealVolts));
+        double lineLo = -Math.min(peak, neg.unaffectedIdealVolts), lineHi = Math.min(peak, pos.unaffectedIdealVolts);
+        double[] line = lineFit(xs, ys, counts, lineLo, lineHi);
         Local p9 = resolved(xs, ds, w, h, upPos), p5 = resolved(xs, ds, w, h, 0.5 * peak);
         Local n5 = resolved(xs, ds, w, h, -0.5 * peak), n9 = resolved(xs, ds, w, h, -upNeg);
         double span = (upPos - 0.5 * peak) + (upNeg - 0.5 * peak);
@@ -176,8 +177,8 @@ final class TransferEngine {
         double rSe = Math.sqrt(g0Var / (outer * outer) + r * r * outerVar / (outer * outer));
         double[] notch = notchWidth(x, y, xs, ng, r, outer, s.notchGainTolerance(), hMax, noise);
         double notchWidth = notch[0];
-        double depth = 0;
-        for (int i = 0; i < m; i++) if (Math.abs(xs[i]) < 0.5 * peak) depth = Math.max(depth, Math.abs(dev[i]));
+        double[] notchDepth = notchDepth(x, rising, y, xs, dev, line, lineLo, lineHi, peak, width, hMax, noise);
+        double depth = notchDepth[0];
         // flatness of the outer swing: past the crossover region one device carries the load and its gain rises
         // slowly with current (re = VT/I falls), so g(0.9P) >= g(0.5P); a falling gain means the "outer" swing is
         // still in the crossover region (level too low for a large-signal reference)
@@ -199,7 +200,8 @@ final class TransferEngine {
         CrossoverMetrics crossover = verdict(r, rSe, outerRising ? 1 / a : Double.NaN, rInf, rInfSe, g0, outer, notchWidth, depth, peak,
                 nearZeroResidualShare, nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
                 quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, a0.isEmpty(), s,
-                new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer), notch[1]));
+                new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer), notch[1],
+                        notchDepth[1]));
         return new Result(transfer, clipping, crossover);
     }
 
@@ -470,6 +472,92 @@ final class TransferEngine {
             se += e[1] > 0 ? Math.pow(sg / e[1], 2) : 0;
         }
         return new double[] {right[0] + left[0], Math.sqrt(se)};
+    }
+
+    /**
+     * Notch depth: the largest |deviation from the best line| (y − (a·x + b), {@code line} = {a, b}) for |x| ≤ P/2, read
+     * with the adaptive local regression of the raw samples ({@link AdaptiveSlope#valueAt}) rather than from the bin
+     * means, which miss a narrow extremum by up to half a bin and the range's end by up to a bin. The binned deviation
+     * finds the bin j of the largest |deviation|; on a grid of 9 points over ±1.5 bins around it (clamped to ±P/2),
+     * each local maximum of |deviation| is refined by bisection of the adaptive slope against a (the deviation is
+     * stationary there, so the location's error enters at second order); the ends ±P/2 are candidates too, and the
+     * largest |value| wins. Returns {depth, σ}: σ² = the chosen value's noise variance + its resolution bias² (h⁴
+     * ladder, as for the gain at zero) + the squared difference at that point between the binned best line and the
+     * line of slope 1 through the ideal output over a whole number of cycles (which it approximates: the line's own
+     * resolution, binning and the harmonics' leakage into its intercept over a fractional cycle); when
+     * no window holds enough samples, the binned reading is returned with the change to the neighbouring bins as σ.
+     */
+    private static double[] notchDepth(double[] x, boolean[] rising, double[] y, double[] xs, double[] dev, double[] line, double lLo,
+                                       double lHi, double peak, double width, double hMax, double noise) {
+        int m = xs.length, j = -1;
+        double lim = 0.5 * peak, binned = 0;
+        for (int i = 0; i < m; i++) if (Math.abs(xs[i]) < lim && Math.abs(dev[i]) > binned) { binned = Math.abs(dev[i]); j = i; }
+        if (j < 0) return new double[] {0, 0};
+        double lo = Math.max(-lim, xs[j] - 1.5 * width), hi = Math.min(lim, xs[j] + 1.5 * width);
+        // the line of slope 1 through the ideal output over a whole number of cycles (from the first turn of the ideal to
+        // the last turn in the same direction), over the same range: the least squares over a fractional number of
+        // cycles takes the harmonics' leakage into its intercept (about 1e-5 of peak for 498.5 cycles of a class-B curve)
+        int i0 = 1, i1 = -1;
+        while (i0 < x.length && rising[i0] == rising[i0 - 1]) i0++;
+        for (int i = x.length - 1; i > i0; i--) if (rising[i] != rising[i - 1] && rising[i] == rising[i0]) { i1 = i; break; }
+        double bWhole = line[1], sum = 0;
+        long cntWhole = 0;
+        for (int i = i0; i < i1; i++) if (x[i] >= lLo && x[i] <= lHi) { sum += y[i] - x[i]; cntWhole++; }
+        if (cntWhole > 0) bWhole = sum / cntWhole;
+        final double bW = bWhole;
+        // the raw samples that can enter a window
+        int c = 0;
+        for (double v : x) if ((v >= lo - hMax && v <= hi + hMax) || Math.abs(Math.abs(v) - lim) <= hMax) c++;
+        double[] cx = new double[c], cy = new double[c];
+        c = 0;
+        for (int i = 0; i < x.length; i++) {
+            double v = x[i];
+            if ((v >= lo - hMax && v <= hi + hMax) || Math.abs(Math.abs(v) - lim) <= hMax) { cx[c] = v; cy[c++] = y[i]; }
+        }
+        java.util.function.DoubleFunction<double[]> at = v -> {
+            Optional<AdaptiveSlope.ValueEstimate> e = AdaptiveSlope.valueAt(cx, cy, v, hMax, noise);
+            if (e.isEmpty()) return null;
+            double d = e.get().value() + v - (line[0] * v + line[1]);
+            // the line's own uncertainty: against the line of slope 1 through the ideal output over whole cycles (y = x +
+            // DC, what the binned least squares approximates; they differ by the binning and the fractional cycle)
+            double lineRes = (line[0] - 1) * v + line[1] - bW;
+            return new double[] {d, e.get().slope() - line[0], e.get().totalVariance() + lineRes * lineRes};
+        };
+        final int k = 9;
+        double[] gx = new double[k];
+        double[][] ge = new double[k][];
+        for (int i = 0; i < k; i++) {
+            gx[i] = lo + (hi - lo) * i / (k - 1);
+            ge[i] = at.apply(gx[i]);
+            if (ge[i] == null) {
+                double se = 0;
+                for (int q = Math.max(0, j - 1); q <= Math.min(m - 1, j + 1); q++) se = Math.max(se, Math.abs(Math.abs(dev[q]) - binned));
+                return new double[] {binned, se};
+            }
+        }
+        double[] best = null;
+        List<double[]> cands = new ArrayList<>();
+        for (double end : new double[] {-lim, lim}) { double[] e = at.apply(end); if (e != null) cands.add(e); }
+        int ends = cands.size();
+        for (int i = 0; i + 1 < k; i++) {
+            // local maximum of |d| between gx[i] and gx[i+1]: sign(d)·slope goes from + to −
+            double s0 = Math.signum(ge[i][0]) * ge[i][1], s1 = Math.signum(ge[i + 1][0]) * ge[i + 1][1];
+            if (!(s0 > 0 && s1 <= 0) || Math.signum(ge[i][0]) != Math.signum(ge[i + 1][0])) continue;
+            double a = gx[i], b = gx[i + 1];
+            double[] eb = ge[i + 1];
+            for (int it = 0; it < 6; it++) {
+                double mid = 0.5 * (a + b);
+                double[] em = at.apply(mid);
+                if (em == null) break;
+                double sm = Math.signum(em[0]) * em[1];
+                if (sm > 0) a = mid; else { b = mid; eb = em; }
+            }
+            double[] er = at.apply(0.5 * (a + b));
+            cands.add(er != null ? er : eb);
+        }
+        if (cands.size() == ends) for (double[] e : ge) cands.add(e); // no interior maximum bracketed: the grid itself
+        for (double[] e : cands) if (best == null || Math.abs(e[0]) > Math.abs(best[0])) best = e;
+        return new double[] {Math.abs(best[0]), Math.sqrt(best[2])};
     }
 
     /** Index of the first bin outwards from zero (direction sgn) whose binned normalised gain is within tol. */

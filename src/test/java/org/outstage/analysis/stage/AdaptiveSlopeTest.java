@@ -43,6 +43,31 @@ class AdaptiveSlopeTest {
         assertTrue(Math.abs(e.slope() - 0.5) < 0.02, "issue 10 target 0.02");
     }
 
+    /** The value of d = y − x: a cubic is fitted exactly (calculus: d(0.03) = 0.3·0.03² − 0.2·0.03³ − 0.1·0.03). */
+    @Test
+    void valueAt_cubicLaw_valueExact_widestWindowKept() {
+        double[][] s = samples(200_000, v -> 0.9 * v + 0.3 * v * v - 0.2 * v * v * v, 0, 3);
+        AdaptiveSlope.ValueEstimate e = AdaptiveSlope.valueAt(s[0], s[1], 0.03, 0.1, 1e-9).orElseThrow();
+        double x0 = 0.03;
+        assertEquals(0.3 * x0 * x0 - 0.2 * x0 * x0 * x0 - 0.1 * x0, e.value(), 1e-12);
+        assertEquals(0.1, e.bandwidth(), 1e-12, "all windows agree: the widest is kept");
+    }
+
+    /**
+     * Narrow dip y = x − 0.01·exp(−x²/2w²), w = 0.005: d(0) = −0.01 exactly. A cubic over a fixed window of ±0.1 cannot
+     * follow a dip 20 times narrower; the window chosen on the value shrinks to the dip and its σ covers the error.
+     */
+    @Test
+    void valueAt_narrowDip_windowShrinks_valueWithinThreeSigma() {
+        double w = 0.005;
+        double[][] s = samples(400_000, v -> v - 0.01 * Math.exp(-v * v / (2 * w * w)), 1e-6, 4);
+        AdaptiveSlope.ValueEstimate e = AdaptiveSlope.valueAt(s[0], s[1], 0, 0.1, 1e-6).orElseThrow();
+        double se = Math.sqrt(e.totalVariance());
+        assertEquals(-0.01, e.value(), Math.max(3 * se, 1e-9), "σ " + se + " window " + e.bandwidth());
+        assertTrue(e.bandwidth() < 5 * w, "window " + e.bandwidth() + " against a dip of width " + w);
+        assertTrue(Math.abs(e.value() + 0.01) < 1e-4, "error " + (e.value() + 0.01));
+    }
+
     /** Too few distinct samples near the point: no estimate rather than a guess. */
     @Test
     void tooFewSamples_empty() {

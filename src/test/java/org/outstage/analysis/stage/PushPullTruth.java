@@ -107,4 +107,41 @@ final class PushPullTruth {
         }
         return 2 * lo * fundamental(p, a) / a;
     }
+
+    /**
+     * Truth of notch_depth for a drive of peak a (docs/diagnosis.md §3 and §5): the largest |deviation from the best
+     * line| for |ideal| ≤ 50 % of peak. The output over one period is out(a·cos θ) (each point solved by Newton's method
+     * to 1e-15 relative, {@link StageFixtures.Pair#out}); the ideal is the fundamental b1·cos θ. The best line is the
+     * count-weighted least squares of output on ideal over the (unclipped) swing: samples are uniform in θ, so it is
+     * computed here on 4096 equally spaced θ (trapezoid rule, spectrally exact for a smooth periodic law), not assumed.
+     * The extremum is bracketed by a scan of 2000 steps over |u| ≤ a/2 and refined by golden-section search to 1e-12 of
+     * a; both signs of u are searched. Returns {depth, slope of the line, intercept of the line}.
+     */
+    static double[] notchDepth(StageFixtures.Pair p, double a) {
+        int k = 4096;
+        double b1 = fundamental(p, a), sw = 0, sx = 0, sy = 0, sxx = 0, sxy = 0;
+        for (int i = 0; i < k; i++) {
+            double th = 2 * Math.PI * i / k, xi = b1 * Math.cos(th), yi = p.out(a * Math.cos(th));
+            sw++; sx += xi; sy += yi; sxx += xi * xi; sxy += xi * yi;
+        }
+        double mx = sx / sw, slope = (sxy / sw - mx * sy / sw) / (sxx / sw - mx * mx), icpt = sy / sw - slope * mx;
+        // deviation as a function of the drive u (ideal x = u·b1/a)
+        java.util.function.DoubleUnaryOperator dev = u -> Math.abs(p.out(u) - (slope * u * b1 / a + icpt));
+        double best = 0;
+        for (int sgn : new int[] {-1, 1}) {
+            int steps = 2000;
+            double h = 0.5 * a / steps, bestU = 0, bestD = -1;
+            for (int i = 0; i <= steps; i++) {
+                double d = dev.applyAsDouble(sgn * i * h);
+                if (d > bestD) { bestD = d; bestU = i * h; }
+            }
+            double lo = Math.max(0, bestU - h), hi = Math.min(0.5 * a, bestU + h), g = (Math.sqrt(5) - 1) / 2;
+            while (hi - lo > 1e-12 * a) {
+                double c = hi - g * (hi - lo), d = lo + g * (hi - lo);
+                if (dev.applyAsDouble(sgn * c) >= dev.applyAsDouble(sgn * d)) hi = d; else lo = c;
+            }
+            best = Math.max(best, Math.max(bestD, dev.applyAsDouble(sgn * 0.5 * (lo + hi))));
+        }
+        return new double[] {best, slope, icpt};
+    }
 }
