@@ -10,11 +10,11 @@ import org.junit.jupiter.api.Test;
  * Output impedance against frequency from two sweeps (docs/methods.md §7f): a source Z_s = R0 + jωL0 into
  * R_L = 8 Ω, the divider applied here in the frequency domain so the oracle does not share the code under test.
  */
-class ImpedanceVsFrequencyTest {
+public class ImpedanceVsFrequencyTest {
     static final double FS = 96000, F1 = 20, F2 = 20000, T = 4, RL = 8, R0 = 0.05, L0 = 5e-6;
 
     /** Farina's exponential sweep x(t) = sin(2π·f1·L·(e^{t/L} − 1)), L = T/ln(f2/f1), 10 ms raised-cosine fades. */
-    static double[] sweep(double fs, double f1, double f2, double seconds, double amplitude) {
+    public static double[] sweep(double fs, double f1, double f2, double seconds, double amplitude) {
         int n = (int) Math.round(seconds * fs);
         double l = seconds / Math.log(f2 / f1);
         int fade = (int) (0.01 * fs);
@@ -30,7 +30,7 @@ class ImpedanceVsFrequencyTest {
     }
 
     /** y = x through R_L/(R_L + R0 + jωL0): FFT of the zero-padded signal (power of two), multiply, inverse. */
-    static double[] divider(double[] x, double fs, double rl, double r0, double l0) {
+    public static double[] divider(double[] x, double fs, double rl, double r0, double l0) {
         int m = Integer.highestOneBit(x.length) << 2;
         double[] z = new double[2 * m];
         for (int i = 0; i < x.length; i++) z[2 * i] = x[i];

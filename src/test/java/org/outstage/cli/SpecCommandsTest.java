@@ -148,6 +148,35 @@ class SpecCommandsTest {
         assertEquals(2, bad.exit());
     }
 
+    @Test
+    @SuppressWarnings("unchecked")
+    void impedanceJson_twoSweeps_givesPointsAgainstFrequency() throws Exception {
+        double fs = 96000, r0 = 0.05, l0 = 5e-6;
+        double[] gen = org.outstage.analysis.ImpedanceVsFrequencyTest.sweep(fs, 20, 20000, 4, 0.5);
+        double[] open = new double[gen.length];
+        for (int i = 0; i < gen.length; i++) open[i] = 0.8 * gen[i];
+        double[] loadedOut = org.outstage.analysis.ImpedanceVsFrequencyTest.divider(open, fs, 8, r0, l0);
+        Path o = dir.resolve("open-sweep.wav"), l = dir.resolve("loaded-sweep.wav");
+        WavWriter.write(o, (int) fs, WavWriter.Encoding.FLOAT_64, false, gen, open);
+        WavWriter.write(l, (int) fs, WavWriter.Encoding.FLOAT_64, false, gen, loadedOut);
+        CliRun r = CliRun.of("impedance", "--load", "8", "--reference", "1", "--channel", "2", "--json", l.toString(), o.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> m = (Map<String, Object>) JsonText.parse(r.out());
+        List<Object> points = (List<Object>) m.get("points");
+        assertTrue(points != null && points.size() > 50 && points.size() <= 200, "points: " + points);
+        double f = ((Number) m.get("frequency_hz")).doubleValue();
+        assertEquals(1000, f, 30);
+        double zs = Math.hypot(r0, 2 * Math.PI * f * l0);      // |Z_s| of the divider applied above
+        assertEquals(zs, ((Number) m.get("output_impedance_ohms")).doubleValue(), 0.02 * zs);
+        assertEquals(8 / zs, ((Number) m.get("damping_factor")).doubleValue(), 0.02 * 8 / zs);
+        assertTrue(m.containsKey("open_rms") && m.get("open_rms") == null, "no single-tone level for sweeps");
+        Map<String, Object> p0 = (Map<String, Object>) points.get(0);
+        assertTrue(p0.containsKey("output_impedance_phase_deg") && p0.containsKey("damping_factor"));
+        CliRun text = CliRun.of("impedance", "--load", "8", "--reference", "1", l.toString(), o.toString());
+        assertEquals(0, text.exit(), text.err());
+        assertTrue(text.out().contains("1000.0") || text.out().contains("against frequency"), text.out());
+    }
+
     /**
      * One rule for a sweep (SweepResponse.sweepCandidate, shared with the workbench): the sample sweep, whose bench.txt
      * names the generator channel, is read as a sweep by verify with no stated stimulus, and its noise figures (the
