@@ -148,6 +148,53 @@ class SpecCommandsTest {
         assertEquals(2, bad.exit());
     }
 
+    /** x through k·jωτ/(1 + jωτ) (first-order high-pass, capacitive coupling), by FFT of the zero-padded signal. */
+    static double[] highPass(double[] x, double fs, double k, double cornerHz) {
+        int m = Integer.highestOneBit(x.length) << 2;
+        double[] z = new double[2 * m];
+        for (int i = 0; i < x.length; i++) z[2 * i] = x[i];
+        org.jtransforms.fft.DoubleFFT_1D fft = new org.jtransforms.fft.DoubleFFT_1D(m);
+        fft.complexForward(z);
+        for (int i = 0; i < m; i++) {
+            double wt = (i <= m / 2 ? i : i - m) * fs / m / cornerHz;   // ωτ, signed
+            double den = 1 + wt * wt, hr = k * wt * wt / den, hi = k * wt / den;   // k·jωτ(1 − jωτ)/(1 + (ωτ)²)
+            double a = z[2 * i], b = z[2 * i + 1];
+            z[2 * i] = a * hr - b * hi;
+            z[2 * i + 1] = a * hi + b * hr;
+        }
+        fft.complexInverse(z, true);
+        double[] y = new double[x.length];
+        for (int i = 0; i < y.length; i++) y[i] = z[2 * i];
+        return y;
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void analyzeJson_sweptCrosstalk_matchesFirstOrderHighPass() throws Exception {
+        double fs = 96000, k = 0.01, fc = 2000;
+        double[] drv = org.outstage.analysis.ImpedanceVsFrequencyTest.sweep(fs, 20, 20000, 4, 0.5);
+        double[] und = highPass(drv, fs, k, fc);
+        Path wav = dir.resolve("xtalk-sweep.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, drv, und);
+        CliRun r = CliRun.of("analyze", "--json", "--driven", "1", "--channel", "2", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> x = (Map<String, Object>) firstCapture(r.out()).get("crosstalk");
+        List<Object> points = (List<Object>) x.get("points");
+        assertTrue(points != null && points.size() > 50 && points.size() <= 200, "points: " + points);
+        double worst = 0;
+        for (Object o : points) {
+            Map<String, Object> p = (Map<String, Object>) o;
+            double f = ((Number) p.get("frequency_hz")).doubleValue();
+            if (f < 50 || f > 15000) continue;
+            double wt = f / fc, want = 20 * Math.log10(k * wt / Math.sqrt(1 + wt * wt));   // |k·jωτ/(1 + jωτ)|
+            worst = Math.max(worst, Math.abs(((Number) p.get("db")).doubleValue() - want));
+        }
+        System.out.printf("analyzeJson_sweptCrosstalk: worst error %.4f dB 50 Hz-15 kHz%n", worst);
+        assertTrue(worst < 0.1, "worst crosstalk error " + worst + " dB");
+        double f = ((Number) x.get("frequency_hz")).doubleValue(), wt = f / fc;
+        assertEquals(20 * Math.log10(k * wt / Math.sqrt(1 + wt * wt)), ((Number) x.get("db")).doubleValue(), 0.1);
+    }
+
     @Test
     @SuppressWarnings("unchecked")
     void impedanceJson_twoSweeps_givesPointsAgainstFrequency() throws Exception {
