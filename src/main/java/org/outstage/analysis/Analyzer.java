@@ -118,6 +118,16 @@ public final class Analyzer {
         if (wantCross) {
             Optional<SpecLines> d = SpecLines.of(capture, driven);
             if (d.isPresent()) cross = SpecLines.crosstalk(lines.get(), d.get(), driven + 1, settings.fundamentalHz());
+            // a sweep on the driven channel (stated, or no tone here): crosstalk against frequency; SweepResponse
+            // refuses a stimulus that is not a sweep (less than two octaves), and the tone figure then stands
+            if (st == StimulusKind.SWEEP || (st == StimulusKind.AUTO && !m.measured())) {
+                try {
+                    cross = Optional.of(Crosstalk.fromSweep(driven + 1, SweepResponse.measure(capture.readChannel(channelIndex),
+                            capture.readChannel(driven), capture.sampleRateHz(), true, Band.AUDIO_20_20K)));
+                } catch (IllegalArgumentException e) {
+                    // not a sweep
+                }
+            }
         }
         return m.withSpecFigures(imd, noise, cross);
     }

@@ -61,14 +61,25 @@ public final class MeasurementJson {
         c.put("transfer", transfer(m.stage()));
         c.put("imd", m.imd().map(MeasurementJson::imd).orElse(null));
         c.put("noise", m.noise().map(n -> noise(n, m.unit())).orElse(null));
-        c.put("crosstalk", m.crosstalk().map(x -> JsonText.obj("from_channel", x.fromChannel(), "frequency_hz", x.frequencyHz(), "db", x.db(),
-                "ratio", x.ratio(), "resolved", x.resolved())).orElse(null));
+        c.put("crosstalk", m.crosstalk().map(MeasurementJson::crosstalk).orElse(null));
         c.put("warnings", List.copyOf(warnings));
         // added (issue 11): figures beyond any audio bench, why power is missing, and whether the record is long
         // enough for the crossover figures (analysis.Plausibility; when false, the crossover figures are not to be read)
         c.put("cautions", org.outstage.analysis.Plausibility.cautions(m, m.settings().loadOhms()));
         c.put("crossover_given", org.outstage.analysis.Plausibility.crossoverGiven(m));
         return c;
+    }
+
+    /** The {@code crosstalk} object (docs/cli.md); {@code points} only when the driven channel carried a sweep. */
+    static Map<String, Object> crosstalk(org.outstage.analysis.Crosstalk x) {
+        Map<String, Object> o = JsonText.obj("from_channel", x.fromChannel(), "frequency_hz", x.frequencyHz(), "db", x.db(),
+                "ratio", x.ratio(), "resolved", x.resolved());
+        if (!x.points().isEmpty()) {
+            List<Object> ps = new ArrayList<>();
+            for (var p : x.points()) ps.add(JsonText.obj("frequency_hz", p.frequencyHz(), "db", p.db()));
+            o.put("points", ps);
+        }
+        return o;
     }
 
     /** The {@code imd} object (docs/cli.md). */

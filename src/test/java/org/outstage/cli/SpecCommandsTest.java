@@ -148,6 +148,89 @@ class SpecCommandsTest {
         assertEquals(2, bad.exit());
     }
 
+    /** x through k·jωτ/(1 + jωτ) (first-order high-pass, capacitive coupling), by FFT of the zero-padded signal. */
+    static double[] highPass(double[] x, double fs, double k, double cornerHz) {
+        int m = Integer.highestOneBit(x.length) << 2;
+        double[] z = new double[2 * m];
+        for (int i = 0; i < x.length; i++) z[2 * i] = x[i];
+        org.jtransforms.fft.DoubleFFT_1D fft = new org.jtransforms.fft.DoubleFFT_1D(m);
+        fft.complexForward(z);
+        for (int i = 0; i < m; i++) {
+            double wt = (i <= m / 2 ? i : i - m) * fs / m / cornerHz;   // ωτ, signed
+            double den = 1 + wt * wt, hr = k * wt * wt / den, hi = k * wt / den;   // k·jωτ(1 − jωτ)/(1 + (ωτ)²)
+            double a = z[2 * i], b = z[2 * i + 1];
+            z[2 * i] = a * hr - b * hi;
+            z[2 * i + 1] = a * hi + b * hr;
+        }
+        fft.complexInverse(z, true);
+        double[] y = new double[x.length];
+        for (int i = 0; i < y.length; i++) y[i] = z[2 * i];
+        return y;
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void analyzeJson_sweptCrosstalk_matchesFirstOrderHighPass() throws Exception {
+        double fs = 96000, k = 0.01, fc = 2000;
+        double[] drv = org.outstage.analysis.ImpedanceVsFrequencyTest.sweep(fs, 20, 20000, 4, 0.5);
+        double[] und = highPass(drv, fs, k, fc);
+        Path wav = dir.resolve("xtalk-sweep.wav");
+        WavWriter.write(wav, (int) fs, WavWriter.Encoding.FLOAT_64, false, drv, und);
+        CliRun r = CliRun.of("analyze", "--json", "--driven", "1", "--channel", "2", wav.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> x = (Map<String, Object>) firstCapture(r.out()).get("crosstalk");
+        List<Object> points = (List<Object>) x.get("points");
+        assertTrue(points != null && points.size() > 50 && points.size() <= 200, "points: " + points);
+        double worst = 0;
+        for (Object o : points) {
+            Map<String, Object> p = (Map<String, Object>) o;
+            double f = ((Number) p.get("frequency_hz")).doubleValue();
+            if (f < 50 || f > 15000) continue;
+            double wt = f / fc, want = 20 * Math.log10(k * wt / Math.sqrt(1 + wt * wt));   // |k·jωτ/(1 + jωτ)|
+            worst = Math.max(worst, Math.abs(((Number) p.get("db")).doubleValue() - want));
+        }
+        System.out.printf("analyzeJson_sweptCrosstalk: worst error %.4f dB 50 Hz-15 kHz%n", worst);
+        assertTrue(worst < 0.1, "worst crosstalk error " + worst + " dB");
+        double f = ((Number) x.get("frequency_hz")).doubleValue(), wt = f / fc;
+        assertEquals(20 * Math.log10(k * wt / Math.sqrt(1 + wt * wt)), ((Number) x.get("db")).doubleValue(), 0.1);
+    }
+
+    @Test
+    @SuppressWarnings("unchecked")
+    void impedanceJson_twoSweeps_givesPointsAgainstFrequency() throws Exception {
+        double fs = 96000, r0 = 0.05, l0 = 5e-6;
+        double[] gen = org.outstage.analysis.ImpedanceVsFrequencyTest.sweep(fs, 20, 20000, 4, 0.5);
+        double[] open = new double[gen.length];
+        for (int i = 0; i < gen.length; i++) open[i] = 0.8 * gen[i];
+        double[] loadedOut = org.outstage.analysis.ImpedanceVsFrequencyTest.divider(open, fs, 8, r0, l0);
+        Path o = dir.resolve("open-sweep.wav"), l = dir.resolve("loaded-sweep.wav");
+        WavWriter.write(o, (int) fs, WavWriter.Encoding.FLOAT_64, false, gen, open);
+        WavWriter.write(l, (int) fs, WavWriter.Encoding.FLOAT_64, false, gen, loadedOut);
+        CliRun r = CliRun.of("impedance", "--load", "8", "--reference", "1", "--channel", "2", "--json", l.toString(), o.toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> m = (Map<String, Object>) JsonText.parse(r.out());
+        List<Object> points = (List<Object>) m.get("points");
+        assertTrue(points != null && points.size() > 50 && points.size() <= 200, "points: " + points);
+        double f = ((Number) m.get("frequency_hz")).doubleValue();
+        assertEquals(1000, f, 30);
+        double zs = Math.hypot(r0, 2 * Math.PI * f * l0);      // |Z_s| of the divider applied above
+        assertEquals(zs, ((Number) m.get("output_impedance_ohms")).doubleValue(), 0.02 * zs);
+        assertEquals(8 / zs, ((Number) m.get("damping_factor")).doubleValue(), 0.02 * 8 / zs);
+        assertTrue(m.containsKey("open_rms") && m.get("open_rms") == null, "no single-tone level for sweeps");
+        Map<String, Object> p0 = (Map<String, Object>) points.get(0);
+        assertTrue(p0.containsKey("output_impedance_phase_deg") && p0.containsKey("damping_factor"));
+        CliRun text = CliRun.of("impedance", "--load", "8", "--reference", "1", l.toString(), o.toString());
+        assertEquals(0, text.exit(), text.err());
+        boolean row1k = false;   // the third-octave table has a row near 1 kHz with |Z_s| there
+        for (String line : text.out().split("\\R")) {
+            String[] w = line.trim().split("\\s+");
+            if (w.length != 4 || !w[0].matches("[0-9.]+")) continue;
+            double rf = Double.parseDouble(w[0]), rz = Double.parseDouble(w[1]);
+            if (Math.abs(rf - 1000) < 30) row1k = Math.abs(rz / Math.hypot(r0, 2 * Math.PI * rf * l0) - 1) < 0.02;
+        }
+        assertTrue(row1k, text.out());
+    }
+
     /**
      * One rule for a sweep (SweepResponse.sweepCandidate, shared with the workbench): the sample sweep, whose bench.txt
      * names the generator channel, is read as a sweep by verify with no stated stimulus, and its noise figures (the
