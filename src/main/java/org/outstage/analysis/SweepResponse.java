@@ -36,22 +36,23 @@ public final class SweepResponse {
     static final int MAX_ORDER = 5;
 
     /**
+     * The one rule (verify, impedance and the workbench) for taking a capture with a generator channel for a sweep: the
+     * stimulus is stated as a sweep, or, with no stated stimulus, the analysis found no single tone. The two-tone and
+     * noise figures the analysis may then also read do not count (a sweep's moving spectrum can pass for two tones, and
+     * a capture whose generator channel carries a signal is not a noise capture): whether it is a sweep is
+     * {@link #measure}'s to say, and it refuses what is not one (less than two octaves swept).
+     */
+    public static boolean sweepCandidate(Measurement m, StimulusKind stated) {
+        return stated == StimulusKind.SWEEP || (stated == StimulusKind.AUTO && !m.measured());
+    }
+
+    /**
      * Measures the response of {@code output} to {@code stimulus} (same sample rate, same length or not).
      *
      * @param fromReference whether the stimulus is a captured reference (reported in the result)
      * @param deviationBand band over which the deviation is reported (e.g. 20 Hz–20 kHz)
      * @throws IllegalArgumentException when the stimulus carries no sweep
      */
-    /**
-     * The one rule (verify and the workbench) for taking a capture with a generator channel for a sweep: the stimulus
-     * is stated as a sweep, or, with no stated stimulus, the analysis found neither a single tone nor two tones. The
-     * noise figures the analysis then also reads do not count: a capture whose generator channel carries a signal is
-     * not a noise capture. Whether it is a sweep is then {@link #measure}'s to say (it refuses less than two octaves).
-     */
-    public static boolean sweepCandidate(Measurement m, StimulusKind stated) {
-        return stated == StimulusKind.SWEEP || (stated == StimulusKind.AUTO && !m.measured() && m.imd().isEmpty());
-    }
-
     public static FrequencyResponse measure(double[] output, double[] stimulus, double sampleRateHz, boolean fromReference, Band deviationBand) {
         return measure(output, stimulus, sampleRateHz, fromReference, deviationBand, false);
     }

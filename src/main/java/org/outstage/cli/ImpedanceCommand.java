@@ -52,7 +52,7 @@ public final class ImpedanceCommand implements Callable<Integer> {
         Measurement mo = first(co, settings, ch, genO, open);
         PrintWriter out = spec.commandLine().getOut();
         var stimulus = options.specConditions().stimulus();
-        if (genL.isPresent() && genO.isPresent() && sweepLike(ml, stimulus) && sweepLike(mo, stimulus)) {
+        if (genL.isPresent() && genO.isPresent() && SweepResponse.sweepCandidate(ml, stimulus) && SweepResponse.sweepCandidate(mo, stimulus)) {
             sweeps(out, cl, co, genL.getAsInt(), genO.getAsInt(), ml);
             out.flush();
             return OutstageCommand.EXIT_OK;
@@ -113,15 +113,6 @@ public final class ImpedanceCommand implements Callable<Integer> {
             out.printf(Locale.ROOT, "%10.1f  %12.4g  %9.1f  %10.4g%n", p.frequencyHz(), p.zOutOhms(), p.zOutPhaseDeg(), p.dampingFactor());
         }
         out.printf(Locale.ROOT, "at %.1f Hz: output impedance %.4g ohm, damping factor %.4g%n", k.frequencyHz(), k.zOutOhms(), k.dampingFactor());
-    }
-
-    /**
-     * {@link SweepResponse#sweepCandidate}, or, with no stated stimulus, no single tone found: the analysis can take a
-     * sweep's first seconds for a two-tone (modulation) capture, and a capture that is not a sweep is refused by
-     * {@link SweepResponse#measure} anyway (it needs two octaves).
-     */
-    private static boolean sweepLike(Measurement m, org.outstage.analysis.StimulusKind stated) {
-        return SweepResponse.sweepCandidate(m, stated) || (stated == org.outstage.analysis.StimulusKind.AUTO && !m.measured());
     }
 
     /** The first channel that is not the generator (1 without one). */

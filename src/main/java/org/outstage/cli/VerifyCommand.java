@@ -207,9 +207,11 @@ public final class VerifyCommand implements Callable<Integer> {
                         r = r.withResponse(Optional.of(org.outstage.analysis.SweepResponse.measure(fr.capture().readChannel(m.channel() - 1),
                                 fr.capture().readChannel(fr.generatorChannel().getAsInt() - 1), fr.capture().sampleRateHz(), true,
                                 org.outstage.analysis.Band.AUDIO_20_20K)));
-                        r = r.withNoise(Optional.empty()); // a sweep, not a noise capture (SweepResponse.sweepCandidate)
+                        // a sweep, not a noise or two-tone capture (SweepResponse.sweepCandidate)
+                        r = r.withNoise(Optional.empty()).withImd(Optional.empty());
                     } catch (IllegalArgumentException e) {
-                        spec.commandLine().getErr().println("outstage: warning: " + c + ": no response: " + e.getMessage());
+                        if (conditions.stimulus() == org.outstage.analysis.StimulusKind.SWEEP || m.imd().isEmpty())
+                            spec.commandLine().getErr().println("outstage: warning: " + c + ": no response: " + e.getMessage());
                     }
                 }
                 if (open.isPresent() && m.measured() && m.settings().loadOhms().isPresent() && open.get().channel() == m.channel()

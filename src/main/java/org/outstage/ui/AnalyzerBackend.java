@@ -75,7 +75,7 @@ final class AnalyzerBackend implements Backend {
                     response = Optional.of(SweepResponse.measure(capture.readChannel(channel), capture.readChannel(s.referenceChannel().getAsInt()),
                             capture.sampleRateHz(), true, Band.AUDIO_20_20K));
                 } catch (IllegalArgumentException e) {
-                    responseProblem = WorkbenchPane.oneLine(e);
+                    if (m.imd().isEmpty()) responseProblem = WorkbenchPane.oneLine(e);   // a two-tone capture is not a failed sweep
                 }
             }
         } catch (IllegalArgumentException | java.io.UncheckedIOException e) {
