@@ -182,22 +182,33 @@ public final class JavaSoundBackend implements AudioBackend {
         }
     }
 
-    private static final class JsInput implements InputLine {
-        private final TargetDataLine line;
-        private final LineFormat format;
-        private final String name;
-        private byte[] bytes = new byte[0];
+    /** What an open input and an open output line share: the line, its format and its device's name. */
+    private abstract static class JsLine<L extends DataLine> {
+        final L line;
+        final LineFormat format;
+        final String name;
+        byte[] bytes = new byte[0];
 
-        JsInput(TargetDataLine line, LineFormat format, String name) {
+        JsLine(L line, LineFormat format, String name) {
             this.line = line;
             this.format = format;
             this.name = name;
         }
 
-        @Override public LineFormat format() { return format; }
-        @Override public String deviceName() { return name; }
-        @Override public int bufferFrames() { return line.getBufferSize() / format.frameBytes(); }
-        @Override public int available() { return line.available() / format.frameBytes(); }
+        public LineFormat format() { return format; }
+        public String deviceName() { return name; }
+        public int bufferFrames() { return line.getBufferSize() / format.frameBytes(); }
+        public int available() { return line.available() / format.frameBytes(); }
+
+        public void close() {
+            line.stop();
+            line.flush();
+            line.close();
+        }
+    }
+
+    private static final class JsInput extends JsLine<TargetDataLine> implements InputLine {
+        JsInput(TargetDataLine line, LineFormat format, String name) { super(line, format, name); }
 
         @Override
         public int read(double[][] out, int offset, int frames) throws IOException {
@@ -217,32 +228,12 @@ public final class JavaSoundBackend implements AudioBackend {
             PcmCodec.decode(bytes, whole, format, out, offset);
             return whole;
         }
-
-        @Override
-        public void close() {
-            line.stop();
-            line.flush();
-            line.close();
-        }
     }
 
-    private static final class JsOutput implements OutputLine {
-        private final SourceDataLine line;
-        private final LineFormat format;
-        private final String name;
+    private static final class JsOutput extends JsLine<SourceDataLine> implements OutputLine {
         private final Dither dither = new Dither(DITHER_SEED);
-        private byte[] bytes = new byte[0];
 
-        JsOutput(SourceDataLine line, LineFormat format, String name) {
-            this.line = line;
-            this.format = format;
-            this.name = name;
-        }
-
-        @Override public LineFormat format() { return format; }
-        @Override public String deviceName() { return name; }
-        @Override public int bufferFrames() { return line.getBufferSize() / format.frameBytes(); }
-        @Override public int available() { return line.available() / format.frameBytes(); }
+        JsOutput(SourceDataLine line, LineFormat format, String name) { super(line, format, name); }
 
         @Override
         public int write(double[] mono, int offset, int frames) {
@@ -259,12 +250,5 @@ public final class JavaSoundBackend implements AudioBackend {
         }
 
         @Override public void drain() { if (line.isOpen()) line.drain(); }
-
-        @Override
-        public void close() {
-            line.stop();
-            line.flush();
-            line.close();
-        }
     }
 }
