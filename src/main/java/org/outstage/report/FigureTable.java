@@ -40,6 +40,11 @@ public final class FigureTable {
                 x.db(), x.fromChannel(), num(x.frequencyHz()))));
     }
 
+    /** " ± σ unit" when the standard error is a positive number, else nothing. */
+    static String plusMinus(double stdError, String unit) {
+        return stdError > 0 && Double.isFinite(stdError) ? String.format(Locale.ROOT, " ± %.1e %s", stdError, unit) : "";
+    }
+
     /** A block of lines for one analysed channel. */
     public static String text(String file, Measurement m) {
         StringBuilder sb = new StringBuilder();
@@ -90,8 +95,9 @@ public final class FigureTable {
             } else {
                 sb.append(String.format(Locale.ROOT, "  crossover     gain at zero %.4f (standard error %s): %s (confidence %.2f)%n", x.gainAtZero(),
                         String.format(Locale.ROOT, "%.1e", x.gainAtZeroStdError()), x.verdict().label(), x.confidence()));
-                sb.append(String.format(Locale.ROOT, "                notch width %s %s, depth %s %s (%.3f %% of peak)%n", sig(x.notchWidthVolts()), u,
-                        sig(x.notchDepthVolts()), u, 100 * x.notchDepthFraction()));
+                sb.append(String.format(Locale.ROOT, "                notch width %s %s%s, depth %s %s%s (%.3f %% of peak)%n", sig(x.notchWidthVolts()), u,
+                        plusMinus(x.resolution().notchWidthStdErrorVolts(), u), sig(x.notchDepthVolts()), u,
+                        plusMinus(x.resolution().notchDepthStdErrorVolts(), u), 100 * x.notchDepthFraction()));
                 sb.append("                ").append(x.explanation()).append(System.lineSeparator());
             }
             if (!c.detected()) sb.append("  clipping      none detected").append(System.lineSeparator());
