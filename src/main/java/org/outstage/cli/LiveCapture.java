@@ -33,7 +33,9 @@ final class LiveCapture {
         } catch (IOException e) {
             throw new BadInputException("cannot create a temporary file for the live capture: " + e.getMessage());
         }
-        s = s.withBlocks(seconds, seconds).withRecordFile(Optional.of(file)).withFullScaleVolts(OptionalDouble.empty());
+        // SECONDS in whole blocks of at most 1 s, so the record ends on SECONDS exactly and a lead-in adds at most a second
+        double block = seconds / Math.ceil(seconds);
+        s = s.withBlocks(block, block).withRecordFile(Optional.of(file)).withFullScaleVolts(OptionalDouble.empty());
         LiveOptions.cautionsOnce(user, err);
         String[] failure = new String[1];
         LiveSession session = new LiveSession(LiveCommand.backend.get(), s, new LiveListener() {
@@ -49,7 +51,7 @@ final class LiveCapture {
             // (whole blocks) and only its last SECONDS are kept (trim below).
             if (session.stimulusArrivalSeconds().isPresent()) {
                 double lead = session.stimulusArrivalSeconds().get() + LEAD_MARGIN_SECONDS;
-                recordSeconds = Math.ceil((lead + seconds) / seconds) * seconds;
+                recordSeconds = Math.ceil((lead + seconds) / block - 1e-9) * block;
                 session.stopAfter(recordSeconds);
             }
             if (!session.awaitEnd((long) (recordSeconds * 1000) + 15_000, TimeUnit.MILLISECONDS)) {
