@@ -33,7 +33,7 @@ final class LiveCapture {
         } catch (IOException e) {
             throw new BadInputException("cannot create a temporary file for the live capture: " + e.getMessage());
         }
-        // SECONDS in whole blocks of at most 1 s, so the record ends on SECONDS exactly and a lead-in adds at most a second
+        // SECONDS in whole blocks of at most 1 s: the record ends on SECONDS exactly, and rounding a lead-in up adds less than a block
         double block = seconds / Math.ceil(seconds);
         s = s.withBlocks(block, block).withRecordFile(Optional.of(file)).withFullScaleVolts(OptionalDouble.empty());
         LiveOptions.cautionsOnce(user, err);
@@ -53,6 +53,8 @@ final class LiveCapture {
                 double lead = session.stimulusArrivalSeconds().get() + LEAD_MARGIN_SECONDS;
                 recordSeconds = Math.ceil((lead + seconds) / block - 1e-9) * block;
                 session.stopAfter(recordSeconds);
+            } else {
+                session.stopAfter(seconds);
             }
             if (!session.awaitEnd((long) (recordSeconds * 1000) + 15_000, TimeUnit.MILLISECONDS)) {
                 session.stop();
