@@ -14,7 +14,6 @@ import javafx.scene.Scene;
 import javafx.scene.control.TableCell;
 import javafx.scene.control.TextField;
 import javafx.stage.Stage;
-import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.ExtendWith;
@@ -48,7 +47,7 @@ class LayoutTest {
 
     @BeforeEach
     void samplesPresent() {
-        Assumptions.assumeTrue(Files.isRegularFile(DIR.resolve("bench.txt")), "sample-captures/ is part of the repository");
+        org.junit.jupiter.api.Assertions.assertTrue(Files.isRegularFile(DIR.resolve("bench.txt")), "sample-captures/ is part of the repository");
     }
 
     private void open(String... names) throws Exception {
