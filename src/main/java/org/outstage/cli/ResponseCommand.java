@@ -79,12 +79,7 @@ public final class ResponseCommand implements Callable<Integer> {
         if (files.size() > 1) return stepped(opts, band);
         Path file = files.get(0);
         Capture c = Measuring.open(file, opts);
-        int count = c.channelCount();
-        if (reference != null && (reference < 1 || reference > count))
-            throw new BadInputException(file + ": --reference " + reference + " does not exist (the capture has " + count + ")");
-        int ch = channel != null ? channel : (reference != null && reference == 1 && count > 1 ? 2 : 1);
-        if (ch < 1 || ch > count) throw new BadInputException(file + ": --channel " + ch + " does not exist (the capture has " + count + ")");
-        if (reference != null && reference == ch) throw new BadInputException(file + ": --reference and --channel name the same channel " + ch);
+        int ch = outputChannel(file, c);
         double[] y = c.readChannel(ch - 1);
         FrequencyResponse r;
         try {
@@ -104,6 +99,17 @@ public final class ResponseCommand implements Callable<Integer> {
         return OutstageCommand.EXIT_OK;
     }
 
+    /** The output channel (1-based) of a capture, checked with the reference: --channel, else the first that is not the reference. */
+    private int outputChannel(Path file, Capture c) {
+        int count = c.channelCount();
+        if (reference != null && (reference < 1 || reference > count))
+            throw new BadInputException(file + ": --reference " + reference + " does not exist (the capture has " + count + ")");
+        int ch = channel != null ? channel : (reference != null && reference == 1 && count > 1 ? 2 : 1);
+        if (ch < 1 || ch > count) throw new BadInputException(file + ": --channel " + ch + " does not exist (the capture has " + count + ")");
+        if (reference != null && reference == ch) throw new BadInputException(file + ": --reference and --channel name the same channel " + ch);
+        return ch;
+    }
+
     /**
      * A stepped-tone series: each file one tone, measured as {@code analyze} measures it; with {@code --reference} the
      * output over the generator captured beside it ({@link SteppedResponse}).
@@ -115,12 +121,7 @@ public final class ResponseCommand implements Callable<Integer> {
         String unit = null;
         for (Path f : files) {
             Capture c = Measuring.open(f, opts);
-            int count = c.channelCount();
-            if (reference != null && (reference < 1 || reference > count))
-                throw new BadInputException(f + ": --reference " + reference + " does not exist (the capture has " + count + ")");
-            ch = channel != null ? channel : (reference != null && reference == 1 && count > 1 ? 2 : 1);
-            if (ch < 1 || ch > count) throw new BadInputException(f + ": --channel " + ch + " does not exist (the capture has " + count + ")");
-            if (reference != null && reference == ch) throw new BadInputException(f + ": --reference and --channel name the same channel " + ch);
+            ch = outputChannel(f, c);
             AnalysisSettings s = opts.settings();
             try {
                 Measurement out = Analyzer.analyze(c, ch - 1, s);
