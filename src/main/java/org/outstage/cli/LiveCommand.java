@@ -89,21 +89,24 @@ public final class LiveCommand implements Callable<Integer> {
             throw new BadInputException("--block-seconds/--hop-seconds: " + e.getMessage());
         }
         LiveOptions.cautionsOnce(user, err);
-        double runSeconds = seconds != null ? seconds : calibrateVolts != null ? 3 * blockSeconds : Double.POSITIVE_INFINITY;
+        double runSeconds = seconds != null ? seconds : calibrateVolts != null ? CALIBRATION_CAP_SECONDS : Double.POSITIVE_INFINITY;
         boolean inPlace = !json && System.console() != null;
         List<Measurement> calibration = new ArrayList<>();
         int calChannel = analyze.channel().orElse(1);
         // with our own stimulus, calibration blocks start after it has reached the input (set once started, under out's lock)
         double[] calibrateFrom = {s.stimulus().isPresent() ? Double.POSITIVE_INFINITY : 0};
         final double calBlockSeconds = blockSeconds;
+        java.util.concurrent.CountDownLatch calibrated = new java.util.concurrent.CountDownLatch(1);
         String label = "live:" + live.deviceKey();
         LiveListener listener = new LiveListener() {
             @Override
             public void onBlock(LiveResult r) {
                 synchronized (out) {
                     for (Measurement m : r.measurements()) {
-                        if (calibrateVolts != null && m.channel() == calChannel && r.timeSeconds() - calBlockSeconds >= calibrateFrom[0] - 1e-9)
+                        if (calibrateVolts != null && m.channel() == calChannel && r.timeSeconds() - calBlockSeconds >= calibrateFrom[0] - 1e-9) {
                             calibration.add(m);
+                            if (steadyTone(calibration).isPresent() && (seconds == null || r.timeSeconds() >= seconds - 1e-9)) calibrated.countDown();
+                        }
                         if (json) out.println(JsonText.write(jsonLine(label, r, m)));
                         else if (inPlace) out.print("\r" + textLine(r, m) + "   ");
                         else out.println(textLine(r, m));
@@ -133,8 +136,9 @@ public final class LiveCommand implements Callable<Integer> {
             // the output's lead-in (opening, buffer, fade-in) is not part of the calibration: three whole blocks after it
             double from = session.stimulusArrivalSeconds().get() + LiveCapture.LEAD_MARGIN_SECONDS;
             synchronized (out) { calibrateFrom[0] = from; }
-            double threeBlocks = Math.ceil(from / hop) * hop + 2 * hop + blockSeconds;
-            session.stopAfter(seconds == null ? threeBlocks : Math.max(seconds, threeBlocks));
+            // stops once three blocks agree (see steadyTone); a tone that never settles ends the run at this cap
+            double cap = from + CALIBRATION_CAP_SECONDS;
+            session.stopAfter(seconds == null ? cap : Math.max(seconds, cap));
         } else if (calibrateVolts != null) {
             synchronized (out) { calibrateFrom[0] = 0; }
         }
@@ -146,8 +150,9 @@ public final class LiveCommand implements Callable<Integer> {
                     started.fullScaleVolts().isPresent() ? String.format(Locale.ROOT, ", full scale %.4g V", started.fullScaleVolts().getAsDouble()) : ", full-scale units");
             err.flush();
         }
-        while (!session.awaitEnd(1, TimeUnit.SECONDS)) {
+        while (!session.awaitEnd(100, TimeUnit.MILLISECONDS)) {
             // Ctrl-C: the shutdown hook stops the session; this thread simply ends with the JVM
+            if (calibrated.getCount() == 0) session.stop();
         }
         if (inPlace) out.println();
         out.flush();
@@ -158,7 +163,12 @@ public final class LiveCommand implements Callable<Integer> {
         if (calibrateVolts != null) {
             MeterCalibration.Result c;
             try {
-                c = MeterCalibration.fromMeasurements(calibration, calibrateVolts);
+                List<Measurement> steady;
+                synchronized (out) { steady = steadyTone(calibration).orElse(null); }
+                if (steady == null) throw new IllegalArgumentException(calibration.isEmpty() ? "no block was analysed after the tone's arrival"
+                        : "the tone at the input did not hold steady over " + CALIBRATION_BLOCKS + " blocks in a row (within "
+                        + Math.round(CALIBRATION_SPREAD * 100) + " %); levels seen: " + levels(calibration));
+                c = MeterCalibration.fromMeasurements(steady, calibrateVolts);
             } catch (IllegalArgumentException e) {
                 throw new BadInputException("--calibrate-volts: " + e.getMessage());
             }
@@ -169,6 +179,41 @@ public final class LiveCommand implements Callable<Integer> {
         }
         err.flush();
         return OutstageCommand.EXIT_OK;
+    }
+
+    /** Blocks that must agree before a meter calibration is taken. */
+    static final int CALIBRATION_BLOCKS = 3;
+    /** Largest spread (max/min − 1) of the tone's rms over those blocks. */
+    static final double CALIBRATION_SPREAD = 0.01;
+    /** How long after the stimulus's expected arrival a calibration waits for a steady tone. */
+    static final double CALIBRATION_CAP_SECONDS = 12;
+
+    /**
+     * The last {@link #CALIBRATION_BLOCKS} blocks, when all are measured and their tone rms agree within
+     * {@link #CALIBRATION_SPREAD}. A block that holds silence, or the tone's late start (an output that opens slower than
+     * its stated latency on a loaded machine), is not part of such a run, so it never enters the calibration.
+     */
+    static Optional<List<Measurement>> steadyTone(List<Measurement> blocks) {
+        int n = blocks.size();
+        if (n < CALIBRATION_BLOCKS) return Optional.empty();
+        List<Measurement> last = blocks.subList(n - CALIBRATION_BLOCKS, n);
+        double lo = Double.POSITIVE_INFINITY, hi = 0;
+        for (Measurement m : last) {
+            if (!m.measured()) return Optional.empty();
+            double rms = m.fundamental().rms();
+            lo = Math.min(lo, rms);
+            hi = Math.max(hi, rms);
+        }
+        return lo > 0 && hi / lo - 1 <= CALIBRATION_SPREAD ? Optional.of(List.copyOf(last)) : Optional.empty();
+    }
+
+    private static String levels(List<Measurement> blocks) {
+        StringBuilder b = new StringBuilder();
+        for (Measurement m : blocks.subList(Math.max(0, blocks.size() - 6), blocks.size())) {
+            if (b.length() > 0) b.append(", ");
+            b.append(m.measured() ? String.format(Locale.ROOT, "%.4g FS rms", m.fundamental().rms()) : "none");
+        }
+        return b.toString();
     }
 
     /** One JSON Lines object: block, time_s, dropped_frames first, then the analyze capture object. */

@@ -1,0 +1,43 @@
+package org.outstage.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.ArrayList;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.outstage.analysis.Analyzer;
+import org.outstage.analysis.Measurement;
+import org.outstage.capture.SampleUnit;
+import org.outstage.stimulus.Generator;
+import org.outstage.stimulus.Stimulus;
+
+/**
+ * {@code live --calibrate-volts} takes its calibration from a steady run of blocks only. CI once saw the output start
+ * later than its stated latency on a loaded machine: the first block after the expected arrival was still silent and
+ * the calibration refused. Such a block, or a block that catches the tone's start, must break the run instead.
+ */
+class LiveCalibrationRunTest {
+    private static Measurement block(double levelDbfs) {
+        double[] x = levelDbfs == Double.NEGATIVE_INFINITY ? new double[48_000]
+                : Generator.of(new Stimulus.Sine(997), 48_000, levelDbfs, 1, false).render(48_000);
+        return Analyzer.analyze(x, 48_000, SampleUnit.FULL_SCALE);
+    }
+
+    @Test
+    void silentAndRisingBlocks_breakTheRun_threeSteadyBlocksMakeIt() {
+        Measurement silent = block(Double.NEGATIVE_INFINITY), low = block(-26), tone = block(-20);
+        assertFalse(silent.measured(), "a silent block is not measured");
+        List<Measurement> seen = new ArrayList<>(List.of(silent, low, tone));
+        assertTrue(LiveCommand.steadyTone(seen).isEmpty(), "silence in the last three blocks");
+        seen.add(tone);
+        // −26 and −20 dBFS differ by a factor 10^(6/20) = 1.995 in rms: far outside the 1 % spread
+        assertTrue(LiveCommand.steadyTone(seen).isEmpty(), "a block at another level in the last three");
+        seen.add(tone);
+        List<Measurement> run = LiveCommand.steadyTone(seen).orElseThrow();
+        assertEquals(3, run.size());
+        // −20 dBFS peak sine: rms 0.1/√2 (docs/references.md §2)
+        for (Measurement m : run) assertEquals(0.1 / Math.sqrt(2), m.fundamental().rms(), 1e-6);
+    }
+}
