@@ -4,9 +4,12 @@ import java.io.IOException;
 import java.io.PrintWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.concurrent.TimeUnit;
+import org.outstage.analysis.Measurement;
 import org.outstage.audio.AudioUnavailableException;
 import org.outstage.live.LiveListener;
 import org.outstage.live.LiveResult;
@@ -38,8 +41,21 @@ final class LiveCapture {
         s = s.withBlocks(block, block).withRecordFile(Optional.of(file)).withFullScaleVolts(OptionalDouble.empty());
         LiveOptions.cautionsOnce(user, err);
         String[] failure = new String[1];
+        int channel = analyze.channel().orElse(1);
+        int keepBlocks = (int) Math.round(seconds / block);
+        List<Double> tone = new ArrayList<>(); // the channel's tone rms per block, NaN where not measured
+        java.util.concurrent.CountDownLatch steady = new java.util.concurrent.CountDownLatch(1);
+        double[] minimumEnd = {Double.POSITIVE_INFINITY};
         LiveSession session = new LiveSession(LiveCommand.backend.get(), s, new LiveListener() {
-            @Override public void onBlock(LiveResult r) {}
+            @Override public void onBlock(LiveResult r) {
+                double rms = Double.NaN;
+                for (Measurement m : r.measurements())
+                    if (m.channel() == channel && m.measured()) rms = m.fundamental().rms();
+                synchronized (tone) {
+                    tone.add(rms);
+                    if (r.timeSeconds() >= minimumEnd[0] - 1e-9 && steadyTail(tone, keepBlocks)) steady.countDown();
+                }
+            }
             @Override public void onFailure(String message) { failure[0] = message; }
         });
         session.stopAfter(s.stimulus().isPresent() ? Double.POSITIVE_INFINITY : seconds);
@@ -49,17 +65,28 @@ final class LiveCapture {
             // With a stimulus, the record must hold SECONDS of it: the output line opens and fills its buffer before the
             // tone reaches the input (a second or more on a loaded machine), so the record is extended by that lead-in
             // (whole blocks) and only its last SECONDS are kept (trim below).
+            // An output can start later than its stated latency (a loaded machine): the record then runs on until the
+            // last SECONDS hold the tone at one level, at most LATE_START_SECONDS longer.
             if (session.stimulusArrivalSeconds().isPresent()) {
                 double lead = session.stimulusArrivalSeconds().get() + LEAD_MARGIN_SECONDS;
                 recordSeconds = Math.ceil((lead + seconds) / block - 1e-9) * block;
-                session.stopAfter(recordSeconds);
+                synchronized (tone) {
+                    minimumEnd[0] = recordSeconds;
+                    if (tone.size() * block >= recordSeconds - 1e-9 && steadyTail(tone, keepBlocks)) steady.countDown();
+                }
+                session.stopAfter(recordSeconds + LATE_START_SECONDS);
             } else {
                 session.stopAfter(seconds);
             }
-            if (!session.awaitEnd((long) (recordSeconds * 1000) + 15_000, TimeUnit.MILLISECONDS)) {
-                session.stop();
-                throw new IllegalStateException("the live capture did not end");
+            long deadline = System.nanoTime() + (long) ((recordSeconds + LATE_START_SECONDS + 15) * 1e9);
+            while (!session.awaitEnd(50, TimeUnit.MILLISECONDS)) {
+                if (steady.getCount() == 0) session.stop();
+                if (System.nanoTime() > deadline) {
+                    session.stop();
+                    throw new IllegalStateException("the live capture did not end");
+                }
             }
+            recordSeconds = Math.max(recordSeconds, tone.size() * block);
         } catch (AudioUnavailableException e) {
             delete(file);
             throw new BadInputException(e.getMessage());
@@ -84,9 +111,34 @@ final class LiveCapture {
                 throw new BadInputException("live capture: cannot trim the lead-in of " + file + ": " + e.getMessage());
             }
         }
+        if (s.stimulus().isPresent() && steady.getCount() != 0)
+            err.println("outstage: warning: the tone did not hold one level on input channel " + channel + " over the last " + seconds
+                    + " s of the record (silence, or a level that moved by more than " + Math.round(STEADY_SPREAD * 100) + " %); the step keeps what was recorded");
         if (session.droppedFrames() > 0)
             err.println("outstage: warning: " + session.droppedFrames() + " input frames were lost during the live capture (zeros stand in for them)");
         return file;
+    }
+
+    /** How much longer than planned a record with a stimulus may run while it waits for the tone to hold steady, seconds. */
+    static final double LATE_START_SECONDS = 10;
+    /** Largest spread (max/min − 1) of the tone's block rms within the kept part of a record. */
+    static final double STEADY_SPREAD = 0.02;
+
+    /**
+     * Whether the last {@code blocks} entries of {@code toneRms} (per-block tone rms, NaN where not measured) are all
+     * measured and within {@link #STEADY_SPREAD} of each other: the kept part of the record then holds no silence and no
+     * tone onset.
+     */
+    static boolean steadyTail(List<Double> toneRms, int blocks) {
+        int n = toneRms.size();
+        if (blocks < 1 || n < blocks) return false;
+        double lo = Double.POSITIVE_INFINITY, hi = 0;
+        for (double v : toneRms.subList(n - blocks, n)) {
+            if (!(v > 0)) return false;
+            lo = Math.min(lo, v);
+            hi = Math.max(hi, v);
+        }
+        return hi / lo - 1 <= STEADY_SPREAD;
     }
 
     /** Margin after the stimulus' computed arrival before the kept part of the record starts, seconds (scheduling slack). */

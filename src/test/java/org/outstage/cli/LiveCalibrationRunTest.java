@@ -40,4 +40,16 @@ class LiveCalibrationRunTest {
         // −20 dBFS peak sine: rms 0.1/√2 (docs/references.md §2)
         for (Measurement m : run) assertEquals(0.1 / Math.sqrt(2), m.fundamental().rms(), 1e-6);
     }
+
+    @Test
+    void sessionAddLive_keepsOnlyASteadyTail() {
+        // per-block tone rms, NaN where the block was not measured (silence)
+        List<Double> rms = new ArrayList<>(List.of(Double.NaN, Double.NaN, 0.035));
+        assertFalse(LiveCapture.steadyTail(rms, 2), "silence inside the kept blocks");
+        rms.add(0.0707);
+        assertFalse(LiveCapture.steadyTail(rms, 2), "the tone's onset inside the kept blocks");
+        rms.add(0.0708); // 0.14 % apart: steady
+        assertTrue(LiveCapture.steadyTail(rms, 2));
+        assertFalse(LiveCapture.steadyTail(rms, 6), "fewer blocks than asked for");
+    }
 }
