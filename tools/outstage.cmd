@@ -25,8 +25,12 @@ set "JVM=-Djavafx.cachedir=%TEMP%\outstage-openjfx"
 set "MODE=cli"
 if "%~1"=="" set "MODE=gui"
 if /i "%~1"=="gui" set "MODE=gui"
-rem short command-line runs: the client compiler alone starts sooner (see tools/outstage)
-if "%MODE%"=="cli" set "JVM=%JVM% -XX:TieredStopAtLevel=1"
+rem command-line runs: the client compiler alone starts sooner and wins up to a few hundred MB of captures
+rem (see tools/outstage); live and watch run long and keep both compilers
+set "C1=-XX:TieredStopAtLevel=1"
+if /i "%~1"=="live" set "C1="
+if /i "%~1"=="watch" set "C1="
+if "%MODE%"=="cli" set "JVM=%JVM% %C1%"
 set "CDS=%HERE%\target\cds"
 set "ARCHIVE=%CDS%\outstage-%MODE%-win.jsa"
 if /i "%OUTSTAGE_CDS%"=="off" goto run

@@ -246,14 +246,15 @@ public final class Analyzer {
                     ? SineFitter.coarseFrequency(prefix, fs, 0.9 * s.fundamentalHz().getAsDouble(), 1.1 * s.fundamentalHz().getAsDouble())
                     : SineFitter.coarseFrequency(prefix, fs);
             SineFit first = SineFitter.fourParameter(prefix, fs, start);
-            SineFit full = pre == span.length ? first : SineFitter.fourParameter(span, fs, first.frequencyHz());
             // On records of many cycles, refine with window-weighted least squares: the window's sidelobes keep
             // harmonics and other tones from biasing the frequency of a fit over a non-integer number of cycles.
-            if (full.frequencyHz() * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
-                SineFit weighted = SineFitter.fourParameterWeighted(span, fs, full.frequencyHz(), WINDOW.samples(span.length));
+            // It starts from the prefix's fit (a small fraction of a bin of the span away: the iteration converges to
+            // the same point from there as from an unweighted fit of the whole span, which is made only when needed).
+            if (first.frequencyHz() * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
+                SineFit weighted = SineFitter.fourParameterWeighted(span, fs, first.frequencyHz(), WINDOW.samples(span.length));
                 if (weighted.converged() && weighted.frequencyHz() > 0 && weighted.frequencyHz() < fs / 2) return weighted;
             }
-            return full;
+            return pre == span.length ? first : SineFitter.fourParameter(span, fs, first.frequencyHz());
         }
 
         int maxOrder(double f, double guardHz) {
@@ -283,7 +284,9 @@ public final class Analyzer {
                 long steps = (extra + len / 2 - 1) / (len / 2);
                 hop = (int) (extra / steps);
             }
-            PowerSpectrum ps = PowerSpectrum.of(capture, index, len, hop, WINDOW, fit.dcOffset());
+            // the span holds the whole record when it is at most MAX_BLOCK long: no second decode of the file
+            PowerSpectrum ps = span.length == n ? PowerSpectrum.of(span, capture.name(), fs, len, hop, WINDOW, fit.dcOffset())
+                    : PowerSpectrum.of(capture, index, len, hop, WINDOW, fit.dcOffset());
             double binW = ps.binWidthHz();
             int hw = WINDOW.mainLobeHalfWidthBins();
             int top = maxOrder(f, (hw + 1) * binW);

@@ -49,6 +49,32 @@ final class PowerSpectrum {
 
     /** Averages spectra of blocks of {@code length} (even) with hop {@code hop}; {@code offset} is subtracted before windowing. */
     static PowerSpectrum of(Capture capture, int channelIndex, int length, int hop, Window window, double offset) {
+        try (ChannelReader r = capture.openChannel(channelIndex)) {
+            return of(r, capture.name(), capture.sampleRateHz(), length, hop, window, offset);
+        } catch (IOException e) {
+            throw new UncheckedIOException(capture.name() + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** As {@link #of(Capture, int, int, int, Window, double)}, on a whole record already in memory (no second decode). */
+    static PowerSpectrum of(double[] record, String name, double sampleRateHz, int length, int hop, Window window, double offset) {
+        int[] pos = {0};
+        ChannelReader r = (buffer, off, len) -> {
+            if (pos[0] >= record.length) return -1;
+            int k = Math.min(len, record.length - pos[0]);
+            System.arraycopy(record, pos[0], buffer, off, k);
+            pos[0] += k;
+            return k;
+        };
+        try {
+            return of(r, name, sampleRateHz, length, hop, window, offset);
+        } catch (IOException e) {
+            throw new AssertionError("reading memory cannot fail", e);
+        }
+    }
+
+    private static PowerSpectrum of(ChannelReader r, String name, double sampleRateHz, int length, int hop, Window window, double offset)
+            throws IOException {
         if (length % 2 != 0 || length < 16) throw new IllegalArgumentException("block length=" + length + " must be even and >= 16");
         double[] w = window.samples(length);
         double sumW2 = 0;
@@ -62,7 +88,7 @@ final class PowerSpectrum {
         double sumD = 0, sumD2 = 0, sumX0 = 0, sumW = 0;
         for (double v : w) sumW += v;
         long total = 0;
-        try (ChannelReader r = capture.openChannel(channelIndex)) {
+        {
             int filled = fill(r, buf, 0, length);
             for (int i = 0; i < filled; i++) { double d = buf[i] - offset; sumD += d; sumD2 += d * d; }
             total += filled;
@@ -70,7 +96,7 @@ final class PowerSpectrum {
             while (full) {
                 // a caller that gives up (the workbench's Cancel interrupts its worker) stops a long record between blocks
                 if (Thread.currentThread().isInterrupted())
-                    throw new java.util.concurrent.CancellationException("analysis of " + capture.name() + " interrupted");
+                    throw new java.util.concurrent.CancellationException("analysis of " + name + " interrupted");
                 for (int i = 0; i < length; i++) work[i] = (buf[i] - offset) * w[i];
                 fft.realForward(work);
                 if (first == null) first = work.clone();
@@ -88,14 +114,12 @@ final class PowerSpectrum {
                 total += got;
                 full = got == hop;
             }
-        } catch (IOException e) {
-            throw new UncheckedIOException(capture.name() + ": " + e.getMessage(), e);
         }
-        if (blocks == 0) throw new IllegalArgumentException(capture.name() + " is shorter than one analysis block (" + length + " samples)");
+        if (blocks == 0) throw new IllegalArgumentException(name + " is shorter than one analysis block (" + length + " samples)");
         double scale = 2.0 / (length * sumW2 * blocks);
         for (int k = 0; k < acc.length; k++) acc[k] *= scale;
         double meanD = sumD / total;
-        return new PowerSpectrum(length, capture.sampleRateHz(), window, acc, first, blocks, offset + meanD,
+        return new PowerSpectrum(length, sampleRateHz, window, acc, first, blocks, offset + meanD,
                 offset + sumX0 / (blocks * sumW),
                 Math.max(0, sumD2 / total - meanD * meanD), total);
     }

@@ -51,16 +51,15 @@ public final class SineFitter {
         for (int i = 0; i < n; i++) mean += samples[i];
         mean /= n;
         double[] buf = new double[n];
-        for (int i = 0; i < n; i++) {
-            double w = 0.5 - 0.5 * Math.cos(2 * Math.PI * i / n);
-            buf[i] = (samples[i] - mean) * w;
-        }
+        double[] hann = Window.HANN.samples(n);
+        for (int i = 0; i < n; i++) buf[i] = (samples[i] - mean) * hann[i];
         Fft.of(n).realForward(buf);
         int bins = n / 2;
         double[] mag = new double[bins + 1];
         mag[0] = Math.abs(buf[0]);
-        for (int k = 1; k < bins; k++) mag[k] = Math.hypot(buf[2 * k], buf[2 * k + 1]);
-        mag[bins] = (n % 2 == 0) ? Math.abs(buf[1]) : Math.hypot(buf[2 * bins], buf[1]);
+        // |X| as √(re² + im²): audio spectra are far from overflow, so the slower overflow-safe hypot is not needed
+        for (int k = 1; k < bins; k++) mag[k] = Math.sqrt(buf[2 * k] * buf[2 * k] + buf[2 * k + 1] * buf[2 * k + 1]);
+        mag[bins] = (n % 2 == 0) ? Math.abs(buf[1]) : Math.sqrt(buf[2 * bins] * buf[2 * bins] + buf[1] * buf[1]);
         int kLo = Math.max(2, (int) Math.floor(loHz * n / sampleRateHz));
         int kHi = (int) Math.min(bins - 1, Math.ceil(Math.min(hiHz, sampleRateHz) * n / sampleRateHz));
         if (kHi < kLo) { kLo = 2; kHi = bins - 1; }
@@ -162,27 +161,59 @@ public final class SineFitter {
         double cd = Math.cos(dPhi), sd = Math.sin(dPhi);
         double s00 = 0, s01 = 0, s02 = 0, s03 = 0, s11 = 0, s12 = 0, s13 = 0, s22 = 0, s23 = 0, s33 = 0;
         double r0 = 0, r1 = 0, r2 = 0, r3 = 0;
-        double c = 0, s = 0;
-        for (int i = 0; i < n; i++) {
-            if (i % ANCHOR == 0) {
-                double ph = dPhi * (i - mid);
-                c = Math.cos(ph);
-                s = Math.sin(ph);
+        double invFs = 1 / fs;
+        // blocks of ANCHOR samples, each re-anchored with Math.cos/sin; inside a block the rotation recurrence.
+        // The four loop bodies are the same sums, split so the loops carry no per-sample branch.
+        for (int start = 0; start < n; start += ANCHOR) {
+            int end = Math.min(n, start + ANCHOR);
+            double ph = dPhi * (start - mid);
+            double c = Math.cos(ph), s = Math.sin(ph);
+            if (!four && wt == null) {
+                for (int i = start; i < end; i++) {
+                    double yi = y[i];
+                    s00 += c * c; s01 += c * s; s02 += c; s11 += s * s; s12 += s;
+                    r0 += c * yi; r1 += s * yi; r2 += yi;
+                    double cn = c * cd - s * sd;
+                    s = s * cd + c * sd;
+                    c = cn;
+                }
+                s22 += end - start;
+            } else if (!four) {
+                for (int i = start; i < end; i++) {
+                    double yi = y[i], wi = wt[i];
+                    double cw = c * wi, sw = s * wi;
+                    s00 += cw * c; s01 += cw * s; s02 += cw; s11 += sw * s; s12 += sw; s22 += wi;
+                    r0 += cw * yi; r1 += sw * yi; r2 += wi * yi;
+                    double cn = c * cd - s * sd;
+                    s = s * cd + c * sd;
+                    c = cn;
+                }
+            } else if (wt == null) {
+                for (int i = start; i < end; i++) {
+                    double yi = y[i];
+                    double d = (i - mid) * invFs * (-a * s + b * c);
+                    s00 += c * c; s01 += c * s; s02 += c; s11 += s * s; s12 += s;
+                    r0 += c * yi; r1 += s * yi; r2 += yi;
+                    s03 += c * d; s13 += s * d; s23 += d; s33 += d * d; r3 += d * yi;
+                    double cn = c * cd - s * sd;
+                    s = s * cd + c * sd;
+                    c = cn;
+                }
+                s22 += end - start;
+            } else {
+                for (int i = start; i < end; i++) {
+                    double yi = y[i], wi = wt[i];
+                    double cw = c * wi, sw = s * wi;
+                    double d = (i - mid) * invFs * (-a * s + b * c);
+                    double dw = d * wi;
+                    s00 += cw * c; s01 += cw * s; s02 += cw; s11 += sw * s; s12 += sw; s22 += wi;
+                    r0 += cw * yi; r1 += sw * yi; r2 += wi * yi;
+                    s03 += cw * d; s13 += sw * d; s23 += dw; s33 += dw * d; r3 += dw * yi;
+                    double cn = c * cd - s * sd;
+                    s = s * cd + c * sd;
+                    c = cn;
+                }
             }
-            double yi = y[i];
-            double wi = wt == null ? 1.0 : wt[i];
-            double cw = c * wi, sw = s * wi;
-            s00 += cw * c; s01 += cw * s; s02 += cw; s11 += sw * s; s12 += sw; s22 += wi;
-            r0 += cw * yi; r1 += sw * yi; r2 += wi * yi;
-            if (four) {
-                double t = (i - mid) / fs;
-                double d = t * (-a * s + b * c);
-                double dw = d * wi;
-                s03 += cw * d; s13 += sw * d; s23 += dw; s33 += dw * d; r3 += dw * yi;
-            }
-            double cn = c * cd - s * sd;
-            s = s * cd + c * sd;
-            c = cn;
         }
         ata[0][0] = s00; ata[0][1] = s01; ata[0][2] = s02;
         ata[1][0] = s01; ata[1][1] = s11; ata[1][2] = s12;
@@ -208,18 +239,18 @@ public final class SineFitter {
         theta0 = Math.IEEEremainder(theta0, 2 * Math.PI);
         double dPhi = 2 * Math.PI * f / fs;
         double cd = Math.cos(dPhi), sd = Math.sin(dPhi);
-        double ss = 0, c = 0, s = 0;
-        for (int i = 0; i < n; i++) {
-            if (i % ANCHOR == 0) {
-                double ph = dPhi * (i - mid);
-                c = Math.cos(ph);
-                s = Math.sin(ph);
+        double ss = 0;
+        for (int start = 0; start < n; start += ANCHOR) {
+            int end = Math.min(n, start + ANCHOR);
+            double ph = dPhi * (start - mid);
+            double c = Math.cos(ph), s = Math.sin(ph);
+            for (int i = start; i < end; i++) {
+                double r = y[i] - (a * c + b * s + dc);
+                ss += r * r;
+                double cn = c * cd - s * sd;
+                s = s * cd + c * sd;
+                c = cn;
             }
-            double r = y[i] - (a * c + b * s + dc);
-            ss += r * r;
-            double cn = c * cd - s * sd;
-            s = s * cd + c * sd;
-            c = cn;
         }
         return new SineFit(f, amp, theta0, dc, Math.sqrt(ss / n), iterations, converged);
     }

@@ -59,8 +59,10 @@ public enum Window {
             if (w != null) return w;
         }
         double[] w = new double[n];
-        // cos(kθ) by the Chebyshev recurrence from cos θ, θ = 2πi/n (error ~1e-15, far below the −180 dB sidelobes)
-        for (int i = 0; i < n; i++) {
+        // The periodic window is symmetric, w[n − i] = w[i]: the first half (and the middle) is computed, the rest
+        // mirrored. cos(kθ) by the Chebyshev recurrence from cos θ, θ = 2πi/n (error ~1e-15, far below the −180 dB
+        // sidelobes).
+        for (int i = 0; i <= n / 2; i++) {
             double c1 = Math.cos(2 * Math.PI * (double) i / n);
             double ckm1 = 1, ck = c1, s = a[0];
             double sign = -1;
@@ -73,8 +75,27 @@ public enum Window {
             }
             w[i] = s;
         }
-        synchronized (CACHE) { CACHE.put(key, w); }
+        for (int i = n / 2 + 1; i < n; i++) w[i] = w[n - i];
+        synchronized (CACHE) {
+            CACHE.put(key, w);
+            cached += n;
+            var it = CACHE.entrySet().iterator();
+            while (cached > CACHE_SAMPLES && CACHE.size() > 1) {
+                cached -= it.next().getValue().length;
+                it.remove();
+            }
+        }
         return w;
+    }
+
+    /**
+     * Writes {@code (x[i] − offset)·w[i]} for i = 0…out.length−1 into {@code out}, w the periodic window of length
+     * {@code out.length} (kept in a small cache, so repeated use on one length costs no trigonometry).
+     */
+    public void applyCentred(double[] x, double offset, double[] out) {
+        if (x.length < out.length) throw new IllegalArgumentException("x.length=" + x.length + " must be at least out.length=" + out.length);
+        double[] w = samples(out.length);
+        for (int i = 0; i < out.length; i++) out[i] = (x[i] - offset) * w[i];
     }
 
     /** Coherent gain Σw/N (a0 for these windows). */
@@ -95,9 +116,11 @@ public enum Window {
 
     private record Key(Window window, int n) {}
 
-    private static final int CACHE_ENTRIES = 4;
-    private static final Map<Key, double[]> CACHE = new LinkedHashMap<>(8, 0.75f, true) {
-        @Override
-        protected boolean removeEldestEntry(Map.Entry<Key, double[]> eldest) { return size() > CACHE_ENTRIES; }
-    };
+    /**
+     * Samples the cache holds at most, over all its windows (least recently used dropped first): 2^22 doubles, 32 MB;
+     * enough for the windows of one analysis (the fit's, the spectrum's, the two Hann windows of the peak searches).
+     */
+    private static final long CACHE_SAMPLES = 1L << 22;
+    private static long cached;   // samples in CACHE, guarded by CACHE
+    private static final Map<Key, double[]> CACHE = new LinkedHashMap<>(8, 0.75f, true);
 }

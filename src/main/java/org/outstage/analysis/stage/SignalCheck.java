@@ -7,6 +7,7 @@ import org.outstage.Require;
 import org.outstage.analysis.Fft;
 import org.outstage.analysis.SineFit;
 import org.outstage.analysis.Stats;
+import org.outstage.analysis.Window;
 
 /**
  * Is this record a usable single sine? Returns a reason when it is not, so the caller shows a clear sentence
@@ -118,7 +119,7 @@ public final class SignalCheck {
         for (int i = 0; i < m; i++) mean += x[i];
         mean /= m;
         double[] buf = new double[m];
-        for (int i = 0; i < m; i++) buf[i] = (x[i] - mean) * (0.5 - 0.5 * Math.cos(2 * Math.PI * i / m));
+        Window.HANN.applyCentred(x, mean, buf);
         Fft.of(m).realForward(buf);
         int half = m / 2;
         double[] p = new double[half];

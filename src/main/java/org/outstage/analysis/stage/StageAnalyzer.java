@@ -215,19 +215,18 @@ public final class StageAnalyzer {
     /** x = A·cos(ωt + φ) without DC, and whether it is rising, by a rotation re-anchored every 256 samples. */
     static void ideal(SineFit fit, double fs, int n, double[] x, boolean[] rising) {
         double a = fit.amplitudePeak(), dphi = 2 * Math.PI * fit.frequencyHz() / fs, ph0 = fit.phaseRadians();
-        double cd = Math.cos(dphi), sd = Math.sin(dphi), c = 0, sn = 0;
-        for (int i = 0; i < n; i++) {
-            if (i % ANCHOR == 0) {
-                double ph = dphi * i + ph0;
-                c = Math.cos(ph);
-                sn = Math.sin(ph);
-            } else {
+        double cd = Math.cos(dphi), sd = Math.sin(dphi);
+        for (int start = 0; start < n; start += ANCHOR) {
+            int end = Math.min(n, start + ANCHOR);
+            double ph = dphi * start + ph0;
+            double c = Math.cos(ph), sn = Math.sin(ph);
+            for (int i = start; i < end; i++) {
+                x[i] = a * c;
+                rising[i] = sn < 0;
                 double c2 = c * cd - sn * sd;
                 sn = sn * cd + c * sd;
                 c = c2;
             }
-            x[i] = a * c;
-            rising[i] = sn < 0;
         }
     }
 
