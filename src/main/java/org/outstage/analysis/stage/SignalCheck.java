@@ -94,14 +94,20 @@ public final class SignalCheck {
         int n = x.length;
         int take = Math.min(n, 16384);
         double[] sub = new double[take];
-        for (int i = 0; i < take; i++) sub[i] = x[(int) ((long) i * n / take)];
-        Arrays.sort(sub);
-        double lo = sub[0], hi = sub[take - 1], range = hi - lo;
+        double lo = Double.POSITIVE_INFINITY, hi = Double.NEGATIVE_INFINITY;
+        for (int i = 0; i < take; i++) {
+            double v = x[(int) ((long) i * n / take)];
+            sub[i] = v;
+            lo = Math.min(lo, v);
+            hi = Math.max(hi, v);
+        }
+        double range = hi - lo;
         double mid = 0.5 * (lo + hi);
-        int split = Arrays.binarySearch(sub, mid);
-        if (split < 0) split = -split - 1;
+        int split = 0;   // values below the middle of the range
+        for (double v : sub) if (v < mid) split++;
         if (split > 0 && split < take) {
-            double lowLevel = sub[split / 2], highLevel = sub[split + (take - split) / 2];
+            // the medians of the lower and the upper part: order statistics by quickselect (no full sort)
+            double lowLevel = Stats.select(sub, split / 2), highLevel = Stats.select(sub, split + (take - split) / 2);
             int nearLow = 0, nearHigh = 0;
             for (double v : sub) {
                 if (Math.abs(v - lowLevel) <= 0.05 * range) nearLow++;
