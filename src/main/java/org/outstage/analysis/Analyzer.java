@@ -245,12 +245,20 @@ public final class Analyzer {
             double start = s.fundamentalHz().isPresent()
                     ? SineFitter.coarseFrequency(prefix, fs, 0.9 * s.fundamentalHz().getAsDouble(), 1.1 * s.fundamentalHz().getAsDouble())
                     : SineFitter.coarseFrequency(prefix, fs);
-            SineFit first = SineFitter.fourParameter(prefix, fs, start);
             // On records of many cycles, refine with window-weighted least squares: the window's sidelobes keep
             // harmonics and other tones from biasing the frequency of a fit over a non-integer number of cycles.
-            // It starts from the prefix's fit (a small fraction of a bin of the span away: the iteration converges to
-            // the same point from there as from an unweighted fit of the whole span, which is made only when needed).
-            if (first.frequencyHz() * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
+            // The iteration converges to the same point from any start within a fraction of a bin, so it starts from
+            // the coarse peak when the prefix is at least half the span (the peak is then within a small fraction of
+            // the span's bin), else from the prefix's four-parameter fit; the unweighted fit of the whole span is made
+            // only when the weighted one does not settle.
+            boolean weightedTried = false;
+            if (span.length <= 2 * pre && start * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
+                weightedTried = true;
+                SineFit weighted = SineFitter.fourParameterWeighted(span, fs, start, WINDOW.samples(span.length));
+                if (weighted.converged() && weighted.frequencyHz() > 0 && weighted.frequencyHz() < fs / 2) return weighted;
+            }
+            SineFit first = SineFitter.fourParameter(prefix, fs, start);
+            if (!weightedTried && first.frequencyHz() * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
                 SineFit weighted = SineFitter.fourParameterWeighted(span, fs, first.frequencyHz(), WINDOW.samples(span.length));
                 if (weighted.converged() && weighted.frequencyHz() > 0 && weighted.frequencyHz() < fs / 2) return weighted;
             }
