@@ -17,20 +17,40 @@ enum WavCoding {
 
     WavCoding(int bytes) { this.bytes = bytes; }
 
-    /** Reads the sample at absolute position {@code index} of a little-endian buffer. */
-    double decode(ByteBuffer b, int index) {
+    /**
+     * Decodes {@code n} samples, {@code stride} bytes apart from byte {@code first} of a heap buffer, into
+     * {@code out[off…]} (little-endian; a loop per coding, no per-sample switch).
+     */
+    void decode(ByteBuffer b, int first, int stride, int n, double[] out, int off) {
+        byte[] a = b.array();
+        int p = b.arrayOffset() + first;
         switch (this) {
-            case PCM_U8: return ((b.get(index) & 0xff) - 128) / 128.0;
-            case PCM_S16: return b.getShort(index) / 32768.0;
-            case PCM_S24: {
-                int v = (b.get(index) & 0xff) | (b.get(index + 1) & 0xff) << 8 | b.get(index + 2) << 16;
-                return v / 8388608.0;
-            }
-            case PCM_S32: return b.getInt(index) / 2147483648.0;
-            case FLOAT_32: return b.getFloat(index);
-            case FLOAT_64: return b.getDouble(index);
+            case PCM_U8:
+                for (int i = 0; i < n; i++, p += stride) out[off + i] = ((a[p] & 0xff) - 128) / 128.0;
+                break;
+            case PCM_S16:
+                for (int i = 0; i < n; i++, p += stride) out[off + i] = (short) ((a[p] & 0xff) | a[p + 1] << 8) / 32768.0;
+                break;
+            case PCM_S24:
+                for (int i = 0; i < n; i++, p += stride)
+                    out[off + i] = ((a[p] & 0xff) | (a[p + 1] & 0xff) << 8 | a[p + 2] << 16) / 8388608.0;
+                break;
+            case PCM_S32:
+                for (int i = 0; i < n; i++, p += stride) out[off + i] = int32(a, p) / 2147483648.0;
+                break;
+            case FLOAT_32:
+                for (int i = 0; i < n; i++, p += stride) out[off + i] = Float.intBitsToFloat(int32(a, p));
+                break;
+            case FLOAT_64:
+                for (int i = 0; i < n; i++, p += stride)
+                    out[off + i] = Double.longBitsToDouble((int32(a, p) & 0xffffffffL) | (long) int32(a, p + 4) << 32);
+                break;
             default: throw new AssertionError(this);
         }
+    }
+
+    private static int int32(byte[] a, int p) {
+        return (a[p] & 0xff) | (a[p + 1] & 0xff) << 8 | (a[p + 2] & 0xff) << 16 | a[p + 3] << 24;
     }
 
     boolean isFloat() { return this == FLOAT_32 || this == FLOAT_64; }

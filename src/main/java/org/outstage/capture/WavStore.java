@@ -68,15 +68,15 @@ final class WavStore implements SampleStore {
                 if (k < 0) throw new EOFException(file.getFileName() + ": byte " + pos + ": file ended while reading samples (was it changed after it was opened?)");
                 pos += k;
             }
-            for (int i = 0; i < n; i++) {
-                double v = coding.decode(buf, i * blockAlign + sampleOffsetInFrame);
+            coding.decode(buf, sampleOffsetInFrame, blockAlign, n, buffer, offset);
+            for (int i = 0; coding.isFloat() && i < n; i++) {
+                double v = buffer[offset + i];
                 if (!Double.isFinite(v)) {   // only float codings can hold NaN or infinity
                     long at = dataOffset + (frame + i) * blockAlign + sampleOffsetInFrame;
                     String problem = "sample " + (frame + i + 1) + " of channel " + (sampleOffsetInFrame / coding.bytes + 1) + " is " + v
                             + "; a float WAV must hold finite numbers";
                     throw new java.io.IOException("byte " + at + ": " + problem, CaptureFormatException.atByte(file, at, problem));
                 }
-                buffer[offset + i] = v;
             }
             frame += n;
             return n;
