@@ -76,7 +76,12 @@ public final class Analyzer {
         Require.notNull("settings", settings);
         if (channelIndex < 0 || channelIndex >= capture.channelCount())
             throw new IllegalArgumentException("channel " + (channelIndex + 1) + " does not exist in " + capture.name() + " (it has " + capture.channelCount() + ")");
-        return new Run(capture, channelIndex, settings).run();
+        Helper.enter();
+        try {
+            return new Run(capture, channelIndex, settings).run();
+        } finally {
+            Helper.leave();
+        }
     }
 
     /**
@@ -210,8 +215,20 @@ public final class Analyzer {
             double cycles = n * f / fs;
             if (cycles < MIN_CYCLES)
                 return notMeasured(String.format(java.util.Locale.ROOT, "record too short: %.2f cycles of %s, at least %.1f needed", cycles, Levels.formatHz(f), MIN_CYCLES));
-            Measurement core = n <= MAX_BLOCK && cycles < SHORT_RECORD_CYCLES ? shortRecord(span, fit) : longRecord(span, fit);
-            return withStage(core, span, fit);
+            final SineFit fitted = fit;
+            Helper<StageDiagnosis> stage = Helper.start(span.length, () -> diagnose(span, fitted));
+            Measurement core;
+            try {
+                core = n <= MAX_BLOCK && cycles < SHORT_RECORD_CYCLES ? shortRecord(span, fit) : longRecord(span, fit);
+            } catch (RuntimeException | Error e) {
+                stage.cancel();
+                throw e;
+            }
+            if (!core.measured()) {
+                stage.cancel();
+                return core;
+            }
+            return withStage(core, stage.join());
         }
 
         /**
@@ -219,8 +236,13 @@ public final class Analyzer {
          * signal check finds no single dominant tone (two tones, or noise), the core figures would describe the
          * wrong thing, so the whole measurement becomes "not measured" with that reason.
          */
-        Measurement withStage(Measurement core, double[] span, SineFit fit) {
-            if (!core.measured()) return core;
+        Measurement withStage(Measurement core, StageDiagnosis d) {
+            if (d instanceof StageDiagnosis.NotMeasured nm && SignalCheck.isNoSingleTone(nm.reason())) return notMeasured(nm.reason());
+            return core.withStage(d);
+        }
+
+        /** The output-stage diagnosis of the span (independent of the spectrum, so it may run beside it). */
+        StageDiagnosis diagnose(double[] span, SineFit fit) {
             StageSettings ss = StageSettings.defaults().withUnit(capture.unit().symbol());
             StageDiagnosis d;
             if (s.referenceChannel().isPresent()) {
@@ -233,8 +255,7 @@ public final class Analyzer {
             } else {
                 d = StageAnalyzer.diagnose(span, fs, fit, ss);
             }
-            if (d instanceof StageDiagnosis.NotMeasured nm && SignalCheck.isNoSingleTone(nm.reason())) return notMeasured(nm.reason());
-            return core.withStage(d);
+            return d;
         }
 
         /** Coarse start (hint or spectral peak), four-parameter fit on a 2^16 prefix, then on the whole span. */

@@ -1,0 +1,83 @@
+package org.outstage.analysis;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.concurrent.CountDownLatch;
+import org.junit.jupiter.api.Test;
+import org.outstage.analysis.stage.StageDiagnosis;
+import org.outstage.capture.SampleUnit;
+
+/**
+ * The stage diagnosis runs beside the spectrum on an idle core, or inline when every core is busy. The two paths must
+ * give the same measurement, pass the same exceptions, and leave the count of busy threads as they found it.
+ */
+class HelperTest {
+    /** 2^18 samples at 96 kHz of a 997 Hz tone with a third harmonic and a cusp at zero (a crossover-like defect). */
+    private static double[] tone() {
+        double[] x = new double[1 << 18];
+        for (int i = 0; i < x.length; i++) {
+            double s = Math.sin(2 * Math.PI * 997 * i / 96_000.0);
+            x[i] = 0.5 * s + 0.001 * Math.sin(3 * 2 * Math.PI * 997 * i / 96_000.0) - 0.002 * Math.signum(s) * Math.exp(-Math.abs(s) / 0.02);
+        }
+        return x;
+    }
+
+    private static String json(Measurement m) {
+        return org.outstage.json.JsonText.write(org.outstage.report.MeasurementJson.capture("samples", m, java.util.List.of()));
+    }
+
+    @Test
+    void besideOrInline_sameMeasurement() {
+        double[] x = tone();
+        int cores = Runtime.getRuntime().availableProcessors();
+        long before = Helper.handedOver();
+        Measurement beside = Analyzer.analyze(x, 96_000, SampleUnit.FULL_SCALE);
+        if (cores > 1) assertTrue(Helper.handedOver() > before, "with an idle core the diagnosis is handed over");
+        Measurement inline;
+        for (int i = 0; i < cores; i++) Helper.enter();   // every core busy: the diagnosis runs inline
+        try {
+            long mark = Helper.handedOver();
+            inline = Analyzer.analyze(x, 96_000, SampleUnit.FULL_SCALE);
+            assertEquals(mark, Helper.handedOver(), "no core idle: nothing handed over");
+        } finally {
+            for (int i = 0; i < cores; i++) Helper.leave();
+        }
+        assertTrue(beside.measured() && beside.stage() instanceof StageDiagnosis.Measured, String.valueOf(beside.stage()));
+        // every figure the JSON report carries (the records hold arrays, whose equals is identity), and the spectrum
+        assertEquals(json(inline), json(beside), "the same pure computation on either thread");
+        assertTrue(java.util.Arrays.equals(inline.spectrum().levelDb(), beside.spectrum().levelDb()));
+    }
+
+    @Test
+    void exceptionsOfTheDiagnosis_comeThroughUnchanged() {
+        // a reference channel that does not exist is refused by the stage diagnosis (the part that may run beside)
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> Analyzer.analyze(tone(), 96_000, SampleUnit.FULL_SCALE, AnalysisSettings.defaults().withReferenceChannel(2)));
+        assertTrue(e.getMessage().contains("reference channel 2 does not exist"), e.getMessage());
+    }
+
+    @Test
+    void cancelledBeforeOrWhileRunning_leavesTheCountAsFound() throws Exception {
+        int base = Helper.busy();
+        CountDownLatch started = new CountDownLatch(1), release = new CountDownLatch(1);
+        Helper<Integer> running = Helper.start(Helper.MIN_SAMPLES, () -> {
+            started.countDown();
+            try {
+                release.await();
+            } catch (InterruptedException ie) {
+                Thread.currentThread().interrupt();
+            }
+            return 1;
+        });
+        Helper<Integer> queued = Helper.start(Helper.MIN_SAMPLES, () -> 2);
+        queued.cancel();
+        if (Runtime.getRuntime().availableProcessors() > 1) assertTrue(started.await(10, java.util.concurrent.TimeUnit.SECONDS));
+        running.cancel();
+        release.countDown();
+        for (int i = 0; i < 200 && Helper.busy() != base; i++) Thread.sleep(10);
+        assertEquals(base, Helper.busy());
+        assertEquals(5, Helper.start(10, () -> 5).join(), "a short record's part runs inline at join");
+    }
+}
