@@ -39,6 +39,10 @@ import org.outstage.capture.SampleUnit;
  *
  * <p>Memory: bounded by the block length (about 50 MB at 2^20 samples), not by the capture length.
  *
+ * <p>Threads: the output-stage diagnosis depends only on the span and the fit, so it runs on an idle core beside
+ * the spectrum when one is free (one capture analysed alone), and inline when every core already analyses a
+ * capture (a batch); the figures are the same either way ({@code Helper}).
+ *
  * <p>Worked example (replayed in {@code AnalyzerTest.javadocExample_twoVoltSineReadsTwoVoltsRms}): a 1 s,
  * 48 kHz record of {@code 2·√2·sin(2π·1000·t)} in volts with a 8 Ω load comes back as
  * 2.0 V rms at 1000 Hz, 0.5 W, with THD below −160 dB (the double-precision floor of the method).
@@ -258,7 +262,10 @@ public final class Analyzer {
             return d;
         }
 
-        /** Coarse start (hint or spectral peak), four-parameter fit on a 2^16 prefix, then on the whole span. */
+        /**
+         * Coarse start (hint or spectral peak), then the window-weighted four-parameter fit of the span (records of
+         * many cycles) or the plain one (docs/methods.md §1).
+         */
         SineFit fitFundamental(double[] span) {
             int pre = Math.min(span.length, 1 << 16);
             double[] prefix = pre == span.length ? span : Arrays.copyOf(span, pre);
