@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Optional;
 import org.outstage.analysis.FrequencyResponse;
 import org.outstage.analysis.Intermodulation;
+import org.outstage.analysis.Levels;
 import org.outstage.analysis.NoiseFigures;
 
 /**
@@ -21,8 +22,8 @@ public final class SpecSheetCharts {
         double[] f = new double[n], g = new double[n];
         for (int i = 0; i < n; i++) { f[i] = r.points().get(i).frequencyHz(); g[i] = r.points().get(i).gainRe1kHzDb(); }
         List<Marker> marks = new ArrayList<>();
-        r.minus3dbLowHz().ifPresent(x -> marks.add(new Marker(x, -3.0103, String.format(java.util.Locale.ROOT, "−3 dB %.3g Hz", x))));
-        r.minus3dbHighHz().ifPresent(x -> marks.add(new Marker(x, -3.0103, String.format(java.util.Locale.ROOT, "−3 dB %.3g Hz", x))));
+        r.minus3dbLowHz().ifPresent(x -> marks.add(new Marker(x, -3.0103, "−3 dB " + Levels.formatHz(x))));
+        r.minus3dbHighHz().ifPresent(x -> marks.add(new Marker(x, -3.0103, "−3 dB " + Levels.formatHz(x))));
         return new ChartSpec(name + " — frequency response", Axis.log("Frequency", "Hz"), Axis.linear("Gain re 1 kHz", "dB"),
                 List.of(new Series("gain", f, g, Series.Style.LINE, Series.Role.MEASURED)), marks, List.of(),
                 // the line is labelled only when no point is marked: a marker's label already says "−3 dB", and the
@@ -73,7 +74,7 @@ public final class SpecSheetCharts {
             for (double f : pf) reach = Math.max(reach, Math.abs(f - imd.f2Hz()));
             x = x.withRange(Math.max(0, imd.f2Hz() - 1.25 * reach), imd.f2Hz() + 1.25 * reach);
             if (imd.f1Hz() < imd.f2Hz() - 1.25 * reach)
-                tonesName = String.format(java.util.Locale.ROOT, "tones (f1 %.4g Hz, %+.1f dB, off the axis)", imd.f1Hz(), tl[0]);
+                tonesName = String.format(java.util.Locale.ROOT, "tones (f1 %s, %+.1f dB, off the axis)", Levels.formatHz(imd.f1Hz()), tl[0]);
         } else {
             // difference frequency: from the lowest product (f2 − f1) to the highest, with a margin so the bars at
             // either end stand clear of the axes

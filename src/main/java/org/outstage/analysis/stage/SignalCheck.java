@@ -5,6 +5,7 @@ import java.util.Locale;
 import java.util.Optional;
 import org.outstage.Require;
 import org.outstage.analysis.Fft;
+import org.outstage.analysis.Levels;
 import org.outstage.analysis.SineFit;
 import org.outstage.analysis.Stats;
 import org.outstage.analysis.Window;
@@ -162,12 +163,12 @@ public final class SignalCheck {
             double median = Stats.select(Arrays.copyOfRange(p, guard + 1, half), (half - guard - 1) / 2);
             double ratio = Math.sqrt(p[k2] / p[k0]);
             if (ratio >= 0.1 && p[k2] >= 1000 * median)
-                return Optional.of(String.format(Locale.ROOT, TWO_TONES + ": a line at %.4g Hz, %.1f dB relative to the %.4g Hz tone, is not one of its harmonics",
-                        (double) k2 * fs / m, 20 * Math.log10(ratio), f0));
+                return Optional.of(String.format(Locale.ROOT, TWO_TONES + ": a line at %s, %.1f dB relative to the %s tone, is not one of its harmonics",
+                        Levels.formatHz((double) k2 * fs / m), 20 * Math.log10(ratio), Levels.formatHz(f0)));
         }
         if (inLines < 0.5 * total)
-            return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%.4g Hz) and its harmonics hold only %.1f %% of the AC power",
-                    f0, 100 * inLines / total));
+            return Optional.of(String.format(Locale.ROOT, NO_DOMINANT_TONE + ": the strongest line (%s) and its harmonics hold only %.1f %% of the AC power",
+                    Levels.formatHz(f0), 100 * inLines / total));
         return Optional.empty();
     }
 }

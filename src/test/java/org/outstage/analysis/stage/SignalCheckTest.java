@@ -61,6 +61,8 @@ class SignalCheckTest {
         for (int i = 0; i < N; i++) y[i] = Math.cos(2 * Math.PI * 19000 * i / FS) + Math.cos(2 * Math.PI * 20000 * i / FS + 1);
         String r = reason(y);
         assertTrue(r.startsWith("two tones"), r);
+        // frequencies read as a bench user writes them, not in exponent form ("2.000e+04 Hz")
+        assertTrue(r.contains(" kHz") && !r.contains("e+0"), r);
     }
 
     /** SMPTE-type 60 Hz + 7 kHz at 4:1 (−12 dB): refused. */
