@@ -105,6 +105,14 @@ public final class BenchReport {
             return;
         }
         String u = m.unit();
+        if (m.noise().isPresent()) {   // a noise capture: the strongest line is hum, not a test tone (FigureTable.text)
+            var n = m.noise().get();
+            h.append("<td colspan=\"9\">").append(HtmlReport.esc(String.format(Locale.ROOT,
+                    "noise capture: noise %s %s rms, A-weighted %s %s rms, band %s–%s Hz; strongest line %s Hz (%s %s rms) is not a test tone: no distortion, power or stage figures",
+                    HtmlReport.num(n.rms()), u, HtmlReport.num(n.rmsA()), u, HtmlReport.num(n.lowHz()), HtmlReport.num(n.highHz()),
+                    HtmlReport.num(m.fundamental().frequencyHz()), HtmlReport.num(m.fundamental().rms()), u))).append("</td></tr>\n");
+            return;
+        }
         cell(h, HtmlReport.num(m.fundamental().frequencyHz()) + " Hz");
         cell(h, HtmlReport.num(m.fundamental().rms()) + " " + u);
         cell(h, m.powerWatts().map(p -> HtmlReport.num(p.totalWatts()) + " W").orElse("—"));
@@ -128,8 +136,9 @@ public final class BenchReport {
         if (!m.measured()) return;
         String name = Path.of(c.file()).getFileName().toString() + (c.capture().channelCount() > 1 ? " ch " + m.channel() : "");
         h.append("<h2>").append(HtmlReport.esc(name)).append("</h2>\n");
-        boolean crossover = org.outstage.analysis.Plausibility.crossoverGiven(m);
-        if (m.stage() instanceof StageDiagnosis.Measured s) {
+        boolean noiseCapture = m.noise().isPresent();   // no test tone: waveform and spectrum only
+        boolean crossover = !noiseCapture && org.outstage.analysis.Plausibility.crossoverGiven(m);
+        if (!noiseCapture && m.stage() instanceof StageDiagnosis.Measured s) {
             var clip = s.clipping();
             if (clip.detected()) // clipping first: it is what the capture shows before anything about the crossover
                 h.append("<p>Clipping: positive ").append(HtmlReport.esc(clip.positive().map(p -> String.format(java.util.Locale.ROOT, "%.2f %s", p.levelVolts(), m.unit())).orElse("none")))
@@ -140,7 +149,8 @@ public final class BenchReport {
                             org.outstage.analysis.Plausibility.cycles(m), org.outstage.analysis.Plausibility.MIN_CYCLES_FOR_CROSSOVER)))
                     .append("</p>\n");
         }
-        for (String caution : org.outstage.analysis.Plausibility.cautions(m, m.settings().loadOhms()))
+        if (noiseCapture) h.append("<p>Noise capture: the strongest line is hum or noise, not a test tone; its distortion and stage figures are not given.</p>\n");
+        else for (String caution : org.outstage.analysis.Plausibility.cautions(m, m.settings().loadOhms()))
             if (crossover || !caution.contains("crossover")) h.append("<p class=\"sub\">Caution: ").append(HtmlReport.esc(caution)).append("</p>\n");
         int span = Analyzer.spanFrames(c.capture());
         double[] x = c.capture().readChannel(m.channel() - 1, span);

@@ -58,6 +58,14 @@ public final class FigureTable {
             return sb.toString();
         }
         specSheet(sb, m);
+        if (m.noise().isPresent()) {
+            // a noise capture (input shorted, or no tone above 10 mV): its strongest line is hum or noise, not a test
+            // tone, so distortion, power and stage figures of that line would describe nothing about the amplifier
+            sb.append(String.format(Locale.ROOT, "  strongest line %s Hz  %s %s rms: not a test tone (noise capture); no distortion, power or stage figures%n",
+                    num(m.fundamental().frequencyHz()), sig(m.fundamental().rms()), u));
+            sb.append(System.lineSeparator());
+            return sb.toString();
+        }
         sb.append(String.format(Locale.ROOT, "  fundamental   %.4f Hz   %s %s rms (%s %s peak)%n", m.fundamental().frequencyHz(),
                 sig(m.fundamental().rms()), u, sig(m.fundamental().amplitudePeak()), u));
         sb.append(String.format(Locale.ROOT, "  THD           %s %%   (%.1f dB)   THD_R %s %%%n", sig(m.thd().percent()), m.thd().db(),

@@ -253,4 +253,28 @@ class SpecCommandsTest {
         assertEquals("pass", verdicts.get("bandwidth-low"), r.out());
         assertEquals("not-measured", verdicts.get("snr"), r.out());
     }
+
+    /**
+     * A noise capture (input shorted: hum at 50 Hz, 0.28 mV, below the 10 mV of a test tone) gets its noise and hum
+     * figures, and no THD, power or crossover figures of the hum line in the text table or the bench report: those
+     * would describe the hum, not the amplifier.
+     */
+    @Test
+    void noiseCapture_textAndReport_giveNoToneFigures() throws Exception {
+        Path samples = Path.of(System.getProperty("outstage.project.dir", ".")).resolve("sample-captures");
+        String noise = samples.resolve("da60-noise-input-shorted.wav").toString();
+        CliRun r = CliRun.of("analyze", "--fs-volts", "40", "--load", "8", noise);
+        assertEquals(0, r.exit(), r.err());
+        assertTrue(r.out().contains("noise ") && r.out().contains("hum ") && r.out().contains("not a test tone"), r.out());
+        for (String absent : new String[] {"THD", "crossover", "W into", "clipping"})
+            assertTrue(!r.out().contains(absent), absent + " in " + r.out());
+        Path folder = java.nio.file.Files.createDirectories(dir.resolve("noise-bench"));
+        java.nio.file.Files.copy(Path.of(noise), folder.resolve("da60-noise-input-shorted.wav"));
+        java.nio.file.Files.writeString(folder.resolve("bench.txt"), "*.wav fs-volts=40 load=8\n");
+        CliRun b = CliRun.of("bench", "--out", dir.resolve("report").toString(), folder.toString());
+        assertEquals(0, b.exit(), b.err());
+        String page = java.nio.file.Files.readString(dir.resolve("report/report.html"));
+        assertTrue(page.contains("noise capture: noise"), page);
+        assertTrue(!page.contains("Crossover:"), "no crossover paragraph for a noise capture");
+    }
 }
