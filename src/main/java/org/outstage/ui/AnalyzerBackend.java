@@ -228,6 +228,17 @@ final class AnalyzerBackend implements Backend {
     static List<FigureRow> figures(Measurement m) {
         List<FigureRow> rows = new ArrayList<>();
         String u = m.unit();
+        if (m.noise().isPresent()) {
+            // a noise capture: its strongest line is hum or noise, not a test tone; the noise and hum rows follow
+            // (Spec sheet), and no distortion, power or stage figures of that line are given (as analyze's table)
+            String why = "noise capture: no test tone";
+            rows.add(new FigureRow("frequencyValue", "Strongest line", num(m.fundamental().frequencyHz()), "Hz", "hum or noise, not a test tone"));
+            rows.add(new FigureRow("levelValue", "Its level (rms)", num(m.fundamental().rms()), u, ""));
+            rows.add(new FigureRow("dcValue", "DC offset", num(m.dcOffset()), u, ""));
+            rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", why));
+            rows.add(new FigureRow("clippingValue", "Clipping", "not measured", "", why));
+            return rows;
+        }
         rows.add(new FigureRow("frequencyValue", "Fundamental", num(m.fundamental().frequencyHz()), "Hz", ""));
         String levelNote = num(MeasurementCharts.spectrumShiftDb(m)) + " " + MeasurementCharts.spectrumUnit(m);
         rows.add(new FigureRow("levelValue", "Level (rms)", num(m.fundamental().rms()), u, levelNote));

@@ -355,6 +355,9 @@ class WorkbenchTest {
         assertEquals(AnalyzerBackend.db(n.snrRe1WDb().orElseThrow()) + " dB", shown(robot, "sheetSnrValue"));
         assertEquals(AnalyzerBackend.num(n.mainsHz().orElseThrow()) + " Hz", shown(robot, "sheetHumValue"));
         assertEquals(AnalyzerBackend.num(n.rms()), row("noiseValue").value());
+        // the hum line is not a test tone: no THD or power row for it, and no stage figures
+        assertTrue(pane.figuresTable.getItems().stream().noneMatch(r -> r.id().equals("thdValue") || r.id().equals("powerValue")));
+        assertEquals("not measured", row("crossoverValue").value());
         // the noise spectrum is the analysis' spectrum in dBV, with one marker per hum line at its level and the noise as lines
         var spec = pane.specView.specChart.spec().orElseThrow();
         assertEquals(m.spectrum().levelDb()[100] + org.outstage.plot.MeasurementCharts.spectrumShiftDb(m), spec.series().get(0).yAt(100), 1e-9);
