@@ -306,6 +306,11 @@ public final class Analyzer {
         // ---------------------------------------------------------------- long records
 
         Measurement longRecord(double[] span, SineFit fit) {
+            // a fit that did not settle on a line weaker than its residual is no tone at all (a sweep, or noise
+            // without a dominant line): its "fundamental" would be wherever the iteration stopped
+            double fitPower = fit.amplitudePeak() * fit.amplitudePeak() / 2;
+            if (!fit.converged() && !(fitPower > fit.residualRms() * fit.residualRms()))
+                return notMeasured("no clear spectral line: the sine fit did not settle, and its line is weaker than what is left over");
             double f = fit.frequencyHz();
             // power-of-two blocks (fast FFT), at least 50 % overlap, hop chosen so the blocks tile the record
             int len = Integer.highestOneBit((int) Math.min(n, MAX_BLOCK));
@@ -386,6 +391,13 @@ public final class Analyzer {
         // ---------------------------------------------------------------- short records
 
         Measurement shortRecord(double[] y, SineFit fit) {
+            // The rule at the end (the fundamental must outweigh what the harmonic fit leaves over) cannot pass when
+            // the sine fit's line holds under 1 % of its residual's power (THD+N above 1000 %): say so before the
+            // harmonic fit, whose cost on a record that is not a steady tone (an exponential sweep read as a few-hertz
+            // "tone") was seconds of iterations that do not settle.
+            double fitPower = fit.amplitudePeak() * fit.amplitudePeak() / 2;
+            if (!(fitPower >= 0.01 * fit.residualRms() * fit.residualRms()))
+                return notMeasured("no clear spectral line: the fitted fundamental is weaker than what is left over");
             double f0 = fit.frequencyHz();
             int orders = 1;
             for (int k = 2; k <= s.harmonics() && k * f0 < fs / 2 * 0.98; k++) orders = k;

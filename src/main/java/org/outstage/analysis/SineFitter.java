@@ -23,6 +23,8 @@ import org.outstage.Require;
 public final class SineFitter {
     private static final int ANCHOR = 256;
     private static final int MAX_ITERATIONS = 30;
+    /** Consecutive frequency steps at the quarter-bin limit after which the iteration gives up (two bins walked). */
+    private static final int MAX_CLAMPED_STEPS = 8;
 
     private SineFitter() {}
 
@@ -124,14 +126,21 @@ public final class SineFitter {
         double f = f0;
         double[] abc = solve(y, fs, f, false, 0, 0, wt);
         boolean converged = false;
-        int it = 0;
+        int it = 0, clamped = 0;
         while (it < MAX_ITERATIONS) {
             it++;
             double[] x = solve(y, fs, f, true, abc[0], abc[1], wt);
             double dOmega = x[3];
             double df = dOmega / (2 * Math.PI);
             double limit = 0.25 * bin;
-            if (Math.abs(df) > limit) df = Math.copySign(limit, df);
+            if (Math.abs(df) > limit) {
+                df = Math.copySign(limit, df);
+                // a start within a fraction of a bin needs a few full steps at most; walking further finds no line
+                // near the start (a sweep or noise), and the remaining iterations would not settle either
+                if (++clamped > MAX_CLAMPED_STEPS) break;
+            } else {
+                clamped = 0;
+            }
             f += df;
             if (!(f > 0) || f >= fs / 2) break;
             abc = new double[] {x[0], x[1], x[2]};

@@ -77,4 +77,23 @@ class SineFitterTest {
         assertEquals(f, weighted.frequencyHz(), 1e-7);
         assertEquals(1.0, weighted.amplitudePeak(), 1e-4);
     }
+
+    /**
+     * An exponential sine sweep (Farina 2000: f(t) = f1·(f2/f1)^(t/T)) has no steady line: the four-parameter fit
+     * must not settle on it, and the analysis names the record as having no clear line.
+     */
+    @Test
+    void exponentialSweep_isNoTone() {
+        double fs = 48000, f1 = 20, f2 = 20000, t = 4;
+        double[] y = new double[(int) (fs * t)];
+        double k = Math.log(f2 / f1);
+        for (int i = 0; i < y.length; i++) {
+            double ti = i / fs;
+            y[i] = 0.5 * Math.sin(2 * Math.PI * f1 * t / k * (Math.exp(ti / t * k) - 1));
+        }
+        SineFit fit = SineFitter.fit(y, fs);
+        assertTrue(!fit.converged(), "a sweep is not a tone: " + fit);
+        Measurement m = Analyzer.analyze(y, fs, org.outstage.capture.SampleUnit.FULL_SCALE);
+        assertTrue(!m.measured() && m.notMeasuredReason().orElseThrow().startsWith("no clear spectral line"), m.fundamental() + " " + m.thdN() + " " + m.method() + " " + m.stage());
+    }
 }
