@@ -71,7 +71,14 @@ final class LiveView implements WorkbenchView {
     final FlowPane figures = new FlowPane(18, 6);
     final ChartCanvas gainChart = WorkbenchView.chart("liveGainChart");
     final ChartCanvas thdChart = WorkbenchView.chart("liveThdChart");
-    private final List<double[]> history = new ArrayList<>();   // {time s, gain at zero (NaN if none), THD %}
+    private final List<double[]> history = new ArrayList<>();   // {time s, gain at zero (NaN if none), THD %, σ of the gain}
+
+    /**
+     * A block's gain at zero goes on the strip chart only when its standard error is at most this (a quarter of the
+     * large-signal gain): a short block at a low level can read the crossover region too coarsely to say anything, and
+     * its value would swing the chart's scale by thousands of percent while the figure row shows it with its σ.
+     */
+    static final double STRIP_MAX_STD_ERROR = 0.25;
     private final List<Measurement> uncalibrated = new ArrayList<>();
     private LiveSource.Running running;
     private LiveResult last;
@@ -94,8 +101,10 @@ final class LiveView implements WorkbenchView {
         deviceChoice.setId("liveDevice");
         signalChoice.setId("liveSignal");
         signalChoice.setEditable(true);
-        signalChoice.getItems().setAll("sine:1000", "sine:997", "sine:100", "twin:19000,20000", "silence");
-        signalChoice.setValue("sine:1000");
+        // 997 Hz (AES17 practice): one soundcard plays and records on one clock, and 1 kHz at 48 kHz would repeat
+        // 48 sample phases, too few to observe the crossing (docs/diagnosis.md)
+        signalChoice.getItems().setAll("sine:997", "sine:1000", "sine:100", "twin:19000,20000", "silence");
+        signalChoice.setValue("sine:997");
         levelField.setId("liveLevel");
         levelField.setPrefColumnCount(5);
         startButton.setId("liveStart");
@@ -312,12 +321,15 @@ final class LiveView implements WorkbenchView {
         blocks++;
         Optional<Measurement> m = r.measurements().isEmpty() ? Optional.empty() : Optional.of(r.measurements().get(0));
         m.filter(x -> x.measured() && x.unit().equals("FS")).ifPresent(x -> { uncalibrated.add(x); if (uncalibrated.size() > 10) uncalibrated.remove(0); });
-        double gain = Double.NaN, thd = Double.NaN;
+        double gain = Double.NaN, thd = Double.NaN, se = Double.NaN;
         if (m.isPresent() && m.get().measured()) {
             thd = m.get().thd().percent();
-            if (m.get().stage() instanceof StageDiagnosis.Measured d) gain = d.crossover().gainAtZero();
+            if (m.get().stage() instanceof StageDiagnosis.Measured d) {
+                gain = d.crossover().gainAtZero();
+                se = d.crossover().gainAtZeroStdError();
+            }
         }
-        history.add(new double[] {r.timeSeconds(), gain, thd});
+        history.add(new double[] {r.timeSeconds(), gain, thd, se});
         if (history.size() > HISTORY) history.remove(0);
         showFigures(Optional.of(r));
         drawStrip();
@@ -336,8 +348,7 @@ final class LiveView implements WorkbenchView {
             figure("liveThd", "THD", AnalyzerBackend.pct(x.thd().percent()) + " %");
             figure("liveThdn", "THD+N", AnalyzerBackend.pct(x.thdN().percent()) + " %");
             if (x.stage() instanceof StageDiagnosis.Measured d) {
-                figure("liveGain", "Gain at zero", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero())
-                        + "  " + d.crossover().verdict().label());
+                figure("liveGain", "Gain at zero", gainText(d.crossover()));
                 Label clip = figure("liveClipping", "Clipping", d.clipping().detected() ? "clipping" : "no");
                 if (d.clipping().detected()) clip.setStyle(clip.getStyle() + "-fx-text-fill: #a0281e;");
             } else if (x.stage() instanceof StageDiagnosis.NotMeasured n) {
@@ -349,6 +360,12 @@ final class LiveView implements WorkbenchView {
         figure("liveDropped", "Dropped frames", r.map(x -> Long.toString(x.droppedFramesTotal())
                 + (x.skippedBlocks() > 0 ? " (" + x.skippedBlocks() + " blocks skipped)" : "")).orElse("—"));
         figure("liveBlock", "Block", r.map(x -> x.block() + " at " + AnalyzerBackend.num(x.timeSeconds()) + " s").orElse("—"));
+    }
+
+    /** The gain at zero with its standard error and the verdict, e.g. "0.9776 ± 0.0123  optimal". */
+    static String gainText(org.outstage.analysis.stage.CrossoverMetrics c) {
+        String se = Double.isFinite(c.gainAtZeroStdError()) ? String.format(Locale.ROOT, " ± %.2g", c.gainAtZeroStdError()) : "";
+        return String.format(Locale.ROOT, "%.4f", c.gainAtZero()) + se + "  " + c.verdict().label();
     }
 
     /** Adds a figure (small name above a large value) to the row; the value label carries {@code id}. */
@@ -371,8 +388,18 @@ final class LiveView implements WorkbenchView {
         }
         // gain at zero in % of the large-signal gain (a ratio shown as percent at the edge), THD on a log scale
         double[] t = new double[n], g = new double[n], d = new double[n];
-        for (int i = 0; i < n; i++) { t[i] = history.get(i)[0]; g[i] = 100 * history.get(i)[1]; d[i] = history.get(i)[2]; }
-        gainChart.setSpec(ChartSpec.of("Gain at zero against time", Axis.linear("Time", "s"), Axis.linear("Gain at zero", "%"),
+        int left = 0;
+        for (int i = 0; i < n; i++) {
+            double[] h = history.get(i);
+            t[i] = h[0];
+            d[i] = h[2];
+            boolean sure = h[3] <= STRIP_MAX_STD_ERROR;   // false for NaN too
+            if (!sure && Double.isFinite(h[1])) left++;
+            g[i] = sure ? 100 * h[1] : Double.NaN;   // a gap in the line
+        }
+        String title = "Gain at zero against time" + (left > 0 ? String.format(Locale.ROOT,
+                " (%d of %d blocks left out: standard error above %.0f %%)", left, n, 100 * STRIP_MAX_STD_ERROR) : "");
+        gainChart.setSpec(ChartSpec.of(title, Axis.linear("Time", "s"), Axis.linear("Gain at zero", "%"),
                 List.of(new Series("gain at zero", t, g, Series.Style.LINE, Series.Role.MEASURED))));
         thdChart.setSpec(ChartSpec.of("THD against time", Axis.linear("Time", "s"), Axis.log("THD", "%"),
                 List.of(new Series("THD", t, d, Series.Style.LINE, Series.Role.MEASURED_ALT))));

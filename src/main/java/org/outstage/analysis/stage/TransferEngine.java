@@ -155,7 +155,10 @@ final class TransferEngine {
         // crossover: the gain at zero from the raw samples with a data-driven window (AdaptiveSlope); the binned,
         // ±h-bin fit smears a notch narrower than its window upwards
         double hMax = (h + 0.5) * width;
-        Optional<AdaptiveSlope.Estimate> a0 = AdaptiveSlope.at(x, y, 0, hMax, noise);
+        // a tone locked to the sample rate (1 kHz at 48 kHz: 48 phases) puts its samples near zero on a few values only,
+        // one of them possibly exactly at zero: then no window sees the crossing, whatever its samples say
+        Optional<AdaptiveSlope.Estimate> a0 = largestGapWithin(x, hMax) > MAX_GAP_NEAR_ZERO * hMax ? Optional.empty()
+                : AdaptiveSlope.at(x, y, 0, hMax, noise);
         double g0, g0NoiseVar, g0Bias, g0Window;
         if (a0.isPresent()) {
             g0 = a0.get().slope();
@@ -203,6 +206,27 @@ final class TransferEngine {
                 new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer), notch[1],
                         notchDepth[1]));
         return new Result(transfer, clipping, crossover);
+    }
+
+    /**
+     * The largest empty stretch of the drive within the crossover window ±h, as a fraction of h, beyond which the
+     * crossing counts as not observed (the samples then sit in a few clusters, e.g. a tone locked to the sample rate).
+     */
+    static final double MAX_GAP_NEAR_ZERO = 0.25;
+
+    /** The largest interval of [−h, h] holding no value of x (the window's edges count as values). */
+    static double largestGapWithin(double[] x, double h) {
+        int k = 0;
+        for (double v : x) if (Math.abs(v) <= h) k++;
+        double[] near = new double[k + 2];
+        near[0] = -h;
+        near[1] = h;
+        k = 2;
+        for (double v : x) if (Math.abs(v) <= h) near[k++] = v;
+        Arrays.sort(near);
+        double gap = 0;
+        for (int i = 1; i < near.length; i++) gap = Math.max(gap, near[i] - near[i - 1]);
+        return gap;
     }
 
     // ---------------------------------------------------------------- bins

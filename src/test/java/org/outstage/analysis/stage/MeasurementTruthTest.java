@@ -74,6 +74,21 @@ class MeasurementTruthTest {
         assertTrue(c.explanation().contains("distinct phases"), c.explanation());
     }
 
+    /**
+     * The same locked tone with a sample exactly at each zero crossing (phase −90°: the sine starts at zero) leaves
+     * the nearest other samples some 3.8 V (2π/48 of the peak) away: one drive value in the crossing, which must not
+     * pass for an observed crossing either (it read a gain at zero of 0.0000 ± 4e-7 against a truth near 0.6).
+     */
+    @Test
+    void toneLockedToSampleRate_sampleAtZero_verdictUnclearWithReason() {
+        StageFixtures.Pair p = PushPullTruth.biasedAt(0.5e-3);
+        double[] y = StageFixtures.quantise(StageFixtures.noisy(PushPullTruth.drive(p, 48000, 48000, 1000, 29 * 8.22 / 8, -Math.PI / 2),
+                FULL_SCALE * 1e-6, 9), FULL_SCALE, 24);
+        CrossoverMetrics c = crossover(y, 48000);
+        assertEquals(BiasVerdict.UNCLEAR, c.verdict(), c.explanation());
+        assertTrue(c.explanation().contains("distinct phases"), c.explanation());
+    }
+
     /** The record generator and the fixture's per-point solver solve the same equations: they must agree. */
     @Test
     void recordGenerator_agreesWithPointSolver() {

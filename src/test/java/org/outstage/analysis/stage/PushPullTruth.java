@@ -10,11 +10,11 @@ package org.outstage.analysis.stage;
  * Implicit differentiation: dv/du = −(∂F/∂u)/(∂F/∂v) = (gn + gp)/(gn + gp + 1/RL) with gn = 1/(Re + VT/In),
  * gp = 1/(Re + VT/Ip). At u = 0 both devices idle at Iq and this is RL/(RL + (Re + VT/Iq)/2).
  */
-final class PushPullTruth {
+public final class PushPullTruth {
     private PushPullTruth() {}
 
     /** The pair biased so that each emitter resistor carries Vq (Vq = Iq·Re); Vq = 0 is class B (Vbe = 0 at idle). */
-    static StageFixtures.Pair biasedAt(double vqVolts) {
+    public static StageFixtures.Pair biasedAt(double vqVolts) {
         double re = 0.22, is = 1e-13;
         double iq = vqVolts > 0 ? vqVolts / re : is;
         return new StageFixtures.Pair(iq, re, 8.0, StageFixtures.VT_300K, is);
@@ -26,7 +26,7 @@ final class PushPullTruth {
      * v = RL·(In − Ip), warm-started from the previous sample (steps limited to 2 nepers). Same equations as
      * {@link StageFixtures.Pair#out}, about ten times faster for a record.
      */
-    static double[] drive(StageFixtures.Pair p, int n, double fs, double f, double amplitude, double phase) {
+    public static double[] drive(StageFixtures.Pair p, int n, double fs, double f, double amplitude, double phase) {
         double is = p.isAmps(), re = p.reOhms(), vt = p.vt(), rl = p.loadOhms(), vh = p.halfBias();
         double wq = Math.log(p.iqAmps() / is), wn = wq, wp = wq;
         double[] y = new double[n];

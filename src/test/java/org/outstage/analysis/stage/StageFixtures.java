@@ -4,7 +4,7 @@ import java.util.Random;
 import java.util.function.DoubleUnaryOperator;
 
 /** Shared synthetic signals and the exponential-law emitter-follower pair used as an oracle. */
-final class StageFixtures {
+public final class StageFixtures {
     private StageFixtures() {}
 
     /** Thermal voltage at 300 K from the exact 2019 SI constants (docs/references.md §7). */
@@ -42,7 +42,7 @@ final class StageFixtures {
      * emitter resistors Re, load RL, bias set so that each device idles at Iq. Base currents neglected.
      * Solved per point by Newton with a bisection safeguard.
      */
-    record Pair(double iqAmps, double reOhms, double loadOhms, double vt, double isAmps) {
+    public record Pair(double iqAmps, double reOhms, double loadOhms, double vt, double isAmps) {
         static Pair of(double iqAmps) { return new Pair(iqAmps, 0.22, 8.0, VT_300K, 1e-13); }
 
         double halfBias() { return vt * Math.log(iqAmps / isAmps) + iqAmps * reOhms; }
