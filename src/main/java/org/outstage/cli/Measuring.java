@@ -4,11 +4,17 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
 import java.util.OptionalInt;
 import org.outstage.analysis.AnalysisSettings;
 import org.outstage.analysis.Analyzer;
+import org.outstage.analysis.Band;
+import org.outstage.analysis.FrequencyResponse;
+import org.outstage.analysis.Levels;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.SpecConditions;
+import org.outstage.analysis.SweepResponse;
 import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureFormatException;
 import org.outstage.capture.CaptureReader;
@@ -39,9 +45,35 @@ public final class Measuring {
         AnalysisSettings settings = options.settings();
         Capture capture = open(file, options);
         OptionalInt generator = options.generatorChannelFor(file);
-        return new FileResult(file.toString(), capture, measure(capture, settings, options.specConditions(), options.channel(), generator,
-                file.toString()), generator);
+        List<Measurement> ms = measure(capture, settings, options.specConditions(), options.channel(), generator, file.toString());
+        if (generator.isPresent() && capture.frameCount() <= SWEEP_CHECK_MAX_FRAMES) {
+            // A capture with no tone beside its generator channel may be an exponential sweep (SweepResponse's rule, as
+            // verify and the workbench read it): then it is no noise capture, and its "hum" lines would be the sweep's
+            List<Measurement> checked = new ArrayList<>();
+            List<String> notes = new ArrayList<>();
+            for (Measurement m : ms) {
+                if (m.noise().isPresent() && SweepResponse.sweepCandidate(m, options.specConditions().stimulus())) {
+                    try {
+                        FrequencyResponse r = SweepResponse.measure(capture.readChannel(m.channel() - 1),
+                                capture.readChannel(generator.getAsInt() - 1), capture.sampleRateHz(), true, Band.AUDIO_20_20K);
+                        m = m.withSpecFigures(m.imd(), Optional.empty(), m.crosstalk());
+                        notes.add(String.format(Locale.ROOT, "channel %d is an exponential sweep (%s to %s in %.3g s) against the generator on channel %d:"
+                                + " its response and THD against frequency come from `response`; no noise or hum figures", m.channel(),
+                                Levels.formatHz(r.sweepLowHz()), Levels.formatHz(r.sweepHighHz()), r.sweepSeconds(), generator.getAsInt()));
+                    } catch (IllegalArgumentException e) {
+                        // not a sweep: the noise figures stand
+                    }
+                }
+                checked.add(m);
+            }
+            ms = List.copyOf(checked);
+            if (!notes.isEmpty()) capture = capture.withWarnings(notes);
+        }
+        return new FileResult(file.toString(), capture, ms, generator);
     }
+
+    /** Longest capture (frames) read whole to check for a sweep: 2^22, 44 s at 96 kHz. */
+    static final long SWEEP_CHECK_MAX_FRAMES = 1L << 22;
 
     /** Opens a capture with the options' calibration; a reader error becomes a {@link BadInputException}. */
     public static Capture open(Path file, AnalyzeOptions options) {

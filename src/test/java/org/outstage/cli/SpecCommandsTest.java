@@ -277,4 +277,21 @@ class SpecCommandsTest {
         assertTrue(page.contains("noise capture: noise"), page);
         assertTrue(!page.contains("Crossover:"), "no crossover paragraph for a noise capture");
     }
+
+    /**
+     * The sample sweep (generator on channel 1 by its folder's notes) holds no tone: `analyze` must not present it as
+     * a noise capture with "hum" lines at the sweep's frequencies, but say it is a sweep and leave its figures to
+     * `response`, as verify and the workbench read it (SweepResponse's rule).
+     */
+    @Test
+    @SuppressWarnings("unchecked")
+    void analyze_sampleSweep_isNamedASweep_notANoiseCapture() {
+        Path samples = Path.of(System.getProperty("outstage.project.dir", ".")).resolve("sample-captures");
+        CliRun r = CliRun.of("analyze", "--json", samples.resolve("da60-sweep-gen-ch1-amp-ch2-1W.wav").toString());
+        assertEquals(0, r.exit(), r.err());
+        Map<String, Object> c = firstCapture(r.out());
+        assertEquals(2.0, ((Number) c.get("channel")).doubleValue(), 0.0);
+        assertEquals(null, c.get("noise"), "no noise figures for a sweep");
+        assertTrue(((List<Object>) c.get("warnings")).stream().anyMatch(w -> String.valueOf(w).contains("exponential sweep")), r.out());
+    }
 }
