@@ -242,7 +242,8 @@ public final class LiveCommand implements Callable<Integer> {
         sb.append(String.format(Locale.ROOT, "  %.2f Hz  THD %.4f %%  THD+N %.4f %%%s", m.fundamental().frequencyHz(), m.thd().percent(), m.thdN().percent(),
                 m.thdN().atFloor() ? " (floor)" : ""));
         if (m.stage() instanceof StageDiagnosis.Measured d) {
-            sb.append(String.format(Locale.ROOT, "  gain@0 %.4f %s", d.crossover().gainAtZero(), d.crossover().verdict().label()));
+            sb.append(String.format(Locale.ROOT, "  gain@0 %.4f ± %.2g %s", d.crossover().gainAtZero(), d.crossover().gainAtZeroStdError(),
+                    d.crossover().verdict().label()));
             sb.append(d.clipping().detected() ? "  CLIPPING" : "  no clip");
         } else {
             sb.append("  crossover n/a");
