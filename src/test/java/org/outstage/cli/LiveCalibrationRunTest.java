@@ -52,4 +52,18 @@ class LiveCalibrationRunTest {
         assertTrue(LiveCapture.steadyTail(rms, 2));
         assertFalse(LiveCapture.steadyTail(rms, 6), "fewer blocks than asked for");
     }
+
+    @Test
+    void textLine_givesGainAtZeroWithItsStandardError() {
+        // 1 s of 997 Hz (not locked to 48 kHz) through the exponential pair at 10 mV (docs/references.md §7), in volts
+        double[] y = org.outstage.analysis.stage.PushPullTruth.drive(org.outstage.analysis.stage.PushPullTruth.biasedAt(0.010),
+                48_000, 48_000, 997, 20, 0.3);
+        org.outstage.capture.Capture c = org.outstage.capture.Capture.inMemory("block", 48_000, SampleUnit.VOLTS, y);
+        Measurement m = Analyzer.analyze(c, 0, org.outstage.analysis.AnalysisSettings.defaults());
+        var d = (org.outstage.analysis.stage.StageDiagnosis.Measured) m.stage();
+        String line = LiveCommand.textLine(new org.outstage.live.LiveResult(0, 1, 0, 0, 0, List.of(m), c, 0, 0), m);
+        String want = String.format(java.util.Locale.ROOT, "gain@0 %.4f ± %.2g %s", d.crossover().gainAtZero(),
+                d.crossover().gainAtZeroStdError(), d.crossover().verdict().label());
+        assertTrue(line.contains(want), line + " lacks " + want);
+    }
 }
