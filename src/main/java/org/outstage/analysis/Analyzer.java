@@ -175,6 +175,8 @@ public final class Analyzer {
         final long n;
         final double lowHz, highHz;
         final Weighting weighting;
+        /** The coarse peak search's spectrum of the span's first samples (set by the fit, before the stage starts). */
+        HannSpectrum coarse;
 
         Run(Capture capture, int index, AnalysisSettings s) {
             this.capture = capture;
@@ -255,9 +257,9 @@ public final class Analyzer {
                     throw new IllegalArgumentException("reference channel " + (ref + 1) + " does not exist in " + capture.name()
                             + " (it has " + capture.channelCount() + ")");
                 if (ref == index) throw new IllegalArgumentException("reference channel " + (ref + 1) + " is the analysed channel");
-                d = StageAnalyzer.diagnose(span, capture.readChannel(ref, span.length), fs, fit, ss);
+                d = StageAnalyzer.diagnose(span, capture.readChannel(ref, span.length), fs, fit, ss, Optional.ofNullable(coarse));
             } else {
-                d = StageAnalyzer.diagnose(span, fs, fit, ss);
+                d = StageAnalyzer.diagnose(span, fs, fit, ss, Optional.ofNullable(coarse));
             }
             return d;
         }
@@ -270,9 +272,10 @@ public final class Analyzer {
             int pre = Math.min(span.length, 1 << 16);
             double[] prefix = pre == span.length ? span : Arrays.copyOf(span, pre);
             // with a hint: the strongest line within ±10 % of it (the hint need not be exact)
+            coarse = HannSpectrum.of(prefix, pre);   // the signal check reads it again when it looks at the same samples
             double start = s.fundamentalHz().isPresent()
-                    ? SineFitter.coarseFrequency(prefix, fs, 0.9 * s.fundamentalHz().getAsDouble(), 1.1 * s.fundamentalHz().getAsDouble())
-                    : SineFitter.coarseFrequency(prefix, fs);
+                    ? SineFitter.coarseFrequency(coarse, fs, 0.9 * s.fundamentalHz().getAsDouble(), 1.1 * s.fundamentalHz().getAsDouble())
+                    : SineFitter.coarseFrequency(coarse, fs, 0, Double.POSITIVE_INFINITY);
             // On records of many cycles, refine with window-weighted least squares: the window's sidelobes keep
             // harmonics and other tones from biasing the frequency of a fit over a non-integer number of cycles.
             // The iteration converges to the same point from any start within a fraction of a bin, so it starts from

@@ -48,20 +48,17 @@ public final class SineFitter {
     static double coarseFrequency(double[] samples, double sampleRateHz, double loHz, double hiHz) {
         Require.positive("sampleRateHz", sampleRateHz);
         Require.atLeast("samples.length", samples.length, 8);
-        int n = Math.min(samples.length, 1 << 20);
-        double mean = 0;
-        for (int i = 0; i < n; i++) mean += samples[i];
-        mean /= n;
-        double[] buf = new double[n];
-        double[] hann = Window.HANN.samples(n);
-        for (int i = 0; i < n; i++) buf[i] = (samples[i] - mean) * hann[i];
-        Fft.of(n).realForward(buf);
+        return coarseFrequency(HannSpectrum.of(samples, Math.min(samples.length, 1 << 20)), sampleRateHz, loHz, hiHz);
+    }
+
+    /** As {@link #coarseFrequency(double[], double, double, double)}, from the Hann spectrum of the samples. */
+    static double coarseFrequency(HannSpectrum h, double sampleRateHz, double loHz, double hiHz) {
+        int n = h.length();
         int bins = n / 2;
         double[] mag = new double[bins + 1];
-        mag[0] = Math.abs(buf[0]);
         // |X| as √(re² + im²): audio spectra are far from overflow, so the slower overflow-safe hypot is not needed
-        for (int k = 1; k < bins; k++) mag[k] = Math.sqrt(buf[2 * k] * buf[2 * k] + buf[2 * k + 1] * buf[2 * k + 1]);
-        mag[bins] = (n % 2 == 0) ? Math.abs(buf[1]) : Math.sqrt(buf[2 * bins] * buf[2 * bins] + buf[1] * buf[1]);
+        for (int k = 1; k < bins; k++) mag[k] = Math.sqrt(h.power(k));
+        mag[bins] = h.lastMagnitude();
         int kLo = Math.max(2, (int) Math.floor(loHz * n / sampleRateHz));
         int kHi = (int) Math.min(bins - 1, Math.ceil(Math.min(hiHz, sampleRateHz) * n / sampleRateHz));
         if (kHi < kLo) { kLo = 2; kHi = bins - 1; }

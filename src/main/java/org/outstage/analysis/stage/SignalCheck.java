@@ -4,11 +4,10 @@ import java.util.Arrays;
 import java.util.Locale;
 import java.util.Optional;
 import org.outstage.Require;
-import org.outstage.analysis.Fft;
+import org.outstage.analysis.HannSpectrum;
 import org.outstage.analysis.Levels;
 import org.outstage.analysis.SineFit;
 import org.outstage.analysis.Stats;
-import org.outstage.analysis.Window;
 
 /**
  * Is this record a usable single sine? Returns a reason when it is not, so the caller shows a clear sentence
@@ -43,6 +42,15 @@ public final class SignalCheck {
 
     /** All rules, including the cycle-count rule that needs the fit. */
     public static Optional<String> check(double[] samples, double sampleRateHz, SineFit fit) {
+        return check(samples, sampleRateHz, fit, Optional.empty());
+    }
+
+    /**
+     * As {@link #check(double[], double, SineFit)}; {@code head}, when given, is the {@link HannSpectrum} of the first
+     * {@code head.length()} samples of {@code samples}, read instead of a new transform when the spectral rules look at
+     * as many samples.
+     */
+    public static Optional<String> check(double[] samples, double sampleRateHz, SineFit fit, Optional<HannSpectrum> head) {
         Require.notNull("fit", fit);
         Optional<String> basic = level(samples, sampleRateHz);
         if (basic.isPresent()) return basic;
@@ -51,7 +59,7 @@ public final class SignalCheck {
             return Optional.of(String.format(Locale.ROOT, "record too short: it spans %.2f cycles of the fitted %.6g Hz tone; at least one full cycle is needed",
                     cycles, fit.frequencyHz()));
         if (!fit.converged()) return Optional.of("the sine fit did not settle on one frequency: not a steady single tone");
-        return shape(samples, sampleRateHz);
+        return shape(samples, sampleRateHz, head);
     }
 
     /**
@@ -68,7 +76,7 @@ public final class SignalCheck {
     /** The rules that need no fit (use before fitting: a fit of silence or of a square is meaningless). */
     public static Optional<String> check(double[] samples, double sampleRateHz) {
         Optional<String> basic = level(samples, sampleRateHz);
-        return basic.isPresent() ? basic : shape(samples, sampleRateHz);
+        return basic.isPresent() ? basic : shape(samples, sampleRateHz, Optional.empty());
     }
 
     private static Optional<String> level(double[] x, double fs) {
@@ -90,7 +98,7 @@ public final class SignalCheck {
         return Optional.empty();
     }
 
-    private static Optional<String> shape(double[] x, double fs) {
+    private static Optional<String> shape(double[] x, double fs, Optional<HannSpectrum> head) {
         // plateau rule
         int n = x.length;
         int take = Math.min(n, 16384);
@@ -122,15 +130,10 @@ public final class SignalCheck {
         // spectral rules
         int m = Integer.highestOneBit(Math.min(n, MAX_FFT));
         if (m < 64) return Optional.empty();
-        double mean = 0;
-        for (int i = 0; i < m; i++) mean += x[i];
-        mean /= m;
-        double[] buf = new double[m];
-        Window.HANN.applyCentred(x, mean, buf);
-        Fft.of(m).realForward(buf);
+        HannSpectrum h = head.filter(s -> s.length() == m).orElseGet(() -> HannSpectrum.of(x, m));
         int half = m / 2;
         double[] p = new double[half];
-        for (int k = 1; k < half; k++) p[k] = buf[2 * k] * buf[2 * k] + buf[2 * k + 1] * buf[2 * k + 1];
+        for (int k = 1; k < half; k++) p[k] = h.power(k);
         int guard = 6;
         int k0 = guard + 1;
         for (int k = guard + 1; k < half; k++) if (p[k] > p[k0]) k0 = k;

@@ -2,6 +2,7 @@ package org.outstage.analysis.stage;
 
 import java.util.Optional;
 import org.outstage.Require;
+import org.outstage.analysis.HannSpectrum;
 import org.outstage.analysis.SineFit;
 import org.outstage.analysis.SineFitter;
 
@@ -48,11 +49,19 @@ public final class StageAnalyzer {
      * @param s            settings
      */
     public static StageDiagnosis diagnose(double[] samples, double sampleRateHz, SineFit fit, StageSettings s) {
+        return diagnose(samples, sampleRateHz, fit, s, Optional.empty());
+    }
+
+    /**
+     * As {@link #diagnose(double[], double, SineFit, StageSettings)}, with the Hann spectrum of the first samples of
+     * {@code samples} already made by the coarse peak search (the signal check reads it when it looks at as many).
+     */
+    public static StageDiagnosis diagnose(double[] samples, double sampleRateHz, SineFit fit, StageSettings s, Optional<HannSpectrum> head) {
         Require.notNull("samples", samples);
         Require.positive("sampleRateHz", sampleRateHz);
         Require.notNull("fit", fit);
         Require.notNull("settings", s);
-        Optional<String> why = SignalCheck.check(samples, sampleRateHz, fit);
+        Optional<String> why = SignalCheck.check(samples, sampleRateHz, fit, head);
         if (why.isPresent()) return new StageDiagnosis.NotMeasured(why.get());
         int n = samples.length;
         double[] x = new double[n];
@@ -74,6 +83,12 @@ public final class StageAnalyzer {
      */
     public static StageDiagnosis diagnose(double[] output, double[] reference, double sampleRateHz, SineFit outputFit,
                                           StageSettings s) {
+        return diagnose(output, reference, sampleRateHz, outputFit, s, Optional.empty());
+    }
+
+    /** As {@link #diagnose(double[], double[], double, SineFit, StageSettings)}, with the output's head spectrum. */
+    public static StageDiagnosis diagnose(double[] output, double[] reference, double sampleRateHz, SineFit outputFit,
+                                          StageSettings s, Optional<HannSpectrum> head) {
         Require.notNull("output", output);
         Require.notNull("reference", reference);
         Require.that(output.length == reference.length,
@@ -81,7 +96,7 @@ public final class StageAnalyzer {
         Require.positive("sampleRateHz", sampleRateHz);
         Require.notNull("fit", outputFit);
         Require.notNull("settings", s);
-        Optional<String> why = SignalCheck.check(output, sampleRateHz, outputFit);
+        Optional<String> why = SignalCheck.check(output, sampleRateHz, outputFit, head);
         if (why.isPresent()) return new StageDiagnosis.NotMeasured(why.get());
         Optional<String> refWhy = SignalCheck.check(reference, sampleRateHz, outputFit);
         if (refWhy.isPresent()) return new StageDiagnosis.NotMeasured("reference channel: " + refWhy.get());
