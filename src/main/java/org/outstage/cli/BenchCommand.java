@@ -84,7 +84,11 @@ public final class BenchCommand implements Callable<Integer> {
             try {
                 Capture c = CaptureReader.open(f, e.captureOptions());
                 AnalysisSettings s = e.loadOhms().isPresent() ? base.withLoadOhms(e.loadOhms().getAsDouble()) : base;
-                List<Measurement> ms = Measuring.measure(c, s, e.channel(), e.generatorChannel(), f.toString());
+                Measuring.SweepChecked checked = Measuring.sweepChecked(c, Measuring.measure(c, s, e.channel(), e.generatorChannel(), f.toString()),
+                        e.generatorChannel(), org.outstage.analysis.StimulusKind.AUTO);
+                List<Measurement> ms = checked.measurements();
+                for (String note : checked.notes()) err.println("outstage: warning: " + f + ": " + note);
+                if (!checked.notes().isEmpty()) c = c.withWarnings(checked.notes());
                 items.add(new Item(f, c, ms, e));
                 for (Measurement m : ms) o.print(FigureTable.text(f.toString(), m));
             } catch (CaptureFormatException ex) {

@@ -14,6 +14,7 @@ import org.outstage.analysis.FrequencyResponse;
 import org.outstage.analysis.Levels;
 import org.outstage.analysis.Measurement;
 import org.outstage.analysis.SpecConditions;
+import org.outstage.analysis.StimulusKind;
 import org.outstage.analysis.SweepResponse;
 import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureFormatException;
@@ -46,30 +47,39 @@ public final class Measuring {
         Capture capture = open(file, options);
         OptionalInt generator = options.generatorChannelFor(file);
         List<Measurement> ms = measure(capture, settings, options.specConditions(), options.channel(), generator, file.toString());
-        if (generator.isPresent() && capture.frameCount() <= SWEEP_CHECK_MAX_FRAMES) {
-            // A capture with no tone beside its generator channel may be an exponential sweep (SweepResponse's rule, as
-            // verify and the workbench read it): then it is no noise capture, and its "hum" lines would be the sweep's
-            List<Measurement> checked = new ArrayList<>();
-            List<String> notes = new ArrayList<>();
-            for (Measurement m : ms) {
-                if (m.noise().isPresent() && SweepResponse.sweepCandidate(m, options.specConditions().stimulus())) {
-                    try {
-                        FrequencyResponse r = SweepResponse.measure(capture.readChannel(m.channel() - 1),
-                                capture.readChannel(generator.getAsInt() - 1), capture.sampleRateHz(), true, Band.AUDIO_20_20K);
-                        m = m.withSpecFigures(m.imd(), Optional.empty(), m.crosstalk());
-                        notes.add(String.format(Locale.ROOT, "channel %d is an exponential sweep (%s to %s in %.3g s) against the generator on channel %d:"
-                                + " its response and THD against frequency come from `response`; no noise or hum figures", m.channel(),
-                                Levels.formatHz(r.sweepLowHz()), Levels.formatHz(r.sweepHighHz()), r.sweepSeconds(), generator.getAsInt()));
-                    } catch (IllegalArgumentException e) {
-                        // not a sweep: the noise figures stand
-                    }
+        SweepChecked checked = sweepChecked(capture, ms, generator, options.specConditions().stimulus());
+        if (!checked.notes().isEmpty()) capture = capture.withWarnings(checked.notes());
+        return new FileResult(file.toString(), capture, checked.measurements(), generator);
+    }
+
+    /** Measurements after {@link #sweepChecked}, and one note per channel found to be a sweep. */
+    public record SweepChecked(List<Measurement> measurements, List<String> notes) {}
+
+    /**
+     * A channel with no tone beside a generator channel may be an exponential sweep (SweepResponse's rule, as verify
+     * and the workbench read it): then it is no noise capture, and its "hum" lines would be the sweep's. Such a
+     * channel loses its noise figures and gets a note naming the sweep and `response`.
+     */
+    public static SweepChecked sweepChecked(Capture capture, List<Measurement> ms, OptionalInt generator, StimulusKind stimulus) {
+        if (generator.isEmpty() || capture.frameCount() > SWEEP_CHECK_MAX_FRAMES) return new SweepChecked(ms, List.of());
+        List<Measurement> checked = new ArrayList<>();
+        List<String> notes = new ArrayList<>();
+        for (Measurement m : ms) {
+            if (m.noise().isPresent() && SweepResponse.sweepCandidate(m, stimulus)) {
+                try {
+                    FrequencyResponse r = SweepResponse.measure(capture.readChannel(m.channel() - 1),
+                            capture.readChannel(generator.getAsInt() - 1), capture.sampleRateHz(), true, Band.AUDIO_20_20K);
+                    m = m.withSpecFigures(m.imd(), Optional.empty(), m.crosstalk());
+                    notes.add(String.format(Locale.ROOT, "channel %d is an exponential sweep (%s to %s in %.3g s) against the generator on channel %d:"
+                            + " its response and THD against frequency come from `response`; no noise or hum figures", m.channel(),
+                            Levels.formatHz(r.sweepLowHz()), Levels.formatHz(r.sweepHighHz()), r.sweepSeconds(), generator.getAsInt()));
+                } catch (IllegalArgumentException e) {
+                    // not a sweep: the noise figures stand
                 }
-                checked.add(m);
             }
-            ms = List.copyOf(checked);
-            if (!notes.isEmpty()) capture = capture.withWarnings(notes);
+            checked.add(m);
         }
-        return new FileResult(file.toString(), capture, ms, generator);
+        return new SweepChecked(List.copyOf(checked), List.copyOf(notes));
     }
 
     /** Longest capture (frames) read whole to check for a sweep: 2^22, 44 s at 96 kHz. */

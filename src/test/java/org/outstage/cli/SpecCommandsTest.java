@@ -293,5 +293,17 @@ class SpecCommandsTest {
         assertEquals(2.0, ((Number) c.get("channel")).doubleValue(), 0.0);
         assertEquals(null, c.get("noise"), "no noise figures for a sweep");
         assertTrue(((List<Object>) c.get("warnings")).stream().anyMatch(w -> String.valueOf(w).contains("exponential sweep")), r.out());
+        // bench (and the no-argument run of tools/outstage, which is bench on the sample folder) reads it the same way
+        Path folder = dir.resolve("sweep-bench");
+        try {
+            java.nio.file.Files.createDirectories(folder);
+            java.nio.file.Files.copy(samples.resolve("da60-sweep-gen-ch1-amp-ch2-1W.wav"), folder.resolve("sweep.wav"));
+            java.nio.file.Files.writeString(folder.resolve("bench.txt"), "*.wav fs-volts=40 load=8 reference=1\n");
+        } catch (java.io.IOException e) {
+            throw new java.io.UncheckedIOException(e);
+        }
+        CliRun b = CliRun.of("bench", "--out", dir.resolve("sweep-report").toString(), folder.toString());
+        assertEquals(0, b.exit(), b.err());
+        assertTrue(b.err().contains("exponential sweep") && !b.out().contains("hum "), b.out() + b.err());
     }
 }
