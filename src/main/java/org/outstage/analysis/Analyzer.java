@@ -282,18 +282,24 @@ public final class Analyzer {
             // the coarse peak when the prefix is at least half the span (the peak is then within a small fraction of
             // the span's bin), else from the prefix's four-parameter fit; the unweighted fit of the whole span is made
             // only when the weighted one does not settle.
-            boolean weightedTried = false;
-            if (span.length <= 2 * pre && start * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
-                weightedTried = true;
-                SineFit weighted = SineFitter.fourParameterWeighted(span, fs, start, WINDOW.samples(span.length));
-                if (weighted.converged() && weighted.frequencyHz() > 0 && weighted.frequencyHz() < fs / 2) return weighted;
+            boolean fromCoarse = span.length <= 2 * pre;
+            if (fromCoarse) {
+                Optional<SineFit> w = weighted(span, start);
+                if (w.isPresent()) return w.get();
             }
             SineFit first = SineFitter.fourParameter(prefix, fs, start);
-            if (!weightedTried && first.frequencyHz() * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64) {
-                SineFit weighted = SineFitter.fourParameterWeighted(span, fs, first.frequencyHz(), WINDOW.samples(span.length));
-                if (weighted.converged() && weighted.frequencyHz() > 0 && weighted.frequencyHz() < fs / 2) return weighted;
+            if (!fromCoarse) {
+                Optional<SineFit> w = weighted(span, first.frequencyHz());
+                if (w.isPresent()) return w.get();
             }
             return pre == span.length ? first : SineFitter.fourParameter(span, fs, first.frequencyHz());
+        }
+
+        /** The window-weighted fit of a span of many cycles from {@code startHz}, when it settles inside 0…Nyquist. */
+        Optional<SineFit> weighted(double[] span, double startHz) {
+            if (!(startHz * span.length / fs >= SHORT_RECORD_CYCLES && span.length >= 64)) return Optional.empty();
+            SineFit w = SineFitter.fourParameterWeighted(span, fs, startHz, WINDOW.samples(span.length));
+            return w.converged() && w.frequencyHz() > 0 && w.frequencyHz() < fs / 2 ? Optional.of(w) : Optional.empty();
         }
 
         int maxOrder(double f, double guardHz) {

@@ -130,6 +130,11 @@ final class LiveCapture {
      * tone onset.
      */
     static boolean steadyTail(List<Double> toneRms, int blocks) {
+        return steadyTail(toneRms, blocks, STEADY_SPREAD);
+    }
+
+    /** The same test with a given largest spread (max/min − 1); also used by {@code live --calibrate-volts}. */
+    static boolean steadyTail(List<Double> toneRms, int blocks, double spread) {
         int n = toneRms.size();
         if (blocks < 1 || n < blocks) return false;
         double lo = Double.POSITIVE_INFINITY, hi = 0;
@@ -138,7 +143,7 @@ final class LiveCapture {
             lo = Math.min(lo, v);
             hi = Math.max(hi, v);
         }
-        return hi / lo - 1 <= STEADY_SPREAD;
+        return hi / lo - 1 <= spread;
     }
 
     /** Margin after the stimulus' computed arrival before the kept part of the record starts, seconds (scheduling slack). */

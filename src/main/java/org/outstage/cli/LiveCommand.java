@@ -197,14 +197,8 @@ public final class LiveCommand implements Callable<Integer> {
         int n = blocks.size();
         if (n < CALIBRATION_BLOCKS) return Optional.empty();
         List<Measurement> last = blocks.subList(n - CALIBRATION_BLOCKS, n);
-        double lo = Double.POSITIVE_INFINITY, hi = 0;
-        for (Measurement m : last) {
-            if (!m.measured()) return Optional.empty();
-            double rms = m.fundamental().rms();
-            lo = Math.min(lo, rms);
-            hi = Math.max(hi, rms);
-        }
-        return lo > 0 && hi / lo - 1 <= CALIBRATION_SPREAD ? Optional.of(List.copyOf(last)) : Optional.empty();
+        List<Double> rms = last.stream().map(m -> m.measured() ? m.fundamental().rms() : Double.NaN).toList();
+        return LiveCapture.steadyTail(rms, CALIBRATION_BLOCKS, CALIBRATION_SPREAD) ? Optional.of(List.copyOf(last)) : Optional.empty();
     }
 
     private static String levels(List<Measurement> blocks) {
