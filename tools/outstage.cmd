@@ -31,6 +31,8 @@ set "C1=-XX:TieredStopAtLevel=1"
 if /i "%~1"=="live" set "C1="
 if /i "%~1"=="watch" set "C1="
 if "%MODE%"=="cli" set "JVM=%JVM% %C1%"
+rem the workbench gets the client compiler alone on a machine of at most two cores (see tools/outstage)
+if "%MODE%"=="gui" if %NUMBER_OF_PROCESSORS% LEQ 2 set "JVM=%JVM% -XX:TieredStopAtLevel=1"
 set "CDS=%HERE%\target\cds"
 set "ARCHIVE=%CDS%\outstage-%MODE%-win.jsa"
 if /i "%OUTSTAGE_CDS%"=="off" goto run

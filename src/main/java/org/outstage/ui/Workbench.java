@@ -49,6 +49,9 @@ public final class Workbench extends Application {
 
     private WorkbenchPane pane;
 
+    /** The first capture's early open and analysis, started by {@link WorkbenchLauncher} before the toolkit. */
+    static volatile EarlyAnalysis early;
+
     @Override
     public void stop() {
         if (pane != null) pane.shutdown();   // no playback outlives the window
@@ -58,14 +61,19 @@ public final class Workbench extends Application {
     public void start(Stage stage) {
         WorkbenchPane pane = createPane();
         this.pane = pane;
-        Scene scene = new Scene(pane, 1360, 820);
-        stage.setTitle("Outstage workbench");
-        stage.setScene(scene);
-        stage.show();
         List<String> raw = getParameters().getRaw();
         boolean sample = raw.contains(SAMPLE_FLAG);
         boolean exitAfterFirstRender = raw.contains(EXIT_FLAG);
         List<Path> files = raw.stream().filter(a -> !a.equals(SAMPLE_FLAG) && !a.equals(EXIT_FLAG)).map(Path::of).toList();
+        EarlyAnalysis e = early;
+        early = null;
+        if (e != null) pane.adopt(e);
+        // the files open in the background while the window shows (their results come back on this thread after show())
+        if (!files.isEmpty()) pane.openPaths(files, sample ? SAMPLE_SESSION : Calibration.NONE);
+        Scene scene = new Scene(pane, 1360, 820);
+        stage.setTitle("Outstage workbench");
+        stage.setScene(scene);
+        stage.show();
         if (exitAfterFirstRender) {
             pane.afterFirstRender(() -> {
                 long ms = System.currentTimeMillis() - java.lang.management.ManagementFactory.getRuntimeMXBean().getStartTime();
@@ -74,7 +82,6 @@ public final class Workbench extends Application {
                 javafx.application.Platform.exit();
             });
         }
-        if (!files.isEmpty()) pane.openPaths(files, sample ? SAMPLE_SESSION : Calibration.NONE);
         if (!exitAfterFirstRender && !Cautions.dismissed(Cautions.dismissalFile())) showCautions(stage, true);
     }
 

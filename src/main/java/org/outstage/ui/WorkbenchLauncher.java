@@ -27,8 +27,32 @@ public final class WorkbenchLauncher {
             args = Arrays.copyOf(args, args.length + 1);
             args[args.length - 1] = Workbench.EXIT_FLAG;
         }
-        Warmup.start();   // the analysis path warms up on the second core while the toolkit starts
+        // the second core opens and analyses the first capture while the toolkit starts (the window takes the result);
+        // with nothing to open, a synthetic capture warms the analysis path up instead
+        Optional<Path> first = firstCapture(args);
+        if (first.isPresent()) {
+            Calibration fallback = Arrays.asList(args).contains(Workbench.SAMPLE_FLAG) ? Workbench.SAMPLE_SESSION : Calibration.NONE;
+            Workbench.early = EarlyAnalysis.start(Workbench.defaultBackend(), first.get(), fallback, UiSettings.DEFAULT);
+        } else Warmup.start();
         Application.launch(Workbench.class, Arrays.copyOf(args, args.length));
+    }
+
+    /** The capture the window will show first: the first file named, or the first capture file of the first folder. */
+    static Optional<Path> firstCapture(String[] args) {
+        for (String a : args) {
+            if (a.startsWith("--outstage-")) continue;
+            Path p = Path.of(a);
+            if (Files.isRegularFile(p)) return Optional.of(p);
+            if (Files.isDirectory(p)) {
+                try {
+                    return WorkbenchPane.captureFilesIn(p).stream().findFirst();
+                } catch (java.io.IOException e) {
+                    return Optional.empty();
+                }
+            }
+            return Optional.empty();
+        }
+        return Optional.empty();
     }
 
     /** The sample-captures folder under {@code $OUTSTAGE_HOME} or the working directory, if it exists. */

@@ -102,6 +102,8 @@ final class WorkbenchPane extends BorderPane {
     private ChartCanvas currentChart = waveformChart;
     private Node leftSide, rightSide;
     private Task<?> running;
+    /** The first capture, opened and analysed while the window was built ({@link EarlyAnalysis}), until it is used. */
+    private volatile EarlyAnalysis earlyStart;
     private UiSettings settings = UiSettings.DEFAULT;
     private boolean updatingControls;
 
@@ -259,6 +261,11 @@ final class WorkbenchPane extends BorderPane {
             views.getTabs().add(v.tab());
             for (ChartCanvas c : v.charts()) c.addEventFilter(javafx.scene.input.MouseEvent.MOUSE_PRESSED, e -> currentChart = c);
         }
+        // Only the chosen view's content joins the scene; each other view joins when first chosen. JavaFX styles and
+        // lays out the content of every tab, shown or not: with all seven in the scene the window's first show took
+        // about 0.4 s longer on the build machine (docs/performance.md). The views draw their data either way.
+        Tab chosen = views.getSelectionModel().getSelectedItem();
+        for (Tab t : views.getTabs()) if (t != chosen) deferContent(t);
         views.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> currentChart = primaryChart(b));
         // the Live view is its own task: it takes the whole width (the capture list and figures return with the other views)
         views.getSelectionModel().selectedItemProperty().addListener((o, a, b) -> {
@@ -267,6 +274,21 @@ final class WorkbenchPane extends BorderPane {
             else if (!live && getLeft() == null && leftSide != null) { setLeft(leftSide); setRight(rightSide); }
         });
         return views;
+    }
+
+    /** Keeps a tab's content out of the scene until the tab is first chosen. */
+    private static void deferContent(Tab t) {
+        Node content = t.getContent();
+        if (content == null) return;
+        t.setContent(null);
+        ChangeListener<Boolean> join = new ChangeListener<>() {
+            @Override public void changed(javafx.beans.value.ObservableValue<? extends Boolean> o, Boolean was, Boolean now) {
+                if (!now) return;
+                t.selectedProperty().removeListener(this);
+                t.setContent(content);
+            }
+        };
+        t.selectedProperty().addListener(join);
     }
 
     private ChartCanvas primaryChart(Tab t) {
@@ -357,6 +379,9 @@ final class WorkbenchPane extends BorderPane {
 
     void openPaths(List<Path> paths) { openPaths(paths, Calibration.NONE); }
 
+    /** Takes the capture and the analysis {@code early} made of a file the next {@link #openPaths} opens. */
+    void adopt(EarlyAnalysis early) { this.earlyStart = early; }
+
     /**
      * Opens files, and the capture files inside folders. Each file takes the calibration notes of its folder
      * ({@code bench.txt}, {@link BenchManifest}): full-scale volts, probe, sample rate, load, the channel roles
@@ -368,8 +393,8 @@ final class WorkbenchPane extends BorderPane {
         List<Path> files = new ArrayList<>();
         for (Path p : paths) {
             if (Files.isDirectory(p)) {
-                try (Stream<Path> s = Files.list(p)) {
-                    s.filter(f -> Files.isRegularFile(f) && isCaptureName(f)).sorted(Comparator.comparing(Path::toString)).forEach(files::add);
+                try {
+                    files.addAll(captureFilesIn(p));
                 } catch (IOException e) {
                     CaptureEntry bad = new CaptureEntry(String.valueOf(p.getFileName()), Optional.of(p));
                     bad.error = "folder cannot be read: " + e.getMessage();
@@ -397,20 +422,12 @@ final class WorkbenchPane extends BorderPane {
                     updateMessage("Opening " + en.name + "…");
                     updateProgress(i, entries.size());
                     Path file = en.path.get().toAbsolutePath();
-                    Path folder = file.getParent();
-                    Optional<BenchManifest> man = manifests.computeIfAbsent(folder, d -> {
-                        try {
-                            return Optional.of(BenchManifest.forFolder(d));
-                        } catch (Exception ex) {
-                            synchronized (notesErrors) { notesErrors.add(folder.resolve(BenchManifest.FILE_NAME) + ": " + oneLine(ex)); }
-                            return Optional.empty();
-                        }
-                    });
-                    Optional<BenchManifest.Entry> notes = man.flatMap(m -> m.firstPatternFor(file).map(x -> m.entryFor(file)));
-                    String source = notes.isPresent() ? BenchManifest.FILE_NAME + " in " + folder.getFileName() : "";
+                    Optional<BenchManifest.Entry> notes = notesFor(file, manifests, notesErrors);
+                    String source = notes.isPresent() ? BenchManifest.FILE_NAME + " in " + file.getParent().getFileName() : "";
                     Calibration cal = notes.map(Calibration::of).orElse(en.calibration);
                     try {
-                        out.add(new Opened(backend.open(en.path.get(), cal), notes, source));
+                        Capture early = earlyStart == null ? null : earlyStart.captureFor(en.path.get(), cal);
+                        out.add(new Opened(early != null ? early : backend.open(en.path.get(), cal), notes, source));
                     } catch (Exception e) {
                         out.add(new Opened(oneLine(e), notes, source));
                     }
@@ -438,13 +455,38 @@ final class WorkbenchPane extends BorderPane {
             CaptureEntry first = entries.stream().filter(x -> !x.failed()).findFirst().orElse(entries.get(0));
             if (captureList.getSelectionModel().getSelectedItem() == first) onSelect(first);
             else captureList.getSelectionModel().select(first);
-            analyzeAllForSweep();
+            afterNextPulse(this::analyzeAllForSweep);   // the chosen capture is drawn first
         });
         run(t, "Opening files");
     }
 
+    /** The capture files of a folder, in the order the workbench lists them. */
+    static List<Path> captureFilesIn(Path folder) throws IOException {
+        try (Stream<Path> s = Files.list(folder)) {
+            return s.filter(f -> Files.isRegularFile(f) && isCaptureName(f)).sorted(Comparator.comparing(Path::toString)).toList();
+        }
+    }
+
+    /**
+     * The rule of a file's folder notes that names the file, if any. {@code manifests} keeps each folder's notes
+     * for the next file; a notes file that cannot be read is reported once to {@code notesErrors}.
+     */
+    static Optional<BenchManifest.Entry> notesFor(Path file, java.util.Map<Path, Optional<BenchManifest>> manifests, List<String> notesErrors) {
+        Path folder = file.toAbsolutePath().getParent();
+        Optional<BenchManifest> man = manifests.computeIfAbsent(folder, d -> {
+            try {
+                return Optional.of(BenchManifest.forFolder(d));
+            } catch (Exception ex) {
+                synchronized (notesErrors) { notesErrors.add(folder.resolve(BenchManifest.FILE_NAME) + ": " + oneLine(ex)); }
+                return Optional.empty();
+            }
+        });
+        Path f = file.toAbsolutePath();
+        return man.flatMap(m -> m.firstPatternFor(f).map(x -> m.entryFor(f)));
+    }
+
     /** Takes a capture's calibration, channel roles and series from its folder's notes. */
-    private static void applyNotes(CaptureEntry en, BenchManifest.Entry notes, String source) {
+    static void applyNotes(CaptureEntry en, BenchManifest.Entry notes, String source) {
         en.calibration = Calibration.of(notes);
         // the generator channel: reference=N or the generator in roles= (the notes' one answer, BenchManifest.Entry)
         OptionalInt gen = notes.generatorChannel();
@@ -457,7 +499,7 @@ final class WorkbenchPane extends BorderPane {
      * The channels of an opened capture: the notes' channel and reference (from 1) when they exist in the file;
      * with a reference and no channel, the output is the first other channel (as {@code analyze --reference} does).
      */
-    private static void settleChannels(CaptureEntry en, Optional<BenchManifest.Entry> notes) {
+    static void settleChannels(CaptureEntry en, Optional<BenchManifest.Entry> notes) {
         int n = en.capture.channelCount();
         if (en.reference.isPresent() && (en.reference.getAsInt() >= n || n < 2)) en.reference = OptionalInt.empty();
         OptionalInt ch = notes.map(BenchManifest.Entry::channel).orElse(OptionalInt.empty());
@@ -591,24 +633,51 @@ final class WorkbenchPane extends BorderPane {
         int ch = e.channel;
         Calibration cal = e.calibration;
         UiSettings s = settings.withReference(e.reference);
+        EarlyAnalysis early = earlyStart;
+        earlyStart = null;   // one use: the first capture shown
+        java.util.concurrent.Future<ViewData> done = early == null ? null : early.resultFor(c, ch, cal, s).orElse(null);
+        if (early != null && done == null) early.cancel();
+        if (done != null && done.isDone()) {
+            try {
+                analysed(e, done.get());   // ready: shown in this turn, no task needed
+                return;
+            } catch (java.util.concurrent.ExecutionException | java.util.concurrent.CancellationException | InterruptedException x) {
+                done = null;   // analysed again below, and a failure reported as usual
+            }
+        }
+        java.util.concurrent.Future<ViewData> pending = done;
         Task<ViewData> t = new Task<>() {
-            @Override protected ViewData call() {
+            @Override protected ViewData call() throws InterruptedException {
                 updateMessage("Analysing " + e.name + "…");
+                if (pending != null) {
+                    try {
+                        return pending.get();
+                    } catch (java.util.concurrent.ExecutionException x) {
+                        if (x.getCause() instanceof RuntimeException r) throw r;
+                        if (x.getCause() instanceof Error r) throw r;
+                        throw new IllegalStateException(x.getCause());
+                    } catch (InterruptedException x) {
+                        pending.cancel(true);
+                        throw x;
+                    }
+                }
                 return backend.analyze(c, ch, cal, s, f -> updateProgress(f, 1), this::isCancelled);
             }
         };
-        t.setOnSucceeded(x -> {
-            e.data = t.getValue();
-            if (selected() == e) show(e.data);
-            statusText.setText(e.data.notMeasured().map(r -> e.name + ": " + r).orElse(e.name + ": analysed"));
-            refreshSweep();
-        });
+        t.setOnSucceeded(x -> analysed(e, t.getValue()));
         t.setOnFailed(x -> {
             ViewData d = ViewData.failed(e.name, "Analysis failed: " + oneLine(t.getException()));
             if (selected() == e) show(d);
             statusText.setText(d.notMeasured().get());
         });
         run(t, "Analysing " + e.name);
+    }
+
+    private void analysed(CaptureEntry e, ViewData d) {
+        e.data = d;
+        if (selected() == e) show(e.data);
+        statusText.setText(e.data.notMeasured().map(r -> e.name + ": " + r).orElse(e.name + ": analysed"));
+        refreshSweep();
     }
 
     /** Analyses every opened capture that has no result yet (for the level sweep), one after another. */
@@ -676,12 +745,18 @@ final class WorkbenchPane extends BorderPane {
         Runnable r = afterFirstRender;
         if (r != null && d.notMeasured().isEmpty()) {
             afterFirstRender = null;
-            // the figures are in the views; the next layout pulse draws them
-            Runnable[] l = new Runnable[1];
-            l[0] = () -> { getScene().removePostLayoutPulseListener(l[0]); r.run(); };
-            getScene().addPostLayoutPulseListener(l[0]);
-            javafx.application.Platform.requestNextPulse();
+            afterNextPulse(r);   // the figures are in the views; the next layout pulse draws them
         }
+    }
+
+    /** Runs {@code r} once on the FX thread after the next layout pulse (at once when the pane is in no scene). */
+    private void afterNextPulse(Runnable r) {
+        javafx.scene.Scene sc = getScene();
+        if (sc == null) { r.run(); return; }
+        Runnable[] l = new Runnable[1];
+        l[0] = () -> { sc.removePostLayoutPulseListener(l[0]); r.run(); };
+        sc.addPostLayoutPulseListener(l[0]);
+        javafx.application.Platform.requestNextPulse();
     }
 
     private Runnable afterFirstRender;

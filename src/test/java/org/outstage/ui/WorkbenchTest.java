@@ -39,6 +39,7 @@ class WorkbenchTest {
     private WorkbenchPane pane;
     private final AtomicInteger analyses = new AtomicInteger();
     private volatile UiSettings lastSettings;
+    private final List<String> analysed = new java.util.concurrent.CopyOnWriteArrayList<>();
 
     /** A cubic stage law y = g·(x − a·x³) on [−1, 1]: a small test model whose curve the test can recompute. */
     static final class CubicModel implements StageModelAdapter {
@@ -65,6 +66,7 @@ class WorkbenchTest {
             @Override public ViewData analyze(Capture c, int ch, Calibration cal, UiSettings s, java.util.function.DoubleConsumer p,
                                               java.util.function.BooleanSupplier x) {
                 analyses.incrementAndGet();
+                analysed.add(c.name());
                 lastSettings = s;
                 return fit.analyze(c, ch, cal, s, p, x);
             }
@@ -258,6 +260,58 @@ class WorkbenchTest {
         String title = pane.sweepChart.spec().orElseThrow().title();
         assertEquals("THD and THD+N against output power — 1 % THD at " + AnalyzerBackend.num(r.atOnePercent().powerWatts().orElseThrow()) + " W", title);
         assertEquals(pts.size(), pane.sweepChart.spec().get().series().get(0).size());
+    }
+
+    /** A backend that counts the analyses it is asked for, around the real one. */
+    static final class CountingBackend implements Backend {
+        final AnalyzerBackend real = new AnalyzerBackend();
+        final List<String> analysed = new java.util.concurrent.CopyOnWriteArrayList<>();
+        @Override public Capture open(Path file, Calibration c) throws Exception { return real.open(file, c); }
+        @Override public ViewData analyze(Capture c, int ch, Calibration cal, UiSettings s, java.util.function.DoubleConsumer p,
+                                          java.util.function.BooleanSupplier x) {
+            analysed.add(c.name());
+            return real.analyze(c, ch, cal, s, p, x);
+        }
+    }
+
+    /** One sample capture and the sample session's notes, in a folder of their own. */
+    private static Path oneSampleCapture(Path dir) throws Exception {
+        Files.copy(Path.of("sample-captures", "bench.txt"), dir.resolve("bench.txt"));
+        Path wav = dir.resolve("da60-level-040W.wav");
+        Files.copy(Path.of("sample-captures", "da60-level-040W.wav"), wav);
+        return wav;
+    }
+
+    @Test
+    void earlyAnalysis_theWindowTakesItAndShowsTheFiguresOfItsOwnRules(FxRobot robot, @TempDir Path dir) throws Exception {
+        Path wav = oneSampleCapture(dir);
+        CountingBackend early = new CountingBackend();
+        EarlyAnalysis a = EarlyAnalysis.start(early, WorkbenchLauncher.firstCapture(new String[] {dir.toString()}).orElseThrow(),
+                Calibration.NONE, UiSettings.DEFAULT);
+        robot.interact(() -> { pane.adopt(a); pane.openPaths(List.of(dir)); });
+        idle();
+        // analysed once, early, and not again by the window
+        assertEquals(List.of("da60-level-040W.wav"), early.analysed);
+        assertFalse(analysed.contains("da60-level-040W.wav"), analysed.toString());
+        // the figures are those of the file with its folder's notes (fs-volts=40 load=8), as analyze gives them
+        Capture c = org.outstage.capture.CaptureReader.open(wav, org.outstage.capture.CaptureOptions.none().withFullScaleVolts(40));
+        Measurement m = Analyzer.analyze(c, 0, AnalyzerBackend.settingsFor(UiSettings.DEFAULT, Workbench.SAMPLE_SESSION),
+                org.outstage.analysis.SpecConditions.AUTO);
+        assertEquals(AnalyzerBackend.pct(m.thd().percent()) + " %", shown(robot, "thdValue"));
+        assertEquals(AnalyzerBackend.num(m.powerWatts().orElseThrow().totalWatts()) + " W", shown(robot, "powerValue"));
+    }
+
+    @Test
+    void earlyAnalysis_withOtherSettings_theWindowAnalysesItself(FxRobot robot, @TempDir Path dir) throws Exception {
+        oneSampleCapture(dir);
+        CountingBackend early = new CountingBackend();
+        EarlyAnalysis a = EarlyAnalysis.start(early, WorkbenchLauncher.firstCapture(new String[] {dir.toString()}).orElseThrow(),
+                Calibration.NONE, UiSettings.DEFAULT.withHarmonics(5));
+        robot.interact(() -> { pane.adopt(a); pane.openPaths(List.of(dir)); });
+        idle();
+        assertEquals(List.of("da60-level-040W.wav"), analysed);
+        assertEquals(UiSettings.DEFAULT.harmonics(), lastSettings.harmonics());
+        assertFalse(shown(robot, "thdValue").isBlank());
     }
 
     @Test
