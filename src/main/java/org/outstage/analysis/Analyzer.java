@@ -207,6 +207,12 @@ public final class Analyzer {
             double acRms = Math.sqrt(ac2 / span.length);
             if (!(acRms > 1e-12 * Math.max(peak, Double.MIN_NORMAL)) || acRms == 0)
                 return notMeasured("silence or DC only: no AC signal in the record");
+            // The Welch spectrum of a long record depends on the record alone (its blocks are laid out by the record's
+            // length; the offset taken off before windowing is the span's mean), so it starts beside the fit. A record
+            // the fit then finds short, or a tone too low for the blocks, gives it up (see longRecord).
+            int[] layout = blockLayout(Integer.highestOneBit((int) Math.min(n, MAX_BLOCK)));
+            double offset = mean;
+            Helper<PowerSpectrum> spectrum = Helper.start(span.length, () -> spectrum(span, layout, offset));
             SineFit fit;
             try {
                 // the fit uses at most FIT_SPAN samples; a record with few cycles in that span is fitted whole
@@ -214,27 +220,55 @@ public final class Analyzer {
                 fit = fitFundamental(fitSpan);
                 if (fitSpan.length < span.length && (!fit.converged() || fit.frequencyHz() * fitSpan.length / fs < 20)) fit = fitFundamental(span);
             } catch (ArithmeticException e) {
+                spectrum.cancel();
                 return notMeasured("no clear spectral line: the sine fit did not settle");
+            } catch (RuntimeException | Error e) {
+                spectrum.cancel();
+                throw e;
             }
             double f = fit.frequencyHz();
-            if (!(f > 0) || f >= fs / 2) return notMeasured("no clear spectral line: fitted frequency " + f + " Hz is outside 0…Nyquist");
             double cycles = n * f / fs;
+            boolean shortOne = n <= MAX_BLOCK && cycles < SHORT_RECORD_CYCLES;
+            if (!(f > 0) || f >= fs / 2 || cycles < MIN_CYCLES || shortOne) spectrum.cancel();
+            if (!(f > 0) || f >= fs / 2) return notMeasured("no clear spectral line: fitted frequency " + f + " Hz is outside 0…Nyquist");
             if (cycles < MIN_CYCLES)
                 return notMeasured(String.format(java.util.Locale.ROOT, "record too short: %.2f cycles of %s, at least %.1f needed", cycles, Levels.formatHz(f), MIN_CYCLES));
             final SineFit fitted = fit;
             Helper<StageDiagnosis> stage = Helper.start(span.length, () -> diagnose(span, fitted));
             Measurement core;
+            StageDiagnosis diagnosis = null;
             try {
-                core = n <= MAX_BLOCK && cycles < SHORT_RECORD_CYCLES ? shortRecord(span, fit) : longRecord(span, fit);
+                // with no idle core for the diagnosis, it runs here now, while the spectrum may still run beside it
+                if (stage.inline()) diagnosis = stage.join();
+                core = shortOne ? shortRecord(span, fit) : longRecord(span, fit, spectrum, layout, offset);
             } catch (RuntimeException | Error e) {
                 stage.cancel();
+                spectrum.cancel();
                 throw e;
             }
             if (!core.measured()) {
                 stage.cancel();
                 return core;
             }
-            return withStage(core, stage.join());
+            return withStage(core, diagnosis != null ? diagnosis : stage.join());
+        }
+
+        /** Welch blocks of {@code len} samples over the record: {len, hop}, at least 50 % overlap, tiling the record. */
+        int[] blockLayout(int len) {
+            int hop = len;
+            if (n > len) {
+                long extra = n - len;
+                long steps = (extra + len / 2 - 1) / (len / 2);
+                hop = (int) (extra / steps);
+            }
+            return new int[] {len, hop};
+        }
+
+        /** The Welch spectrum with blocks laid out as {@code layout}, {@code offset} taken off before windowing. */
+        PowerSpectrum spectrum(double[] span, int[] layout, double offset) {
+            // the span holds the whole record when it is at most MAX_BLOCK long: no second decode of the file
+            return span.length == n ? PowerSpectrum.of(span, capture.name(), fs, layout[0], layout[1], WINDOW, offset)
+                    : PowerSpectrum.of(capture, index, layout[0], layout[1], WINDOW, offset);
         }
 
         /**
@@ -314,29 +348,25 @@ public final class Analyzer {
 
         // ---------------------------------------------------------------- long records
 
-        Measurement longRecord(double[] span, SineFit fit) {
+        Measurement longRecord(double[] span, SineFit fit, Helper<PowerSpectrum> started, int[] startedLayout, double offset) {
             // a fit that did not settle on a line weaker than its residual is no tone at all (a sweep, or noise
             // without a dominant line): its "fundamental" would be wherever the iteration stopped
             double fitPower = fit.amplitudePeak() * fit.amplitudePeak() / 2;
-            if (!fit.converged() && !(fitPower > fit.residualRms() * fit.residualRms()))
+            if (!fit.converged() && !(fitPower > fit.residualRms() * fit.residualRms())) {
+                started.cancel();
                 return notMeasured("no clear spectral line: the sine fit did not settle, and its line is weaker than what is left over");
+            }
             double f = fit.frequencyHz();
             // power-of-two blocks (fast FFT), at least 50 % overlap, hop chosen so the blocks tile the record
-            int len = Integer.highestOneBit((int) Math.min(n, MAX_BLOCK));
+            int len = startedLayout[0];
             if (len * f / fs < SHORT_RECORD_CYCLES) {
+                started.cancel();
                 if (n > MAX_BLOCK)
                     return notMeasured("fundamental " + Levels.formatHz(f) + " is too low for the analysis block of " + len + " samples");
                 len = (int) (n - n % 2);   // one block of the whole record (mixed-radix FFT)
             }
-            int hop = len;
-            if (n > len) {
-                long extra = n - len;
-                long steps = (extra + len / 2 - 1) / (len / 2);
-                hop = (int) (extra / steps);
-            }
-            // the span holds the whole record when it is at most MAX_BLOCK long: no second decode of the file
-            PowerSpectrum ps = span.length == n ? PowerSpectrum.of(span, capture.name(), fs, len, hop, WINDOW, fit.dcOffset())
-                    : PowerSpectrum.of(capture, index, len, hop, WINDOW, fit.dcOffset());
+            int[] layout = blockLayout(len);
+            PowerSpectrum ps = Arrays.equals(layout, startedLayout) ? started.join() : spectrum(span, layout, offset);
             double binW = ps.binWidthHz();
             int hw = WINDOW.mainLobeHalfWidthBins();
             int top = maxOrder(f, (hw + 1) * binW);

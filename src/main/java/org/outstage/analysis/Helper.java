@@ -95,6 +95,9 @@ final class Helper<T> {
         }
     }
 
+    /** True when the work runs in the thread that joins it (no core was idle, or the record is short). */
+    boolean inline() { return future == null; }
+
     /** Gives the work up (interrupting it if it runs); an inline part is simply never run. */
     void cancel() {
         if (future != null) future.cancel(true);
