@@ -114,7 +114,12 @@ public enum Window {
         return n * s2 / (s * s);
     }
 
-    private record Key(Window window, int n) {}
+    private record Key(Window window, int n) {
+        // written out: a record's generated equals and hashCode link through method handles on first use, which
+        // cost a cold command-line run about 10 ms on its critical path (docs/performance.md)
+        @Override public boolean equals(Object o) { return o instanceof Key k && k.window == window && k.n == n; }
+        @Override public int hashCode() { return 31 * window.hashCode() + n; }
+    }
 
     /**
      * Samples the cache holds at most, over all its windows (least recently used dropped first): 2^22 doubles, 32 MB;
