@@ -82,12 +82,23 @@ public final class OutstageCommand implements Runnable {
 
     /** Runs with the process's stdout and stderr; returns the exit code. */
     public static int run(String[] args) {
-        PrintWriter out = new PrintWriter(System.out, true);
-        PrintWriter err = new PrintWriter(System.err, true);
+        java.nio.charset.Charset cs = stdioCharset(java.nio.charset.Charset.defaultCharset());
+        PrintWriter out = new PrintWriter(new java.io.OutputStreamWriter(System.out, cs), true);
+        PrintWriter err = new PrintWriter(new java.io.OutputStreamWriter(System.err, cs), true);
         int code = commandLine(out, err, args).execute(args);
         out.flush();
         err.flush();
         return code;
+    }
+
+    /**
+     * The encoding of what the commands print. The platform's, except where that is plain ASCII, as in the POSIX or C
+     * locale (a bare {@code env -i}, cron, a minimal container): there every "±", "Ω" or "µ" would print as "?", in
+     * JSON too, so the output is UTF-8, the encoding JSON requires (RFC 8259, 8.1). Python decided the same for its
+     * standard streams in that locale (PEP 538, PEP 540).
+     */
+    static java.nio.charset.Charset stdioCharset(java.nio.charset.Charset platform) {
+        return platform.equals(java.nio.charset.StandardCharsets.US_ASCII) ? java.nio.charset.StandardCharsets.UTF_8 : platform;
     }
 
     /**
