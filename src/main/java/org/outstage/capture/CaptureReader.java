@@ -40,9 +40,13 @@ public final class CaptureReader {
      */
     public static boolean isWav(Path file) throws CaptureFormatException {
         if (file == null) throw new IllegalArgumentException("file must not be null");
-        String name = String.valueOf(file.getFileName()).toLowerCase(Locale.ROOT);
-        boolean wavName = name.endsWith(".wav") || name.endsWith(".wave") || name.endsWith(".rf64") || name.endsWith(".bw64");
-        return wavName || WavReader.hasWavMagic(head(file));
+        return isWavName(String.valueOf(file.getFileName())) || WavReader.hasWavMagic(head(file));
+    }
+
+    /** True when a file or capture name carries a WAV extension (.wav, .wave, .rf64, .bw64; any case). */
+    public static boolean isWavName(String name) {
+        String n = String.valueOf(name).toLowerCase(Locale.ROOT);
+        return n.endsWith(".wav") || n.endsWith(".wave") || n.endsWith(".rf64") || n.endsWith(".bw64");
     }
 
     static Capture calibrateWav(Path file, Capture raw, CaptureOptions options) throws CaptureFormatException {

@@ -279,7 +279,18 @@ public final class BiasFit {
 
     /** {@link #bandLimitedCurve(StageModel, double, double, int)} with {@code cyclePoints} (even, &gt; 2h) points per cycle. */
     static double[][] bandLimitedCurve(StageModel base, double vb, double p, int h, int cyclePoints) {
-        StageModel at = base.atBias(vb);
+        double[][] r = throughBand(base.atBias(vb), p, h, cyclePoints);
+        return new double[][] {r[1], r[2]};
+    }
+
+    /** The band-limited curve of the stage {@code at} as it is: {vin, vout, gain} on ascending drive (see above). */
+    static double[][] throughBand(StageModel at, double p, int h) {
+        int n = CYCLE_POINTS;
+        while (n < 4 * h) n *= 2;
+        return throughBand(at, p, h, n);
+    }
+
+    private static double[][] throughBand(StageModel at, double p, int h, int cyclePoints) {
         double a = driveForPeak(at, p);
         int m = cyclePoints / 2;
         double[] vin = new double[m + 1];
@@ -314,7 +325,9 @@ public final class BiasFit {
             out[j] = yv;
             gain[j] = gv / a;
         }
-        return new double[][] {out, gain};
+        double[] drive = new double[g + 1];
+        for (int j = 0; j <= g; j++) drive[j] = a * (j == 0 ? -1 : j == g ? 1 : Math.cos(Math.PI * (g - j) / g));
+        return new double[][] {drive, out, gain};
     }
 
     private static final double[] COS_TABLE = cosTable(CYCLE_POINTS);
@@ -327,7 +340,7 @@ public final class BiasFit {
     }
 
     /** The drive amplitude a at which the model's (unlimited) output peak max(vout(a), −vout(−a)) is p: Newton from p·(RL + Re)/RL. */
-    private static double driveForPeak(StageModel at, double p) {
+    static double driveForPeak(StageModel at, double p) {
         StageParameters s = at.parameters();
         double a = p * (s.loadOhms() + s.emitterOhms()) / s.loadOhms();
         for (int it = 0; it < 4; it++) {

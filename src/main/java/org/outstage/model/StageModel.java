@@ -246,6 +246,29 @@ public final class StageModel {
     }
 
     /**
+     * The transfer curve as a capture through {@code band} records it, with the stage driven by a sine to an output
+     * peak of {@code outputPeakVolts}: the output over one cycle kept to harmonics 0…H of the tone (H =
+     * {@link CaptureBand#harmonics()}) and the curve rebuilt from them, as the bias fit compares it with a band-limited
+     * capture (docs/model.md §6). The gain is against the drive, on ascending drive over ±a, a the drive that gives
+     * that peak. A band of more than {@link BiasFit#MAX_BAND_HARMONICS} harmonics gives this stage's own curve over
+     * the same drive (it is then the same within 0.1 %).
+     *
+     * @throws IllegalArgumentException when the band does not reach the tone (H = 0) or the peak is not positive
+     */
+    public TransferCurve curveThroughBand(double outputPeakVolts, CaptureBand band) {
+        Require.positive("outputPeakVolts", outputPeakVolts);
+        Require.notNull("band", band);
+        int h = band.harmonics();
+        Require.that(h >= 1, "capture band: the band edge " + band.bandHz() + " Hz must reach the tone " + band.fundamentalHz() + " Hz");
+        if (h > BiasFit.MAX_BAND_HARMONICS) {
+            double a = BiasFit.driveForPeak(this, outputPeakVolts);
+            return transferCurve(-a, a, 1025).curve();
+        }
+        double[][] r = BiasFit.throughBand(this, outputPeakVolts, h);
+        return new TransferCurve(r[0], r[1], r[2], "V");
+    }
+
+    /**
      * The static transfer curve on {@code points} equally spaced inputs from vinMin to vinMax: Vout and the
      * incremental gain dVout/dVin, computed from the Jacobian at each converged point (not by differencing).
      */

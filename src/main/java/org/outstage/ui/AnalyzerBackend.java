@@ -27,6 +27,7 @@ import org.outstage.analysis.stage.StageSettings;
 import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureOptions;
 import org.outstage.capture.CaptureReader;
+import org.outstage.model.CaptureBand;
 import org.outstage.plot.MeasurementCharts;
 import org.outstage.plot.SpecSheetCharts;
 import org.outstage.plot.Ticks;
@@ -103,7 +104,7 @@ final class AnalyzerBackend implements Backend {
             if (sheet.isEmpty()) return ViewData.failed(name, why);
             Panel p = Panel.message(why);
             return new ViewData(name, sheet.get().rows(), Optional.of(why + " — see the Spec sheet view"),
-                    p, p, p, p, p, Optional.empty(), Optional.empty(), sheet);
+                    p, p, p, p, p, Optional.empty(), Optional.empty(), sheet, Optional.empty());
         }
         List<FigureRow> rows = new ArrayList<>(figures(m));
         sheet.ifPresent(x -> rows.addAll(x.rows()));
@@ -135,7 +136,20 @@ final class AnalyzerBackend implements Backend {
         Optional<ViewData.SweepPoint> sweep = LevelSeries.point(capture.name(), m, label, cal.fullScaleVolts().orElse(0))
                 .filter(p -> p.thdRatio() > 0 && p.thdNRatio() > 0).map(ViewData.SweepPoint::new);
         progress.accept(1);
-        return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, spectrumRelative, harmonics, curve, sweep, sheet);
+        return new ViewData(name, rows, Optional.empty(), wave, res, spectrum, spectrumRelative, harmonics, curve, sweep, sheet,
+                captureBand(capture, m));
+    }
+
+    /**
+     * The band a capture kept, for the stage model's overlay: a soundcard WAV's anti-alias filter, its edge taken as
+     * {@link CaptureBand#SOUNDCARD_BAND_FRACTION} of the sample rate, as {@code fit} takes it by default; none for a
+     * scope CSV or a capture with no file name of a WAV, nor when the edge does not reach the tone.
+     */
+    static Optional<CaptureBand> captureBand(Capture capture, Measurement m) {
+        double f0 = m.fundamental().frequencyHz();
+        double edge = CaptureBand.SOUNDCARD_BAND_FRACTION * capture.sampleRateHz();
+        if (!CaptureReader.isWavName(capture.name()) || !(f0 > 0) || edge < f0) return Optional.empty();
+        return Optional.of(new CaptureBand(edge, f0));
     }
 
     /**

@@ -4,6 +4,7 @@ import java.util.List;
 import java.util.Map;
 import org.outstage.analysis.TransferCurve;
 import org.outstage.model.Bias;
+import org.outstage.model.CaptureBand;
 import org.outstage.model.SolverFailureException;
 import org.outstage.model.SolverSettings;
 import org.outstage.model.StageModel;
@@ -36,7 +37,15 @@ final class ModelStageAdapter implements StageModelAdapter {
     }
 
     @Override
-    public TransferCurve predict(String topology, Map<String, Double> v) {
+    public TransferCurve predict(String topology, Map<String, Double> v) { return predict(topology, v, java.util.Optional.empty()); }
+
+    /**
+     * With a band: the stage driven by a sine to an output peak of the output span, its curve through the band
+     * ({@link StageModel#curveThroughBand}, as {@code fit --capture-band} compares it); without one, its own curve over
+     * ±(span / 0.97) of drive.
+     */
+    @Override
+    public TransferCurve predict(String topology, Map<String, Double> v, java.util.Optional<CaptureBand> band) {
         StageParameters.Builder b = StageParameters.builder().topology(topology)
                 .bias(new Bias.EmitterDropVolts(get(v, "vq_mv") / 1e3))
                 .emitterOhms(get(v, "re")).loadOhms(get(v, "load")).railVolts(get(v, "rails"))
@@ -46,6 +55,7 @@ final class ModelStageAdapter implements StageModelAdapter {
         if (!(span > 0)) throw new IllegalArgumentException("output span " + span + " V must be > 0");
         try {
             StageModel m = StageModel.of(b.build(), SolverSettings.defaults());
+            if (band.isPresent()) return m.curveThroughBand(span, band.get());
             double drive = span / 0.97;
             return m.transferCurve(-drive, drive, POINTS).curve();
         } catch (SolverFailureException e) {

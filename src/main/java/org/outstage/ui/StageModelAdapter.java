@@ -23,4 +23,12 @@ interface StageModelAdapter {
      *         message is shown in place of the overlay
      */
     TransferCurve predict(String topology, Map<String, Double> values);
+
+    /**
+     * The prediction as a capture through {@code band} records it (a soundcard's anti-alias filter keeps only the
+     * harmonics of the tone below its edge). A model that cannot do that gives its own curve.
+     */
+    default TransferCurve predict(String topology, Map<String, Double> values, java.util.Optional<org.outstage.model.CaptureBand> band) {
+        return predict(topology, values);
+    }
 }

@@ -17,6 +17,7 @@ import javafx.scene.layout.Priority;
 import javafx.scene.layout.VBox;
 import org.controlsfx.control.PropertySheet;
 import org.outstage.analysis.TransferCurve;
+import org.outstage.model.CaptureBand;
 import org.outstage.plot.ChartSpec;
 import org.outstage.plot.Charts;
 
@@ -41,6 +42,7 @@ final class TransferPanel {
     private volatile TransferCurve lastPrediction;
     private ChartCanvas target;
     private Optional<TransferCurve> measured = Optional.empty();
+    private Optional<CaptureBand> band = Optional.empty();
 
     /** Parameter key of the output span, which follows the measured curve until edited. */
     static final String SPAN_KEY = "span_v";
@@ -110,9 +112,17 @@ final class TransferPanel {
     }
 
     /** Draws the measured curve and the model's prediction on {@code chart}. */
-    void show(ChartCanvas chart, Optional<TransferCurve> measuredCurve) {
+    void show(ChartCanvas chart, Optional<TransferCurve> measuredCurve) { show(chart, measuredCurve, Optional.empty()); }
+
+    /**
+     * Draws the measured curve and the model's prediction on {@code chart}; with {@code band} (a soundcard capture's
+     * band and tone) the prediction is the model's curve through that band at the model's output span, the way the
+     * capture recorded the stage, so a notch or a bump compares like with like.
+     */
+    void show(ChartCanvas chart, Optional<TransferCurve> measuredCurve, Optional<CaptureBand> band) {
         this.target = chart;
         this.measured = measuredCurve;
+        this.band = band;
         if (model.isEmpty() || topologyChoice.getValue() == null) {
             if (measuredCurve.isPresent())
                 chart.setSpec(Charts.transfer("Incremental gain against output", measuredCurve.get(), Optional.empty(), ""));
@@ -137,7 +147,7 @@ final class TransferPanel {
             TransferCurve pred = null;
             String err = "";
             try {
-                pred = model.get().predict(topology, v);
+                pred = model.get().predict(topology, v, band);
             } catch (RuntimeException e) {
                 err = "Model: " + WorkbenchPane.oneLine(e);
             }
@@ -172,8 +182,11 @@ final class TransferPanel {
         ChartCanvas chart = target;
         if (chart == null) return;
         ChartSpec spec;
+        // the legend says when the model's curve went through the capture's band
+        String name = band.isPresent() && measured.isPresent()
+                ? topology + ", through the capture's " + org.outstage.analysis.Levels.formatHz(band.get().bandHz()) + " band" : topology;
         if (measured.isPresent())
-            spec = Charts.transfer("Incremental gain against output", measured.get(), Optional.ofNullable(prediction), topology);
+            spec = Charts.transfer("Incremental gain against output", measured.get(), Optional.ofNullable(prediction), name);
         else if (prediction != null)
             spec = Charts.transferModelOnly("Incremental gain against output (model)", prediction, topology);
         else {

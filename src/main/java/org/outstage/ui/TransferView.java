@@ -15,6 +15,7 @@ final class TransferView implements WorkbenchView {
     final TransferPanel panel;
     private final Tab tab;
     private Optional<TransferCurve> measured = Optional.empty();
+    private Optional<org.outstage.model.CaptureBand> band = Optional.empty();
 
     TransferView(TransferPanel panel) {
         this.panel = panel;
@@ -33,15 +34,17 @@ final class TransferView implements WorkbenchView {
     @Override
     public void show(ViewData d) {
         measured = d.measuredCurve();
+        band = d.captureBand();
         refresh();
     }
 
     @Override
     public void clear(String message) {
         measured = Optional.empty();
+        band = Optional.empty();
         refresh();
     }
 
     /** Draws the measured curve (if any) and the model's prediction again. */
-    void refresh() { panel.show(transferChart, measured); }
+    void refresh() { panel.show(transferChart, measured, band); }
 }

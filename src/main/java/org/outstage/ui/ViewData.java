@@ -20,10 +20,12 @@ import org.outstage.analysis.TransferCurve;
  * @param sweepPoint    this capture's point for the level sweep: power (W), THD and THD+N (fractions)
  * @param specSheet     the spec-sheet figures (intermodulation, noise and hum, swept response), when the capture
  *                      carries a stimulus for them
+ * @param captureBand   the band the capture kept (a soundcard WAV's anti-alias filter) and its tone, for the stage
+ *                      model's overlay; empty for a scope CSV, whose curve the model is compared with as it is
  */
 record ViewData(String captureName, List<FigureRow> figures, Optional<String> notMeasured, Panel waveform, Panel residual,
                 Panel spectrum, Panel spectrumRelative, Panel harmonics, Optional<TransferCurve> measuredCurve,
-                Optional<SweepPoint> sweepPoint, Optional<SpecSheet> specSheet) {
+                Optional<SweepPoint> sweepPoint, Optional<SpecSheet> specSheet, Optional<org.outstage.model.CaptureBand> captureBand) {
 
     ViewData {
         figures = List.copyOf(figures);
@@ -38,7 +40,7 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
 
     static ViewData failed(String name, String message) {
         Panel p = Panel.message(message);
-        return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, p, Optional.empty(), Optional.empty(), Optional.empty());
+        return new ViewData(name, List.of(), Optional.of(message), p, p, p, p, p, Optional.empty(), Optional.empty(), Optional.empty(), Optional.empty());
     }
 
     /**
@@ -47,7 +49,7 @@ record ViewData(String captureName, List<FigureRow> figures, Optional<String> no
      */
     ViewData light() {
         Panel p = Panel.message(LIGHT);
-        return new ViewData(captureName, figures, notMeasured, p, p, p, p, p, measuredCurve, sweepPoint, specSheet.map(s -> s.light(p)));
+        return new ViewData(captureName, figures, notMeasured, p, p, p, p, p, measuredCurve, sweepPoint, specSheet.map(s -> s.light(p)), captureBand);
     }
 
     /** Whether the charts are here (not a {@link #light} copy). */

@@ -51,4 +51,49 @@ class ModelSheetTest {
         assertArrayEquals(dev, shown.y(), 0.0);
         assertEquals("5", ((TextField) field).getText());
     }
+
+    private void openAndWait(java.nio.file.Path file) throws Exception {
+        robot().interact(() -> pane.openPaths(java.util.List.of(file)));
+        WaitForAsyncUtils.waitFor(30, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() -> !pane.busy()
+                && pane.captureList.getSelectionModel().getSelectedItem() != null
+                && pane.captureList.getSelectionModel().getSelectedItem().data != null).get());
+    }
+
+    private static FxRobot robot() { return new FxRobot(); }
+
+    /**
+     * A soundcard WAV: the overlay is the model's curve through the capture's band (the edge {@code fit} takes by
+     * default, 0.4583 of the sample rate, and the analysed tone), at the measured peak, and the legend says so.
+     */
+    @Test
+    void wavCapture_overlayIsTheModelThroughTheCapturesBand() throws Exception {
+        java.nio.file.Path wav = java.nio.file.Path.of(System.getProperty("outstage.project.dir", "."), "sample-captures", "da60-bias-03mV-40W.wav");
+        openAndWait(wav);
+        CaptureEntry e = pane.captureList.getSelectionModel().getSelectedItem();
+        org.outstage.model.CaptureBand band = e.data.captureBand().orElseThrow();
+        org.outstage.analysis.Measurement m = org.outstage.analysis.Analyzer.analyze(e.capture, 0,
+                AnalyzerBackend.settingsFor(UiSettings.DEFAULT, e.calibration));
+        assertEquals(org.outstage.model.CaptureBand.SOUNDCARD_BAND_FRACTION * e.capture.sampleRateHz(), band.bandHz(), 1e-9);
+        assertEquals(m.fundamental().frequencyHz(), band.fundamentalHz(), 0.0);
+        WaitForAsyncUtils.waitFor(20, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() -> {
+            Map<String, Double> v = pane.transferPanel.values();
+            return pane.transferPanel.lastPrediction().isPresent()
+                    && pane.transferPanel.lastPrediction().get().equals(new ModelStageAdapter().predict("pair", v, Optional.of(band)));
+        }).get());
+        Series model = pane.transferChart.spec().orElseThrow().series().stream().filter(x -> x.role() == Series.Role.MODEL).findFirst().orElseThrow();
+        assertEquals(48_000, e.capture.sampleRateHz(), 0.0);   // the sample bench: 22 kHz is where its filter passes half
+        assertTrue(model.name().contains("through the capture's 22 kHz band"), model.name());
+    }
+
+    /** A scope CSV keeps its whole band: the overlay is the model's own curve. */
+    @Test
+    void scopeCsv_overlayIsTheModelsOwnCurve() throws Exception {
+        java.nio.file.Path csv = java.nio.file.Path.of(System.getProperty("outstage.project.dir", "."), "sample-captures", "da60-scope-70W-clipping.csv");
+        openAndWait(csv);
+        CaptureEntry e = pane.captureList.getSelectionModel().getSelectedItem();
+        assertTrue(e.data.captureBand().isEmpty());
+        WaitForAsyncUtils.waitFor(20, TimeUnit.SECONDS, () -> WaitForAsyncUtils.asyncFx(() ->
+                pane.transferPanel.lastPrediction().isPresent()
+                        && pane.transferPanel.lastPrediction().get().equals(new ModelStageAdapter().predict("pair", pane.transferPanel.values()))).get());
+    }
 }
