@@ -23,10 +23,19 @@ public final class Launcher {
         System.exit(OutstageCommand.run(args));
     }
 
-    /** Whether an X11 or Wayland display is set (and java.awt.headless is not forced). */
+    /** Whether a display exists for the workbench (and java.awt.headless is not forced). */
     static boolean hasDisplay() {
-        if (Boolean.getBoolean("java.awt.headless")) return false;
-        String x = System.getenv("DISPLAY"), w = System.getenv("WAYLAND_DISPLAY");
+        return hasDisplay(System.getProperty("os.name", ""), System.getenv(), Boolean.getBoolean("java.awt.headless"));
+    }
+
+    /**
+     * Windows and macOS always have their desktop (a session without one, such as a service, runs headless); other
+     * systems have one when an X11 or Wayland display is set.
+     */
+    static boolean hasDisplay(String osName, java.util.Map<String, String> env, boolean headless) {
+        if (headless) return false;
+        if (osName.startsWith("Windows") || osName.startsWith("Mac")) return true;
+        String x = env.get("DISPLAY"), w = env.get("WAYLAND_DISPLAY");
         return (x != null && !x.isBlank()) || (w != null && !w.isBlank());
     }
 }
