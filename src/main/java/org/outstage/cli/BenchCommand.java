@@ -87,12 +87,14 @@ public final class BenchCommand implements Callable<Integer> {
                 Measuring.SweepChecked checked = Measuring.sweepChecked(c, Measuring.measure(c, s, e.channel(), e.generatorChannel(), f.toString()),
                         e.generatorChannel(), org.outstage.analysis.StimulusKind.AUTO);
                 List<Measurement> ms = checked.measurements();
-                if (!checked.notes().isEmpty()) {
+                List<String> notes = new ArrayList<>(checked.notes());
+                notes.addAll(Measuring.clippingNotes(f, ms));
+                if (!notes.isEmpty()) {
                     o.flush();   // the figures so far first: on a terminal both streams share the screen
-                    for (String note : checked.notes()) err.println("outstage: warning: " + f + ": " + note);
+                    for (String note : notes) err.println("outstage: warning: " + f + ": " + note);
                     err.flush();
+                    c = c.withWarnings(notes);
                 }
-                if (!checked.notes().isEmpty()) c = c.withWarnings(checked.notes());
                 items.add(new Item(f, c, ms, e));
                 for (Measurement m : ms) o.print(FigureTable.text(f.toString(), m));
             } catch (CaptureFormatException ex) {

@@ -16,6 +16,8 @@ import org.outstage.analysis.Measurement;
 import org.outstage.analysis.SpecConditions;
 import org.outstage.analysis.StimulusKind;
 import org.outstage.analysis.SweepResponse;
+import org.outstage.analysis.stage.ClippingMetrics;
+import org.outstage.analysis.stage.StageDiagnosis;
 import org.outstage.capture.Capture;
 import org.outstage.capture.CaptureFormatException;
 import org.outstage.capture.CaptureReader;
@@ -48,8 +50,26 @@ public final class Measuring {
         OptionalInt generator = options.generatorChannelFor(file);
         List<Measurement> ms = measure(capture, settings, options.specConditions(), options.channel(), generator, file.toString());
         SweepChecked checked = sweepChecked(capture, ms, generator, options.specConditions().stimulus());
-        if (!checked.notes().isEmpty()) capture = capture.withWarnings(checked.notes());
+        List<String> notes = new ArrayList<>(checked.notes());
+        notes.addAll(clippingNotes(file, checked.measurements()));
+        if (!notes.isEmpty()) capture = capture.withWarnings(notes);
         return new FileResult(file.toString(), capture, checked.measurements(), generator);
+    }
+
+    /** For a soundcard WAV, one note per channel whose clipping figures are band-limited ({@link ClippingMetrics#BAND_LIMITED_NOTE}). */
+    static List<String> clippingNotes(Path file, List<Measurement> ms) {
+        boolean wav;
+        try {
+            wav = CaptureReader.isWav(file);
+        } catch (CaptureFormatException e) {
+            return List.of();
+        }
+        if (!wav) return List.of();
+        List<String> out = new ArrayList<>();
+        for (Measurement m : ms)
+            if (m.stage() instanceof StageDiagnosis.Measured d && d.clipping().detected())
+                out.add("channel " + m.channel() + ": clipping figures " + ClippingMetrics.BAND_LIMITED_NOTE);
+        return out;
     }
 
     /** Measurements after {@link #sweepChecked}, and one note per channel found to be a sweep. */

@@ -281,7 +281,7 @@ final class AnalyzerBackend implements Backend {
                     d.crossover().explanation()));
             rows.add(new FigureRow("gainAtZeroValue", "Gain at zero", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
                     "relative; ± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
-            rows.addAll(clippingRows(d.clipping(), u));
+            rows.addAll(clippingRows(d.clipping(), u, CaptureReader.isWavName(m.captureName())));
         } else if (m.stage() instanceof StageDiagnosis.NotMeasured n) {
             rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", n.reason()));
             rows.add(new FigureRow("clippingValue", "Clipping", "not measured", "", n.reason()));
@@ -293,16 +293,20 @@ final class AnalyzerBackend implements Backend {
      * The clipping rows: each clip level (flat top) with its shape, and the asymmetry with the side that clips
      * first, as measured; one row "none" when neither side clips.
      */
-    static List<FigureRow> clippingRows(org.outstage.analysis.stage.ClippingMetrics c, String unit) {
+    static List<FigureRow> clippingRows(org.outstage.analysis.stage.ClippingMetrics c, String unit) { return clippingRows(c, unit, false); }
+
+    /** As above; for a soundcard capture ({@code bandLimited}) each row says the figures are approximate, as the command line does. */
+    static List<FigureRow> clippingRows(org.outstage.analysis.stage.ClippingMetrics c, String unit, boolean bandLimited) {
         if (!c.detected())
             return List.of(new FigureRow("clippingValue", "Clipping", "none", "", "no flat top on either side (tolerance "
                     + num(c.toleranceVolts()) + " " + unit + ")"));
+        String band = bandLimited ? "; " + org.outstage.analysis.stage.ClippingMetrics.BAND_LIMITED_NOTE : "";
         List<FigureRow> rows = new ArrayList<>();
-        c.positive().ifPresent(p -> rows.add(new FigureRow("clipPositiveValue", "Clip level +", num(p.levelVolts()), unit, knee(p))));
-        c.negative().ifPresent(p -> rows.add(new FigureRow("clipNegativeValue", "Clip level −", num(p.levelVolts()), unit, knee(p))));
+        c.positive().ifPresent(p -> rows.add(new FigureRow("clipPositiveValue", "Clip level +", num(p.levelVolts()), unit, knee(p) + band)));
+        c.negative().ifPresent(p -> rows.add(new FigureRow("clipNegativeValue", "Clip level −", num(p.levelVolts()), unit, knee(p) + band)));
         rows.add(new FigureRow("clippingValue", "Clip asymmetry", c.asymmetryPercent().isPresent() ? num(c.asymmetryPercent().getAsDouble()) : "—",
                 c.asymmetryPercent().isPresent() ? "%" : "", (c.asymmetryPercent().isPresent() ? "" : "one side only; ")
-                + "clips first: " + c.clipsFirst().label()));
+                + "clips first: " + c.clipsFirst().label() + band));
         return rows;
     }
 

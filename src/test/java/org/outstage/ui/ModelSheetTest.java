@@ -85,6 +85,19 @@ class ModelSheetTest {
         assertTrue(model.name().contains("through the capture's 22 kHz band"), model.name());
     }
 
+    /** The figures of a clipped soundcard WAV say what the command line says: the clip levels are approximate. */
+    @Test
+    void clippedWav_clipRowsSayTheFiguresAreApproximate_scopeCsvDoesNot() throws Exception {
+        java.nio.file.Path dir = java.nio.file.Path.of(System.getProperty("outstage.project.dir", "."), "sample-captures");
+        openAndWait(dir.resolve("da60-level-070W.wav"));
+        FigureRow wav = pane.captureList.getSelectionModel().getSelectedItem().data.figure("clipPositiveValue").orElseThrow();
+        assertTrue(wav.note().contains(org.outstage.analysis.stage.ClippingMetrics.BAND_LIMITED_NOTE), wav.note());
+        robot().interact(() -> pane.captureList.getItems().clear());
+        openAndWait(dir.resolve("da60-scope-70W-clipping.csv"));
+        FigureRow csv = pane.captureList.getSelectionModel().getSelectedItem().data.figure("clipPositiveValue").orElseThrow();
+        assertFalse(csv.note().contains(org.outstage.analysis.stage.ClippingMetrics.BAND_LIMITED_NOTE), csv.note());
+    }
+
     /** A scope CSV keeps its whole band: the overlay is the model's own curve. */
     @Test
     void scopeCsv_overlayIsTheModelsOwnCurve() throws Exception {

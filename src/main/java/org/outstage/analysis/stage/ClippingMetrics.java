@@ -21,6 +21,14 @@ import java.util.OptionalDouble;
  */
 public record ClippingMetrics(boolean detected, Optional<ClipSide> positive, Optional<ClipSide> negative,
                               OptionalDouble asymmetryPercent, FirstSide clipsFirst, double toleranceVolts) {
+    /**
+     * What a band-limited capture (a soundcard WAV, whose anti-alias filter keeps the harmonics below about 0.46 of its
+     * sample rate) cannot tell about clipping: its flat tops ring above the rail (Gibbs), which moves the measured clip
+     * levels and may swap the side that reaches its level first. Said beside the clipping figures of such a capture.
+     */
+    public static final String BAND_LIMITED_NOTE = "approximate on a soundcard capture: its band-limited flat tops ring above"
+            + " the rail, which moves the clip levels and the first side; a scope capture resolves them";
+
     /** Which side clips first. */
     public enum FirstSide {
         POSITIVE("positive"), NEGATIVE("negative"), BOTH("both"), NONE("none");
