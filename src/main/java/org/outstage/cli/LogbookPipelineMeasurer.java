@@ -33,6 +33,7 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
             }
             List<String> warnings = new ArrayList<>(cap.warnings());
             warnings.addAll(skipped);
+            warnings.addAll(Measuring.clippingNotes(file, List.of(m)));   // as analyze and bench say it
             out.add(new Measured(m.channel(), cap.channelCount(), figures(m), JsonText.write(MeasurementJson.capture(file.toString(), m, cap.warnings())),
                     warnings, java.util.Optional.of(m)));
         }
