@@ -84,11 +84,10 @@ public final class BenchCommand implements Callable<Integer> {
             try {
                 Capture c = CaptureReader.open(f, e.captureOptions());
                 AnalysisSettings s = e.loadOhms().isPresent() ? base.withLoadOhms(e.loadOhms().getAsDouble()) : base;
-                Measuring.SweepChecked checked = Measuring.sweepChecked(c, Measuring.measure(c, s, e.channel(), e.generatorChannel(), f.toString()),
+                Measuring.SweepChecked checked = Measuring.checked(f, c, Measuring.measure(c, s, e.channel(), e.generatorChannel(), f.toString()),
                         e.generatorChannel(), org.outstage.analysis.StimulusKind.AUTO);
                 List<Measurement> ms = checked.measurements();
-                List<String> notes = new ArrayList<>(checked.notes());
-                notes.addAll(Measuring.clippingNotes(f, ms));
+                List<String> notes = checked.notes();
                 if (!notes.isEmpty()) {
                     o.flush();   // the figures so far first: on a terminal both streams share the screen
                     for (String note : notes) err.println("outstage: warning: " + f + ": " + note);

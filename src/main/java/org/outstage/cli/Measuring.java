@@ -49,11 +49,17 @@ public final class Measuring {
         Capture capture = open(file, options);
         OptionalInt generator = options.generatorChannelFor(file);
         List<Measurement> ms = measure(capture, settings, options.specConditions(), options.channel(), generator, file.toString());
-        SweepChecked checked = sweepChecked(capture, ms, generator, options.specConditions().stimulus());
-        List<String> notes = new ArrayList<>(checked.notes());
-        notes.addAll(clippingNotes(file, checked.measurements()));
-        if (!notes.isEmpty()) capture = capture.withWarnings(notes);
+        SweepChecked checked = checked(file, capture, ms, generator, options.specConditions().stimulus());
+        if (!checked.notes().isEmpty()) capture = capture.withWarnings(checked.notes());
         return new FileResult(file.toString(), capture, checked.measurements(), generator);
+    }
+
+    /** {@link #sweepChecked}, its notes followed by the band-limited clipping notes of a soundcard WAV ({@link #clippingNotes}). */
+    public static SweepChecked checked(Path file, Capture capture, List<Measurement> ms, OptionalInt generator, StimulusKind stimulus) {
+        SweepChecked s = sweepChecked(capture, ms, generator, stimulus);
+        List<String> notes = new ArrayList<>(s.notes());
+        notes.addAll(clippingNotes(file, s.measurements()));
+        return new SweepChecked(s.measurements(), List.copyOf(notes));
     }
 
     /** For a soundcard WAV, one note per channel whose clipping figures are band-limited ({@link ClippingMetrics#BAND_LIMITED_NOTE}). */
