@@ -136,6 +136,10 @@ public final class BenchReport {
         if (!m.measured()) return;
         String name = Path.of(c.file()).getFileName().toString() + (c.capture().channelCount() > 1 ? " ch " + m.channel() : "");
         h.append("<h2>").append(HtmlReport.esc(name)).append("</h2>\n");
+        // the capture's warnings, as the command line and report.json give them (those of another channel left out)
+        for (String w : c.capture().warnings())
+            if (!w.startsWith("channel ") || w.startsWith("channel " + m.channel() + ":") || w.startsWith("channel " + m.channel() + " "))
+                h.append("<p class=\"warn\">Warning: ").append(HtmlReport.esc(w)).append("</p>\n");
         boolean noiseCapture = m.noise().isPresent();   // no test tone: waveform and spectrum only
         boolean crossover = !noiseCapture && org.outstage.analysis.Plausibility.crossoverGiven(m);
         if (!noiseCapture && m.stage() instanceof StageDiagnosis.Measured s) {

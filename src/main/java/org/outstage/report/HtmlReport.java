@@ -29,6 +29,7 @@ public final class HtmlReport {
             .evidence { color: var(--muted); font-size: .85rem; }
             dl { display: grid; grid-template-columns: max-content 1fr; gap: .2rem 1rem; } dt { color: var(--muted); } dd { margin: 0; }
             .cautions { background: #fff8e5; border-left: 4px solid var(--nm); padding: .6rem 1rem; }
+            .warn { color: var(--nm); }
             .cautions li { margin: .2rem 0; }
             figure { margin: 1rem 0; } figure svg { max-width: 100%; height: auto; }
             footer { margin-top: 2rem; color: var(--muted); font-size: .8rem; }

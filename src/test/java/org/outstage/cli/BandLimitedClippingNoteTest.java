@@ -12,7 +12,7 @@ import org.outstage.analysis.stage.ClippingMetrics;
  * The clipping figures of a soundcard WAV come with the note that they are approximate (its band-limited flat tops
  * ring above the rail; sample-captures/README.md measures it: the 70 W WAV reads +31.55 V and "first: both" where the
  * scope export of the same stage resolves +31.25 V and the positive side first). Text, JSON and the bench job carry the
- * same words; a scope CSV and a WAV that does not clip get none.
+ * same words, and so does the bench job's report; a scope CSV and a WAV that does not clip get none.
  */
 class BandLimitedClippingNoteTest {
     static final Path SAMPLES = Path.of(System.getProperty("outstage.project.dir", "."), "sample-captures");
@@ -44,5 +44,8 @@ class BandLimitedClippingNoteTest {
         CliRun bench = CliRun.of("bench", SAMPLES.toString(), "--out", out.toString());
         assertEquals(0, bench.exit(), bench.err());
         assertTrue((bench.out() + bench.err()).contains(ClippingMetrics.BAND_LIMITED_NOTE), bench.out() + bench.err());
+        // and the report, in both its forms
+        assertTrue(java.nio.file.Files.readString(out.resolve("report.html")).contains(ClippingMetrics.BAND_LIMITED_NOTE));
+        assertTrue(java.nio.file.Files.readString(out.resolve("report.json")).contains(ClippingMetrics.BAND_LIMITED_NOTE));
     }
 }
