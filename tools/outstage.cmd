@@ -33,7 +33,7 @@ if /i "%~1"=="watch" set "C1="
 if "%MODE%"=="cli" set "JVM=%JVM% %C1%"
 rem the workbench gets the client compiler alone on a machine of at most two cores (see tools/outstage)
 if "%MODE%"=="gui" if %NUMBER_OF_PROCESSORS% LEQ 2 set "JVM=%JVM% -XX:TieredStopAtLevel=1"
-rem our classes and the FFT library compiled early, at 1/20 of the usual thresholds (see tools/outstage); quiet first,
+rem our classes and the FFT library compiled early, at 1/20 of the usual thresholds (see tools/launch-options.bash); quiet first,
 rem or the JVM prints each command on stdout
 set "JVM=%JVM% -XX:CompileCommand=quiet -XX:CompileCommand=CompileThresholdScaling,org.outstage.*::*,0.05 -XX:CompileCommand=CompileThresholdScaling,org.jtransforms.*::*,0.05"
 set "CDS=%HERE%\target\cds"
