@@ -19,11 +19,8 @@ import org.outstage.analysis.stage.StageSettings;
 import org.outstage.json.JsonText;
 import org.outstage.report.FigureTable;
 import org.outstage.report.MeasurementJson;
-import picocli.CommandLine.Command;
-import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
-import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Model.PositionalParamSpec;
 
 /**
  * {@code outstage analyze [options] FILE...}: distortion figures and output-stage diagnosis of captures.
@@ -31,29 +28,52 @@ import picocli.CommandLine.Spec;
  * analysed in parallel; a file that cannot be read is reported on stderr (one line) and the others still
  * are, with exit code 2 at the end.
  */
-@Command(name = "analyze", mixinStandardHelpOptions = true, sortOptions = false,
-        description = "Measure THD, THD+N, harmonics, crossover and clipping of captures (WAV or scope CSV).")
 public final class AnalyzeCommand implements Callable<Integer> {
-    @Spec picocli.CommandLine.Model.CommandSpec spec;
+    static final String NAME = "analyze";
 
-    @Mixin AnalyzeOptions options;
+    private CommandSpec spec;
 
-    @Option(names = "--json", description = "Print JSON (keys documented in docs/cli.md).")
+    final AnalyzeOptions options = new AnalyzeOptions();
+
     boolean json;
 
-    @Option(names = "--csv", description = "Print one CSV row per analysed channel.")
     boolean csv;
 
-    @Option(names = "--residual", paramLabel = "FILE.csv",
-            description = "Write the residual (capture minus fitted fundamental and DC, band-limited) of the one analysed channel as CSV.")
     Path residual;
 
-    @Option(names = "--residual-band", paramLabel = "LOW-HIGH",
-            description = "Band-limit the exported residual (zero-phase high-pass and low-pass), e.g. 20-80k. Default: unfiltered, so crossover spikes keep their edges.")
     String residualBand;
 
-    @Parameters(paramLabel = "FILE", arity = "1..*", description = "Captures: WAV (PCM, float, extensible, RF64) or scope CSV.")
     List<Path> files;
+
+    /**
+     * A new command with its picocli model, built in code ({@link CodeModel}): the measurement options, then this
+     * command's own, then help and version, as help lists them.
+     */
+    static CommandSpec model() {
+        AnalyzeCommand c = new AnalyzeCommand();
+        CommandSpec s = CodeModel.command(c, NAME, "Measure THD, THD+N, harmonics, crossover and clipping of captures (WAV or scope CSV).");
+        s.usageMessage().sortOptions(false);
+        s.addMixin(AnalyzeOptions.MIXIN, c.options.mixin());
+        s.addOption(CodeModel.option("--json", boolean.class, null, "Print JSON (keys documented in docs/cli.md).",
+                CodeModel.bind(() -> c.json, v -> c.json = (Boolean) v)).build());
+        s.addOption(CodeModel.option("--csv", boolean.class, null, "Print one CSV row per analysed channel.",
+                CodeModel.bind(() -> c.csv, v -> c.csv = (Boolean) v)).build());
+        s.addOption(CodeModel.option("--residual", Path.class, "FILE.csv",
+                "Write the residual (capture minus fitted fundamental and DC, band-limited) of the one analysed channel as CSV.",
+                CodeModel.bind(() -> c.residual, v -> c.residual = (Path) v)).build());
+        s.addOption(CodeModel.option("--residual-band", String.class, "LOW-HIGH",
+                "Band-limit the exported residual (zero-phase high-pass and low-pass), e.g. 20-80k. Default: unfiltered, so crossover spikes keep their edges.",
+                CodeModel.bind(() -> c.residualBand, v -> c.residualBand = (String) v)).build());
+        CodeModel.Binding files = CodeModel.bind(() -> c.files, v -> c.files = castPaths(v));
+        s.addPositional(PositionalParamSpec.builder().paramLabel("FILE").arity("1..*").required(true).type(List.class).auxiliaryTypes(Path.class)
+                .description("Captures: WAV (PCM, float, extensible, RF64) or scope CSV.").getter(files).setter(files).build());
+        CodeModel.standardHelp(s);
+        c.spec = s;
+        return s;
+    }
+
+    @SuppressWarnings("unchecked")
+    private static List<Path> castPaths(Object v) { return (List<Path>) v; }
 
     @Override
     public Integer call() throws Exception {

@@ -14,62 +14,118 @@ import org.outstage.capture.BenchManifest;
 import org.outstage.capture.CaptureFormatException;
 import org.outstage.capture.CaptureOptions;
 import org.outstage.capture.ChannelRole;
-import picocli.CommandLine.Option;
+import picocli.CommandLine.Model.CommandSpec;
 
 /**
  * The options shared by every command that reads and measures captures ({@code analyze}, {@code sweep},
- * {@code fit}, {@code session add}, {@code watch}, {@code verify}). A picocli mixin.
+ * {@code fit}, {@code session add}, {@code watch}, {@code verify}, {@code live}, {@code impedance}). A picocli mixin
+ * built in code ({@link #mixin()}).
  */
 public final class AnalyzeOptions {
-    @Option(names = "--channel", paramLabel = "N", description = "Channel to analyse, from 1 (default: every channel).")
     Integer channel;
-
-    @Option(names = "--bandwidth", paramLabel = "LOW-HIGH", defaultValue = "20-20k",
-            description = "Measurement band for THD+N and harmonics: LOW-HIGH in Hz (e.g. 20-20k, 22-22k), 'wide' (20 Hz-80 kHz) or 'nyquist'. Default: ${DEFAULT-VALUE}.")
     String bandwidth;
-
-    @Option(names = "--weighting", paramLabel = "A|none", defaultValue = "none",
-            description = "Weighting of noise and distortion in THD+N: A (IEC 61672-1) or none. Default: ${DEFAULT-VALUE}.")
     String weighting;
-
-    @Option(names = "--harmonics", paramLabel = "N", defaultValue = "10",
-            description = "Highest harmonic order in THD (2..50, limited by the band). Default: ${DEFAULT-VALUE}.")
     int harmonics;
-
-    @Option(names = "--fs-volts", paramLabel = "V", converter = Units.Volts.class,
-            description = "WAV calibration: peak volts at the amplifier output that reach digital full scale, divider included.")
     Double fsVolts;
-
-    @Option(names = "--probe", paramLabel = "X", description = "Scope CSV calibration: multiply values by X (probe ratio not applied by the export).")
     Double probe;
-
-    @Option(names = "--sample-rate", paramLabel = "HZ", converter = Units.Hertz.class, description = "Sample rate for a scope CSV without time column or interval.")
     Double sampleRate;
-
-    @Option(names = "--load", paramLabel = "OHMS", converter = Units.Ohms.class, description = "Load resistance, for output power (P = Vrms^2/R; needs volts).")
     Double load;
-
-    @Option(names = "--fundamental", paramLabel = "HZ", converter = Units.Hertz.class, description = "Expected fundamental frequency (default: strongest line).")
     Double fundamental;
-
-    @Option(names = "--reference", paramLabel = "N",
-            description = "Channel (from 1) that carries the generator signal: gives the X-Y transfer curve of the other channels; it gets no power and no verdict. Default: the bench.txt beside the capture (reference= or roles=).")
     Integer reference;
-
-    @Option(names = "--roles", paramLabel = "ROLE,...",
-            description = "Role of each channel from channel 1: output, generator, left or right (e.g. generator,output). Default: from --reference, else the bench.txt beside the capture, else every channel an output.")
     String roles;
-
-    @Option(names = "--stimulus", paramLabel = "KIND",
-            description = "What drove the amplifier: smpte, twin, sine, sweep, none (input shorted: noise and hum) or auto (recognise two tones or no tone). Default: auto.")
     String stimulus;
-
-    @Option(names = "--driven", paramLabel = "N",
-            description = "The one driven channel (from 1) of a crosstalk capture: the other channels report the driven tone's level in dB.")
     Integer driven;
-
-    @Option(names = "--rated-power", paramLabel = "W", description = "Rated output power, for the signal-to-noise ratio re rated power (with --load).")
     Double ratedPower;
+
+    /** The name under which these options are mixed into a command's model. */
+    static final String MIXIN = "analysis";
+
+    /**
+     * These options as a picocli mixin bound to this object's fields, in the order help lists them. Built in code
+     * ({@link CodeModel}: no annotation is read on the analyze path); a command adds it with
+     * {@code spec.addMixin(AnalyzeOptions.MIXIN, options.mixin())}.
+     */
+    CommandSpec mixin() {
+        CommandSpec m = CommandSpec.wrapWithoutInspection(this);
+        m.addOption(CodeModel.option("--channel", Integer.class, "N", "Channel to analyse, from 1 (default: every channel).",
+                CodeModel.bind(() -> channel, v -> channel = (Integer) v)).build());
+        m.addOption(CodeModel.option("--bandwidth", String.class, "LOW-HIGH",
+                "Measurement band for THD+N and harmonics: LOW-HIGH in Hz (e.g. 20-20k, 22-22k), 'wide' (20 Hz-80 kHz) or 'nyquist'. Default: ${DEFAULT-VALUE}.",
+                CodeModel.bind(() -> bandwidth, v -> bandwidth = (String) v)).defaultValue("20-20k").build());
+        m.addOption(CodeModel.option("--weighting", String.class, "A|none",
+                "Weighting of noise and distortion in THD+N: A (IEC 61672-1) or none. Default: ${DEFAULT-VALUE}.",
+                CodeModel.bind(() -> weighting, v -> weighting = (String) v)).defaultValue("none").build());
+        m.addOption(CodeModel.option("--harmonics", int.class, "N",
+                "Highest harmonic order in THD (2..50, limited by the band). Default: ${DEFAULT-VALUE}.",
+                CodeModel.bind(() -> harmonics, v -> harmonics = (Integer) v)).defaultValue("10").build());
+        m.addOption(CodeModel.option("--fs-volts", Double.class, "V",
+                "WAV calibration: peak volts at the amplifier output that reach digital full scale, divider included.",
+                CodeModel.bind(() -> fsVolts, v -> fsVolts = (Double) v)).converters(new Units.Volts()).build());
+        m.addOption(CodeModel.option("--probe", Double.class, "X", "Scope CSV calibration: multiply values by X (probe ratio not applied by the export).",
+                CodeModel.bind(() -> probe, v -> probe = (Double) v)).build());
+        m.addOption(CodeModel.option("--sample-rate", Double.class, "HZ", "Sample rate for a scope CSV without time column or interval.",
+                CodeModel.bind(() -> sampleRate, v -> sampleRate = (Double) v)).converters(new Units.Hertz()).build());
+        m.addOption(CodeModel.option("--load", Double.class, "OHMS", "Load resistance, for output power (P = Vrms^2/R; needs volts).",
+                CodeModel.bind(() -> load, v -> load = (Double) v)).converters(new Units.Ohms()).build());
+        m.addOption(CodeModel.option("--fundamental", Double.class, "HZ", "Expected fundamental frequency (default: strongest line).",
+                CodeModel.bind(() -> fundamental, v -> fundamental = (Double) v)).converters(new Units.Hertz()).build());
+        m.addOption(CodeModel.option("--reference", Integer.class, "N",
+                "Channel (from 1) that carries the generator signal: gives the X-Y transfer curve of the other channels; it gets no power and no verdict. Default: the bench.txt beside the capture (reference= or roles=).",
+                CodeModel.bind(() -> reference, v -> reference = (Integer) v)).build());
+        m.addOption(CodeModel.option("--roles", String.class, "ROLE,...",
+                "Role of each channel from channel 1: output, generator, left or right (e.g. generator,output). Default: from --reference, else the bench.txt beside the capture, else every channel an output.",
+                CodeModel.bind(() -> roles, v -> roles = (String) v)).build());
+        m.addOption(CodeModel.option("--stimulus", String.class, "KIND",
+                "What drove the amplifier: smpte, twin, sine, sweep, none (input shorted: noise and hum) or auto (recognise two tones or no tone). Default: auto.",
+                CodeModel.bind(() -> stimulus, v -> stimulus = (String) v)).build());
+        m.addOption(CodeModel.option("--driven", Integer.class, "N",
+                "The one driven channel (from 1) of a crosstalk capture: the other channels report the driven tone's level in dB.",
+                CodeModel.bind(() -> driven, v -> driven = (Integer) v)).build());
+        m.addOption(CodeModel.option("--rated-power", Double.class, "W", "Rated output power, for the signal-to-noise ratio re rated power (with --load).",
+                CodeModel.bind(() -> ratedPower, v -> ratedPower = (Double) v)).build());
+        return m;
+    }
+
+    /** These options read from {@code args} alone (defaults for what is not given); a bad one is a picocli parameter error. */
+    static AnalyzeOptions parse(String... args) {
+        AnalyzeOptions o = new AnalyzeOptions();
+        new picocli.CommandLine(o.mixin()).parseArgs(args);
+        return o;
+    }
+
+    /**
+     * Adds the shared measurement options to the model of an annotated command that holds them
+     * ({@link MeasuresCaptures}); used as its {@code @Command(modelTransformer = ...)}. They come where the command
+     * says ({@link MeasuresCaptures#analyzeOptionsBefore()}), else after its own options; help and version stay last. picocli runs a transformer when a {@code CommandLine} is made from the
+     * command (or from a parent that names it), not when a class is added with {@code addSubcommand(name, Class)}:
+     * {@link OutstageCommand} makes each subcommand's {@code CommandLine} first.
+     */
+    public static final class Added implements picocli.CommandLine.IModelTransformer {
+        @Override
+        public CommandSpec transform(CommandSpec spec) {
+            if (!(spec.userObject() instanceof MeasuresCaptures c) || spec.mixins().containsKey(MIXIN)) return spec;
+            // options from the command's anchor on, and the standard help options, are taken off and put back after
+            List<picocli.CommandLine.Model.OptionSpec> after = new java.util.ArrayList<>();
+            boolean past = false;
+            for (var o : spec.options()) {
+                past |= List.of(o.names()).contains(c.analyzeOptionsBefore());
+                // (an option of an argument group stays where it is: picocli cannot take it off)
+                if ((past || o.usageHelp() || o.versionHelp()) && o.group() == null) after.add(o);
+            }
+            for (var o : after) spec.remove(o);
+            spec.addMixin(MIXIN, c.analyzeOptions().mixin());
+            for (var o : after) spec.addOption(o);
+            return spec;
+        }
+    }
+
+    /** A command that reads and measures captures with these options. */
+    interface MeasuresCaptures {
+        AnalyzeOptions analyzeOptions();
+
+        /** The command's own option that help lists right after these options; none: they come before help and version. */
+        default String analyzeOptionsBefore() { return ""; }
+    }
 
     /** The spec-sheet conditions (stimulus, driven channel, rated power); bad values raise {@link BadInputException}. */
     public SpecConditions specConditions() {

@@ -163,7 +163,7 @@ public final class FitCommand implements Callable<Integer> {
         if (channel != null) { args.add("--channel"); args.add(Integer.toString(channel)); }
         if (sampleRate != null) { args.add("--sample-rate"); args.add(Double.toString(sampleRate)); }
         if (reference != null) { args.add("--reference"); args.add(Integer.toString(reference)); }
-        AnalyzeOptions options = picocli.CommandLine.populateCommand(new AnalyzeOptions(), args.toArray(String[]::new));
+        AnalyzeOptions options = AnalyzeOptions.parse(args.toArray(String[]::new));
         Measuring.FileResult fr = Measuring.measure(file, options);
         List<Measurement> ms = fr.measurements();
         if (ms.isEmpty()) throw new BadInputException(file + ": no channel to fit");

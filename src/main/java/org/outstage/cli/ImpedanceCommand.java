@@ -15,7 +15,6 @@ import org.outstage.capture.Capture;
 import org.outstage.analysis.OutputImpedance;
 import org.outstage.json.JsonText;
 import picocli.CommandLine.Command;
-import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
@@ -24,13 +23,19 @@ import picocli.CommandLine.Spec;
  * damping factor R_L/Z_out from the same tone captured into the load and open-circuit; when both captures are
  * exponential sweeps with a generator channel, complex Z_out(f) from the two responses (docs/methods.md §7f).
  */
-@Command(name = "impedance", mixinStandardHelpOptions = true, sortOptions = false,
+@Command(name = "impedance", mixinStandardHelpOptions = true, modelTransformer = AnalyzeOptions.Added.class, sortOptions = false,
         description = {"Output impedance and damping factor from one tone captured into a load and open-circuit;",
                 "against frequency when both captures are sweeps with a generator channel (--reference or bench.txt)."})
-public final class ImpedanceCommand implements Callable<Integer> {
+public final class ImpedanceCommand implements Callable<Integer>, AnalyzeOptions.MeasuresCaptures {
     @Spec picocli.CommandLine.Model.CommandSpec spec;
 
-    @Mixin AnalyzeOptions options;
+    final AnalyzeOptions options = new AnalyzeOptions();   // mixed in by AnalyzeOptions.Added
+
+    @Override
+    public AnalyzeOptions analyzeOptions() { return options; }
+
+    @Override
+    public String analyzeOptionsBefore() { return "--json"; }
 
     @Parameters(index = "0", paramLabel = "LOADED", description = "The tone captured with the load connected.")
     Path loaded;

@@ -36,12 +36,18 @@ import picocli.CommandLine.Spec;
  * {@code --json}. Exit 0 at the end of {@code --seconds} (or on Ctrl-C), 2 when there is no device or the format is
  * refused, 1 when the input fails during the run.
  */
-@Command(name = "live", mixinStandardHelpOptions = true, sortOptions = false,
+@Command(name = "live", mixinStandardHelpOptions = true, modelTransformer = AnalyzeOptions.Added.class, sortOptions = false,
         description = "Measure a soundcard input block by block (THD, THD+N, crossover, clipping), optionally playing a test signal.")
-public final class LiveCommand implements Callable<Integer> {
+public final class LiveCommand implements Callable<Integer>, AnalyzeOptions.MeasuresCaptures {
     @Spec picocli.CommandLine.Model.CommandSpec spec;
     @Mixin LiveOptions live;
-    @Mixin AnalyzeOptions analyze;
+    final AnalyzeOptions analyze = new AnalyzeOptions();   // mixed in by AnalyzeOptions.Added
+
+    @Override
+    public AnalyzeOptions analyzeOptions() { return analyze; }
+
+    @Override
+    public String analyzeOptionsBefore() { return "--block-seconds"; }
 
     @Option(names = "--block-seconds", paramLabel = "S", defaultValue = "1", description = "Length of each analysed block. Default: ${DEFAULT-VALUE}.")
     double blockSeconds;

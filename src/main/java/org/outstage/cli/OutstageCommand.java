@@ -1,37 +1,56 @@
 package org.outstage.cli;
 
 import java.io.PrintWriter;
+import java.util.List;
 import picocli.CommandLine;
-import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
 
 /**
  * Root of the command line. Exit codes: 0 success, 1 internal fault (or, for {@code verify}, a failed
  * limit), 2 bad input or usage. Errors are one line on stderr, never a stack trace.
  */
-@Command(name = "outstage", mixinStandardHelpOptions = true, version = "outstage 0.1.0",
-        description = "Distortion and output-stage analysis for transistor audio power amplifiers.")
 public final class OutstageCommand implements Runnable {
-    /**
-     * The subcommands, in the order help lists them. They are added by {@link #commandLine} rather than named in the
-     * annotation, so a run can build only the one it uses ({@link #commandLine(PrintWriter, PrintWriter, String[])}):
-     * picocli reads every option annotation of every command it registers, some 170 of its classes and 90 of ours for
-     * the whole tree.
-     */
-    static final java.util.Map<String, Class<?>> SUBCOMMANDS = subcommands(BenchCommand.class, AnalyzeCommand.class, SweepCommand.class,
-            ModelCommand.class, FitCommand.class, GuiCommand.class, SessionCommand.class, WatchCommand.class, VerifyCommand.class,
-            ResponseCommand.class, ImpedanceCommand.class, LogbookCommand.class, DevicesCommand.class, ToneCommand.class, LiveCommand.class);
+    /** The version line of {@code --version}. */
+    static final String VERSION = "outstage 0.1.0";
 
-    private static java.util.Map<String, Class<?>> subcommands(Class<?>... classes) {
-        java.util.Map<String, Class<?>> m = new java.util.LinkedHashMap<>();
-        for (Class<?> c : classes) m.put(c.getAnnotation(Command.class).name(), c);
-        return java.util.Collections.unmodifiableMap(m);
+    /**
+     * The subcommands' names, in the order help lists them ({@link #subcommand} makes each). They are
+     * added by {@link #commandLine} rather than named in an annotation, so a run can build only the one it uses
+     * ({@link #commandLine(PrintWriter, PrintWriter, String[])}): picocli reads every option annotation of every
+     * command it registers, some 170 of its classes and 90 of ours for the whole tree. Each {@code CommandLine} is
+     * made before it is added, so picocli runs the command's model transformer ({@link AnalyzeOptions.Added}).
+     * {@code analyze}'s model is built in code ({@link CodeModel}).
+     */
+    static final List<String> SUBCOMMANDS = List.of("bench", AnalyzeCommand.NAME, "sweep", "model", "fit", "gui", "session", "watch",
+            "verify", "response", "impedance", "logbook", "devices", "tone", "live");
+
+    /** The {@code CommandLine} of one subcommand, made (and its model transformed) before it is added to the root. */
+    static CommandLine subcommand(String name) {
+        return switch (name) {
+            case "bench" -> new CommandLine(new BenchCommand());
+            case AnalyzeCommand.NAME -> new CommandLine(AnalyzeCommand.model());
+            case "sweep" -> new CommandLine(new SweepCommand());
+            case "model" -> new CommandLine(new ModelCommand());
+            case "fit" -> new CommandLine(new FitCommand());
+            case "gui" -> new CommandLine(new GuiCommand());
+            case "session" -> new CommandLine(new SessionCommand());
+            case "watch" -> new CommandLine(new WatchCommand());
+            case "verify" -> new CommandLine(new VerifyCommand());
+            case "response" -> new CommandLine(new ResponseCommand());
+            case "impedance" -> new CommandLine(new ImpedanceCommand());
+            case "logbook" -> new CommandLine(new LogbookCommand());
+            case "devices" -> new CommandLine(new DevicesCommand());
+            case "tone" -> new CommandLine(new ToneCommand());
+            case "live" -> new CommandLine(new LiveCommand());
+            default -> throw new IllegalArgumentException("no subcommand " + name);
+        };
     }
 
     public static final int EXIT_OK = 0;
     public static final int EXIT_FAULT = 1;
     public static final int EXIT_BAD_INPUT = 2;
 
-    @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+    private CommandSpec spec;
 
     @Override
     public void run() {
@@ -40,7 +59,7 @@ public final class OutstageCommand implements Runnable {
 
     /** Builds the whole command line (every subcommand) with the project's error handling. */
     public static CommandLine commandLine(PrintWriter out, PrintWriter err) {
-        return commandLine(out, err, SUBCOMMANDS.keySet());
+        return commandLine(out, err, java.util.Set.copyOf(SUBCOMMANDS));
     }
 
     /**
@@ -50,13 +69,23 @@ public final class OutstageCommand implements Runnable {
      */
     public static CommandLine commandLine(PrintWriter out, PrintWriter err, String[] args) {
         if (args.length == 1 && (args[0].equals("--version") || args[0].equals("-V"))) return commandLine(out, err, java.util.Set.of());
-        if (args.length > 0 && SUBCOMMANDS.containsKey(args[0])) return commandLine(out, err, java.util.Set.of(args[0]));
-        return commandLine(out, err, SUBCOMMANDS.keySet());
+        if (args.length > 0 && SUBCOMMANDS.contains(args[0])) return commandLine(out, err, java.util.Set.of(args[0]));
+        return commandLine(out, err, java.util.Set.copyOf(SUBCOMMANDS));
+    }
+
+    /** The root's model, built in code ({@link CodeModel}): no annotation is read before the subcommand's. */
+    private static CommandSpec rootModel() {
+        OutstageCommand root = new OutstageCommand();
+        CommandSpec s = CodeModel.command(root, "outstage", "Distortion and output-stage analysis for transistor audio power amplifiers.");
+        s.version(VERSION);
+        CodeModel.standardHelp(s);
+        root.spec = s;
+        return s;
     }
 
     private static CommandLine commandLine(PrintWriter out, PrintWriter err, java.util.Set<String> names) {
-        CommandLine cl = new CommandLine(new OutstageCommand());
-        for (var e : SUBCOMMANDS.entrySet()) if (names.contains(e.getKey())) cl.addSubcommand(e.getKey(), e.getValue());
+        CommandLine cl = new CommandLine(rootModel());
+        for (String name : SUBCOMMANDS) if (names.contains(name)) cl.addSubcommand(name, subcommand(name));
         cl.setOut(out);
         cl.setErr(err);
         cl.setExitCodeExceptionMapper(t -> EXIT_FAULT);

@@ -28,11 +28,14 @@ import picocli.CommandLine.Parameters;
  * the raw input is kept in a temporary WAV file, which then goes through exactly the file path (measured, stored in the
  * logbook's content-addressed store, step committed) and is deleted.
  */
-@Command(name = "add", mixinStandardHelpOptions = true, description = "Measure a capture (or --live SECONDS from the soundcard) and add it as a bias step; exits 0 only after the step is committed.")
-public final class SessionAddCommand implements Callable<Integer> {
+@Command(name = "add", mixinStandardHelpOptions = true, modelTransformer = AnalyzeOptions.Added.class, description = "Measure a capture (or --live SECONDS from the soundcard) and add it as a bias step; exits 0 only after the step is committed.")
+public final class SessionAddCommand implements Callable<Integer>, AnalyzeOptions.MeasuresCaptures {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
-    @Mixin AnalyzeOptions analyze;
+    final AnalyzeOptions analyze = new AnalyzeOptions();   // mixed in by AnalyzeOptions.Added
+
+    @Override
+    public AnalyzeOptions analyzeOptions() { return analyze; }
 
     @Parameters(index = "0", paramLabel = "ID", converter = Units.SessionId.class, description = "Session id.")
     long sessionId;

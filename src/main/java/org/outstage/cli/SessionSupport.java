@@ -32,7 +32,7 @@ final class SessionSupport {
     private SessionSupport() {}
 
     static String programVersion() {
-        return OutstageCommand.class.getAnnotation(CommandLine.Command.class).version()[0];
+        return OutstageCommand.VERSION;
     }
 
     static void requireReadable(Path capture) {

@@ -15,7 +15,6 @@ import org.outstage.analysis.stage.LevelSweepResult;
 import org.outstage.analysis.stage.RatedPower;
 import org.outstage.json.JsonText;
 import picocli.CommandLine.Command;
-import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
@@ -25,12 +24,18 @@ import picocli.CommandLine.Spec;
  * THD+N against output power, and the distortion-limited output power at 1 % and 10 % THD (IEC 60268-3
  * notion), interpolated between points. Output power is {@code V_rms²/R} of the whole record without DC.
  */
-@Command(name = "sweep", mixinStandardHelpOptions = true, sortOptions = false,
+@Command(name = "sweep", mixinStandardHelpOptions = true, modelTransformer = AnalyzeOptions.Added.class, sortOptions = false,
         description = "THD and THD+N against output power over a level series, and the power at 1 %% and 10 %% THD.")
-public final class SweepCommand implements Callable<Integer> {
+public final class SweepCommand implements Callable<Integer>, AnalyzeOptions.MeasuresCaptures {
     @Spec picocli.CommandLine.Model.CommandSpec spec;
 
-    @Mixin AnalyzeOptions options;
+    final AnalyzeOptions options = new AnalyzeOptions();   // mixed in by AnalyzeOptions.Added
+
+    @Override
+    public AnalyzeOptions analyzeOptions() { return options; }
+
+    @Override
+    public String analyzeOptionsBefore() { return "--json"; }
 
     @Option(names = "--json", description = "Print JSON (keys documented in docs/cli.md).")
     boolean json;

@@ -45,11 +45,14 @@ import picocli.CommandLine.Parameters;
  * {@code --allow-unmeasured}); 2 on bad input (nothing is logged then). The result is logged as a
  * verification session.
  */
-@Command(name = "verify", mixinStandardHelpOptions = true, description = "Check captures against a spec profile; exit 0 all pass, 1 a limit fails or is not measured, 2 bad input.")
-public final class VerifyCommand implements Callable<Integer> {
+@Command(name = "verify", mixinStandardHelpOptions = true, modelTransformer = AnalyzeOptions.Added.class, description = "Check captures against a spec profile; exit 0 all pass, 1 a limit fails or is not measured, 2 bad input.")
+public final class VerifyCommand implements Callable<Integer>, AnalyzeOptions.MeasuresCaptures {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
-    @Mixin AnalyzeOptions analyze;
+    final AnalyzeOptions analyze = new AnalyzeOptions();   // mixed in by AnalyzeOptions.Added
+
+    @Override
+    public AnalyzeOptions analyzeOptions() { return analyze; }
 
     @Option(names = "--spec", required = true, paramLabel = "FILE", description = "Spec profile (docs/spec-format.md).")
     Path specFile;

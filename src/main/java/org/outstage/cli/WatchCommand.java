@@ -33,11 +33,14 @@ import picocli.CommandLine.Parameters;
  * it, one line per capture. Ctrl-C stops cleanly: the step in progress is either committed or, if the
  * process dies mid-way, rolled back by SQLite; nothing is half-written.
  */
-@Command(name = "watch", mixinStandardHelpOptions = true, description = "Add each new capture in a folder to a bias session as it is written; one line per capture.")
-public final class WatchCommand implements Callable<Integer> {
+@Command(name = "watch", mixinStandardHelpOptions = true, modelTransformer = AnalyzeOptions.Added.class, description = "Add each new capture in a folder to a bias session as it is written; one line per capture.")
+public final class WatchCommand implements Callable<Integer>, AnalyzeOptions.MeasuresCaptures {
     @CommandLine.Spec CommandLine.Model.CommandSpec spec;
     @Mixin LogbookPathOption logbook;
-    @Mixin AnalyzeOptions analyze;
+    final AnalyzeOptions analyze = new AnalyzeOptions();   // mixed in by AnalyzeOptions.Added
+
+    @Override
+    public AnalyzeOptions analyzeOptions() { return analyze; }
 
     @Parameters(index = "0", paramLabel = "DIR", description = "Folder the recorder or scope writes into.")
     Path dir;
