@@ -234,15 +234,19 @@ public final class Analyzer {
             if (cycles < MIN_CYCLES)
                 return notMeasured(String.format(java.util.Locale.ROOT, "record too short: %.2f cycles of %s, at least %.1f needed", cycles, Levels.formatHz(f), MIN_CYCLES));
             final SineFit fitted = fit;
+            // the figures from the spectrum follow it on its thread, so they are ready when the diagnosis is
+            Helper<Measurement> fromSpectrum = shortOne ? null
+                    : spectrum.then(span.length, () -> longRecord(span, fitted, spectrum, layout, offset));
             Helper<StageDiagnosis> stage = Helper.start(span.length, () -> diagnose(span, fitted));
             Measurement core;
             StageDiagnosis diagnosis = null;
             try {
                 // with no idle core for the diagnosis, it runs here now, while the spectrum may still run beside it
                 if (stage.inline()) diagnosis = stage.join();
-                core = shortOne ? shortRecord(span, fit) : longRecord(span, fit, spectrum, layout, offset);
+                core = shortOne ? shortRecord(span, fit) : fromSpectrum.join();
             } catch (RuntimeException | Error e) {
                 stage.cancel();
+                if (fromSpectrum != null) fromSpectrum.cancel();
                 spectrum.cancel();
                 throw e;
             }

@@ -32,6 +32,10 @@ final class Helper<T> {
 
     private final Supplier<T> work;
     private final Future<T> future;   // null: run inline at join
+    /** Guards {@link #ended} and {@link #next} of a part handed to another thread. */
+    private final Object lock = new Object();
+    private boolean ended;            // the other thread has finished this part (and what followed it)
+    private Runnable next;            // a part queued to run on the same thread right after this one
 
     private Helper(Supplier<T> work, Future<T> future) {
         this.work = work;
@@ -63,19 +67,52 @@ final class Helper<T> {
             if (busy >= cores) return new Helper<>(work, null);
             if (BUSY.compareAndSet(busy, busy + 1)) break;
         }
-        // done() runs once whether the task ends, fails or is cancelled before it starts: the count stays true
-        FutureTask<T> task = new FutureTask<>(work::get) {
-            @Override
-            protected void done() { BUSY.decrementAndGet(); }
-        };
+        FutureTask<T> task = new FutureTask<>(work::get);
+        Helper<T> h = new Helper<>(work, task);
         try {
-            POOL.execute(task);
+            // the thread counts itself out once, after the part and whatever was queued behind it, whether they end,
+            // fail or were cancelled before they started
+            POOL.execute(() -> {
+                try {
+                    task.run();
+                    Runnable then;
+                    synchronized (h.lock) {
+                        h.ended = true;
+                        then = h.next;
+                    }
+                    if (then != null) {
+                        Thread.interrupted();   // a cancel of the first part interrupts it, not what follows it
+                        then.run();
+                    }
+                } finally {
+                    BUSY.decrementAndGet();
+                }
+            });
             HANDED_OVER.incrementAndGet();
         } catch (RuntimeException e) {   // rejected: run inline
             BUSY.decrementAndGet();
             return new Helper<>(work, null);
         }
-        return new Helper<>(work, task);
+        return h;
+    }
+
+    /**
+     * {@code after} as a part of its own that starts when this one has ended: on this part's thread, right after it,
+     * when this part was handed over and is still running (that thread is then free for it, and no other core need
+     * be); otherwise like {@link #start} (another thread if a core is idle, else inline at its join). {@code after}
+     * may join this part. Its result and exceptions come through its own {@link #join()}.
+     */
+    <R> Helper<R> then(int samples, Supplier<R> after) {
+        if (future != null) {
+            synchronized (lock) {
+                if (!ended && next == null) {
+                    FutureTask<R> task = new FutureTask<>(after::get);
+                    next = task;
+                    return new Helper<>(after, task);
+                }
+            }
+        }
+        return start(samples, after);
     }
 
     /** The result: waits for the other thread, or runs the work now. Its exceptions come through unchanged. */

@@ -83,4 +83,48 @@ class HelperTest {
         assertEquals(base, Helper.busy());
         assertEquals(5, Helper.start(10, () -> 5).join(), "a short record's part runs inline at join");
     }
+
+    @Test
+    void aPartQueuedBehindARunningOne_runsOnItsThreadAfterIt_andTheCountComesBack() throws Exception {
+        org.junit.jupiter.api.Assumptions.assumeTrue(Runtime.getRuntime().availableProcessors() > 1, "needs an idle core");
+        for (int i = 0; i < 500 && Helper.busy() != 0; i++) Thread.sleep(10);
+        int base = Helper.busy();
+        CountDownLatch started = new CountDownLatch(1), release = new CountDownLatch(1);
+        java.util.concurrent.atomic.AtomicReference<Thread> firstOn = new java.util.concurrent.atomic.AtomicReference<>();
+        Helper<Integer> first = Helper.start(Helper.MIN_SAMPLES, () -> {
+            firstOn.set(Thread.currentThread());
+            started.countDown();
+            try {
+                release.await();
+            } catch (InterruptedException ie) {
+                Thread.currentThread().interrupt();
+            }
+            return 1;
+        });
+        assertTrue(started.await(10, java.util.concurrent.TimeUnit.SECONDS));
+        long handed = Helper.handedOver();
+        Helper<String> second = first.then(Helper.MIN_SAMPLES, () -> first.join() + 1 + " on " + (Thread.currentThread() == firstOn.get()));
+        assertTrue(!second.inline(), "queued behind the running part, not inline");
+        assertEquals(handed, Helper.handedOver(), "no second thread taken");
+        release.countDown();
+        assertEquals("2 on true", second.join());
+        for (int i = 0; i < 200 && Helper.busy() != base; i++) Thread.sleep(10);
+        assertEquals(base, Helper.busy());
+    }
+
+    @Test
+    void aPartAfterAnInlineOne_isInlineToo_andFailuresComeThrough() {
+        int cores = Runtime.getRuntime().availableProcessors();
+        for (int i = 0; i < cores; i++) Helper.enter();
+        try {
+            Helper<Integer> first = Helper.start(Helper.MIN_SAMPLES, () -> 3);
+            Helper<Integer> second = first.then(Helper.MIN_SAMPLES, () -> first.join() * 2);
+            assertTrue(first.inline() && second.inline());
+            assertEquals(6, second.join());
+            Helper<Integer> failing = first.then(Helper.MIN_SAMPLES, () -> { throw new IllegalStateException("from the second part"); });
+            assertEquals("from the second part", assertThrows(IllegalStateException.class, failing::join).getMessage());
+        } finally {
+            for (int i = 0; i < cores; i++) Helper.leave();
+        }
+    }
 }
