@@ -81,6 +81,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         if (json && csv) throw new BadInputException("--json and --csv exclude each other");
         options.settings(); // validate options once, before any file is read
+        prepareTextOutput();
         List<Outcome> outcomes = analyseAll(files, options, err);
         int bad = 0;
         List<Measuring.FileResult> good = new ArrayList<>();
@@ -116,6 +117,23 @@ public final class AnalyzeCommand implements Callable<Integer> {
         }
         out.flush();
         return bad > 0 ? OutstageCommand.EXIT_BAD_INPUT : OutstageCommand.EXIT_OK;
+    }
+
+    /**
+     * Makes the JDK's number formatting and the JSON writer ready on another thread while the captures are read: their
+     * first use loads and initialises the locale data and some 60 classes (8-10 ms), which would otherwise fall on the
+     * analysis's own path when it writes the crossover verdict's text and on the output (docs/performance.md, "Fourth
+     * round"). Only with a second core, which is idle then; nothing it makes is kept.
+     */
+    static void prepareTextOutput() {
+        if (Runtime.getRuntime().availableProcessors() < 2) return;
+        Thread t = new Thread(() -> {
+            String text = String.format(java.util.Locale.ROOT, "%.4f %.1e %.4g %.2f %s %d", 1.0, 2.0, 3.0, 4.0, "x", 5);
+            JsonText.pretty(JsonText.obj("text", text, "number", 0.25, "list", List.of(1, 2.5)));
+        }, "outstage-prepare-text");
+        t.setDaemon(true);
+        t.setPriority(Thread.MIN_PRIORITY);
+        t.start();
     }
 
     /** The result of one file: figures or a one-line error. */
