@@ -35,8 +35,14 @@ outstage_jvm_options() {
     local a bytes=0
     local paths=()
     for a in "$@"; do if [ -e "$a" ]; then paths+=("$a"); fi; done
-    if [ ${#paths[@]} -gt 0 ]; then bytes=$(du -cbL -- "${paths[@]}" 2>/dev/null | tail -n 1 | cut -f1); fi
-    bytes=${bytes:-0}
+    if [ ${#paths[@]} -gt 0 ]; then
+      # the total is du's last line, "BYTES<tab>total", cut out by the shell rather than two more processes
+      local sizes
+      sizes=$(du -cbL -- "${paths[@]}" 2>/dev/null) || true
+      bytes=${sizes##*$'\n'}
+      bytes=${bytes%%[[:space:]]*}
+    fi
+    case "$bytes" in ''|*[!0-9]*) bytes=0 ;; esac
     # On a machine of at most two cores the serial collector: the 120-file batch 1.25 -> 1.18 s and 1.40 -> 1.29 s
     # in two runs, half the system time (the default collector starts with a small young generation and grows it
     # collection by collection); one capture no different. Larger machines keep the default.

@@ -55,6 +55,21 @@ class LaunchOptionsTest {
         assertEquals("mode=cli", options().get(0), "no command and no display: the bench job");
     }
 
+    /** More than 256 MB of captures in one run keep both compilers; the sizes of all the files are summed. */
+    @Test
+    void largeBatch_keepsBothCompilers_bySummedSize(@TempDir Path dir) throws Exception {
+        assumeFalse(windows(), "the rules are bash (Windows runs tools/outstage.cmd)");
+        Path a = dir.resolve("a.wav"), b = dir.resolve("b b.wav");   // sparse: the size is what counts, not the blocks
+        for (Path f : List.of(a, b)) {
+            try (java.io.RandomAccessFile r = new java.io.RandomAccessFile(f.toFile(), "rw")) {
+                r.setLength(150L * 1024 * 1024);
+            }
+        }
+        assertTrue(options("analyze", a.toString()).contains("-XX:TieredStopAtLevel=1"), "150 MB: client compiler");
+        List<String> both = options("analyze", "--json", a.toString(), b.toString(), "missing.wav");
+        assertFalse(both.contains("-XX:TieredStopAtLevel=1"), "300 MB in two files: both compilers " + both);
+    }
+
     @Test
     void compilerCommands_comeAfterQuiet() throws Exception {
         assumeFalse(windows(), "the rules are bash (Windows runs tools/outstage.cmd)");
