@@ -177,6 +177,8 @@ public final class Analyzer {
         final Weighting weighting;
         /** The coarse peak search's spectrum of the span's first samples (set by the fit, before the stage starts). */
         HannSpectrum coarse;
+        /** The span's level figures (set before the stage starts; every sample finite). */
+        SignalCheck.Level level;
 
         Run(Capture capture, int index, AnalysisSettings s) {
             this.capture = capture;
@@ -207,6 +209,7 @@ public final class Analyzer {
             double acRms = Math.sqrt(ac2 / span.length);
             if (!(acRms > 1e-12 * Math.max(peak, Double.MIN_NORMAL)) || acRms == 0)
                 return notMeasured("silence or DC only: no AC signal in the record");
+            level = new SignalCheck.Level(mean, acRms, peak);   // summed as the signal check sums them: it need not again
             // The Welch spectrum of a long record depends on the record alone (its blocks are laid out by the record's
             // length; the offset taken off before windowing is the span's mean), so it starts beside the fit. A record
             // the fit then finds short, or a tone too low for the blocks, gives it up (see longRecord).
@@ -297,7 +300,7 @@ public final class Analyzer {
                 if (ref == index) throw new IllegalArgumentException("reference channel " + (ref + 1) + " is the analysed channel");
                 d = StageAnalyzer.diagnose(span, capture.readChannel(ref, span.length), fs, fit, ss, Optional.ofNullable(coarse));
             } else {
-                d = StageAnalyzer.diagnose(span, fs, fit, ss, Optional.ofNullable(coarse));
+                d = StageAnalyzer.diagnose(span, fs, fit, ss, Optional.ofNullable(coarse), Optional.ofNullable(level));
             }
             return d;
         }

@@ -210,6 +210,23 @@ class AnalyzerTest {
         assertTrue(m.notMeasuredReason().orElse("").contains("DC only"));
     }
 
+    /**
+     * A tone of 5e-5 on a DC of 1 passes the analysis's own silence rule but not the stage's DC rule, which reads the
+     * level figures the analysis took (SignalCheck.Level): its reason, numbers included, is the one the signal check
+     * gives when it takes them itself.
+     */
+    @Test
+    void smallToneOnLargeDc_stageRefusedWithTheCheckOwnReason() {
+        double fs = 48000;
+        double[] y = new double[48000];
+        for (int i = 0; i < y.length; i++) y[i] = 1.0 + 5e-5 * Math.sin(2 * Math.PI * 997 * i / fs);
+        Measurement m = Analyzer.analyze(y, fs, SampleUnit.VOLTS);
+        String own = org.outstage.analysis.stage.SignalCheck.check(y, fs, SineFitter.fit(y, fs)).orElse("");
+        assertTrue(own.startsWith("DC only"), own);
+        assertTrue(m.stage() instanceof org.outstage.analysis.stage.StageDiagnosis.NotMeasured, String.valueOf(m.stage()));
+        assertEquals(own, ((org.outstage.analysis.stage.StageDiagnosis.NotMeasured) m.stage()).reason());
+    }
+
     @Test
     void oneCycle_isNotMeasured() {
         double fs = 100000;

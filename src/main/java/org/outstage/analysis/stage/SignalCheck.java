@@ -51,8 +51,21 @@ public final class SignalCheck {
      * as many samples.
      */
     public static Optional<String> check(double[] samples, double sampleRateHz, SineFit fit, Optional<HannSpectrum> head) {
+        return check(samples, sampleRateHz, fit, head, Optional.empty());
+    }
+
+    /**
+     * The level figures of a record, as the silence and DC rules take them: the mean (the samples summed in order),
+     * the RMS about it (the squared deviations summed in order) and the largest magnitude. A caller that has taken
+     * them this way, and found every sample finite, passes them in so the rules do not make the two passes again.
+     */
+    public record Level(double mean, double acRms, double maxAbs) {}
+
+    /** As {@link #check(double[], double, SineFit, Optional)}, with the record's {@link Level} when already taken. */
+    public static Optional<String> check(double[] samples, double sampleRateHz, SineFit fit, Optional<HannSpectrum> head,
+                                         Optional<Level> known) {
         Require.notNull("fit", fit);
-        Optional<String> basic = level(samples, sampleRateHz);
+        Optional<String> basic = level(samples, sampleRateHz, known);
         if (basic.isPresent()) return basic;
         double cycles = fit.frequencyHz() * samples.length / sampleRateHz;
         if (!(cycles >= 1))
@@ -75,24 +88,33 @@ public final class SignalCheck {
 
     /** The rules that need no fit (use before fitting: a fit of silence or of a square is meaningless). */
     public static Optional<String> check(double[] samples, double sampleRateHz) {
-        Optional<String> basic = level(samples, sampleRateHz);
+        Optional<String> basic = level(samples, sampleRateHz, Optional.empty());
         return basic.isPresent() ? basic : shape(samples, sampleRateHz, Optional.empty());
     }
 
-    private static Optional<String> level(double[] x, double fs) {
+    private static Optional<String> level(double[] x, double fs, Optional<Level> known) {
         Require.notNull("samples", x);
         Require.positive("sampleRateHz", fs);
         if (x.length < 16) return Optional.of("record too short: " + x.length + " samples; at least 16 and one full cycle are needed");
-        double sum = 0, maxAbs = 0;
-        for (int i = 0; i < x.length; i++) {
-            if (!Double.isFinite(x[i])) return Optional.of("sample " + i + " is not a finite number (" + x[i] + ")");
-            sum += x[i];
-            maxAbs = Math.max(maxAbs, Math.abs(x[i]));
+        double mean, acRms, maxAbs;
+        if (known.isPresent()) {
+            mean = known.get().mean();
+            acRms = known.get().acRms();
+            maxAbs = known.get().maxAbs();
+        } else {
+            double sum = 0;
+            maxAbs = 0;
+            for (int i = 0; i < x.length; i++) {
+                if (!Double.isFinite(x[i])) return Optional.of("sample " + i + " is not a finite number (" + x[i] + ")");
+                sum += x[i];
+                maxAbs = Math.max(maxAbs, Math.abs(x[i]));
+            }
+            mean = sum / x.length;
+            double ss = 0;
+            for (double v : x) ss += (v - mean) * (v - mean);
+            acRms = Math.sqrt(ss / x.length);
         }
         if (maxAbs <= SILENCE) return Optional.of("silence: no sample exceeds 1e-7 in magnitude");
-        double mean = sum / x.length, ss = 0;
-        for (double v : x) ss += (v - mean) * (v - mean);
-        double acRms = Math.sqrt(ss / x.length);
         if (acRms < 1e-4 * Math.abs(mean))
             return Optional.of(String.format(Locale.ROOT, "DC only: the record sits at %.6g with an AC RMS of %.3g (below 0.01 %% of the DC)", mean, acRms));
         return Optional.empty();

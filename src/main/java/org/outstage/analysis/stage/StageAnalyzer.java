@@ -57,11 +57,21 @@ public final class StageAnalyzer {
      * {@code samples} already made by the coarse peak search (the signal check reads it when it looks at as many).
      */
     public static StageDiagnosis diagnose(double[] samples, double sampleRateHz, SineFit fit, StageSettings s, Optional<HannSpectrum> head) {
+        return diagnose(samples, sampleRateHz, fit, s, head, Optional.empty());
+    }
+
+    /**
+     * As {@link #diagnose(double[], double, SineFit, StageSettings, Optional)}, with the level figures of
+     * {@code samples} the caller has already taken ({@link SignalCheck.Level}: the signal check then does not take
+     * them again).
+     */
+    public static StageDiagnosis diagnose(double[] samples, double sampleRateHz, SineFit fit, StageSettings s, Optional<HannSpectrum> head,
+                                          Optional<SignalCheck.Level> level) {
         Require.notNull("samples", samples);
         Require.positive("sampleRateHz", sampleRateHz);
         Require.notNull("fit", fit);
         Require.notNull("settings", s);
-        Optional<String> why = SignalCheck.check(samples, sampleRateHz, fit, head);
+        Optional<String> why = SignalCheck.check(samples, sampleRateHz, fit, head, level);
         if (why.isPresent()) return new StageDiagnosis.NotMeasured(why.get());
         int n = samples.length;
         double[] x = new double[n];
