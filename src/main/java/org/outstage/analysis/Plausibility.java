@@ -14,7 +14,8 @@ import java.util.OptionalDouble;
  * so an output above {@value #MAX_PLAUSIBLE_VOLTS_RMS} V rms or {@value #MAX_PLAUSIBLE_WATTS} W is taken as a
  * calibration mistake (a wrong {@code --fs-volts} or probe ratio). The crossover figures average the transfer curve
  * over the record's passes through zero; with fewer than {@value #MIN_CYCLES_FOR_CROSSOVER} cycles (our rule: 20
- * zero crossings, enough for the bin averages to beat the quantisation of an 8-bit scope export) they are not given.
+ * zero crossings, enough for the bin averages to beat the quantisation of an 8-bit scope export) they are not given;
+ * nor when the samples near zero do not cover the crossing ({@link #crossoverNotGiven}).
  */
 public final class Plausibility {
     private Plausibility() {}
@@ -31,10 +32,34 @@ public final class Plausibility {
         return m.measured() ? m.fundamental().frequencyHz() * m.durationSeconds() : 0;
     }
 
-    /** Whether the record is long enough for the crossover figures ({@link #MIN_CYCLES_FOR_CROSSOVER}). */
+    /**
+     * Whether the crossover figures are given: the record spans at least {@link #MIN_CYCLES_FOR_CROSSOVER} cycles, and
+     * its samples cover the crossing ({@link #crossoverNotGiven}).
+     */
     public static boolean crossoverGiven(Measurement m) {
-        return cycles(m) >= MIN_CYCLES_FOR_CROSSOVER;
+        return crossoverNotGiven(m).isEmpty();
     }
+
+    /**
+     * Why the crossover figures are not given, if they are not: the record is shorter than
+     * {@link #MIN_CYCLES_FOR_CROSSOVER} cycles, or its samples near zero do not cover the crossing (a tone locked to the
+     * sample rate repeats a few sample values there, and a notch may lie whole between two of them: the gain at zero
+     * read between them is then off by more than any uncertainty it could state; {@code
+     * CrossoverMetrics.Resolution#crossingObserved}). One sentence without a trailing period.
+     */
+    public static java.util.Optional<String> crossoverNotGiven(Measurement m) {
+        if (cycles(m) < MIN_CYCLES_FOR_CROSSOVER)
+            return java.util.Optional.of(String.format(Locale.ROOT, "the record spans %.1f cycles; at least %d are needed", cycles(m),
+                    MIN_CYCLES_FOR_CROSSOVER));
+        if (m.stage() instanceof org.outstage.analysis.stage.StageDiagnosis.Measured d && !d.crossover().resolution().crossingObserved())
+            return java.util.Optional.of(UNOBSERVED_CROSSING);
+        return java.util.Optional.empty();
+    }
+
+    /** {@link #crossoverNotGiven} when the samples do not cover the crossing. */
+    static final String UNOBSERVED_CROSSING = "the samples near zero do not cover the crossing: they sit on a few values there "
+            + "(a tone locked to the sample rate, such as 1 kHz at 48 kHz, repeats a few sample phases), and a notch may lie between them; "
+            + "use a tone such as 997 Hz, whose samples fall on new phases cycle after cycle";
 
     /**
      * The cautions for a measurement, each one sentence without a trailing period.
@@ -53,9 +78,11 @@ public final class Plausibility {
         if (m.powerWatts().isPresent() && m.powerWatts().get().totalWatts() > MAX_PLAUSIBLE_WATTS)
             out.add(String.format(Locale.ROOT, "%s W is beyond any audio amplifier (above %s W): check the calibration and --load",
                     num(m.powerWatts().get().totalWatts()), num(MAX_PLAUSIBLE_WATTS)));
-        if (!crossoverGiven(m))
+        if (cycles(m) < MIN_CYCLES_FOR_CROSSOVER)
             out.add(String.format(Locale.ROOT, "the record spans %.1f cycles: too short for the crossover figures (at least %d cycles are needed)",
                     cycles(m), MIN_CYCLES_FOR_CROSSOVER));
+        else if (!crossoverGiven(m))
+            out.add("no crossover figures: " + UNOBSERVED_CROSSING);
         return List.copyOf(out);
     }
 

@@ -242,8 +242,10 @@ public final class LiveCommand implements Callable<Integer>, AnalyzeOptions.Meas
         sb.append(String.format(Locale.ROOT, "  %.2f Hz  THD %.4f %%  THD+N %.4f %%%s", m.fundamental().frequencyHz(), m.thd().percent(), m.thdN().percent(),
                 m.thdN().atFloor() ? " (floor)" : ""));
         if (m.stage() instanceof StageDiagnosis.Measured d) {
-            sb.append(String.format(Locale.ROOT, "  gain@0 %.4f ± %.2g %s", d.crossover().gainAtZero(), d.crossover().gainAtZeroStdError(),
-                    d.crossover().verdict().label()));
+            if (org.outstage.analysis.Plausibility.crossoverGiven(m))
+                sb.append(String.format(Locale.ROOT, "  gain@0 %.4f ± %.2g %s", d.crossover().gainAtZero(), d.crossover().gainAtZeroStdError(),
+                        d.crossover().verdict().label()));
+            else sb.append("  crossover not given");
             sb.append(d.clipping().detected() ? "  CLIPPING" : "  no clip");
         } else {
             sb.append("  crossover n/a");

@@ -46,8 +46,12 @@ final class LogbookPipelineMeasurer implements LogbookMeasurer {
         if (m.powerWatts().isPresent()) f = f.withPower(m.powerWatts().get().totalWatts(), m.powerWatts().get().loadOhms());
         if (m.stage() instanceof StageDiagnosis.Measured d) {
             if (Double.isFinite(d.residual().rmsVolts())) f = f.withResidualRms(d.residual().rmsVolts());
-            if (Double.isFinite(d.crossover().gainAtZero())) f = f.withCrossover(d.crossover().gainAtZero(), d.crossover().verdict().label());
-            if (Double.isFinite(d.crossover().verdictRatio())) f = f.withCrossoverRatio(d.crossover().verdictRatio());
+            // the crossover figures only where analyze gives them (analysis.Plausibility): a bias step must not carry a
+            // gain at zero read between the samples of a locked tone, or from too few cycles
+            if (org.outstage.analysis.Plausibility.crossoverGiven(m)) {
+                if (Double.isFinite(d.crossover().gainAtZero())) f = f.withCrossover(d.crossover().gainAtZero(), d.crossover().verdict().label());
+                if (Double.isFinite(d.crossover().verdictRatio())) f = f.withCrossoverRatio(d.crossover().verdictRatio());
+            }
             if (d.clipping().asymmetryPercent().isPresent()) f = f.withClipAsymmetry(d.clipping().asymmetryPercent().getAsDouble() / 100);
         }
         return f;

@@ -149,8 +149,7 @@ public final class BenchReport {
                         .append(", negative ").append(HtmlReport.esc(clip.negative().map(p -> String.format(java.util.Locale.ROOT, "%.2f %s", p.levelVolts(), m.unit())).orElse("none")))
                         .append(", first: ").append(HtmlReport.esc(clip.clipsFirst().label())).append(".</p>\n");
             h.append("<p>").append(HtmlReport.esc(crossover ? "Crossover: " + s.crossover().explanation()
-                    : String.format(java.util.Locale.ROOT, "Crossover: not given; the record spans %.1f cycles, at least %d are needed.",
-                            org.outstage.analysis.Plausibility.cycles(m), org.outstage.analysis.Plausibility.MIN_CYCLES_FOR_CROSSOVER)))
+                    : "Crossover: not given: " + org.outstage.analysis.Plausibility.crossoverNotGiven(m).orElseThrow() + "."))
                     .append("</p>\n");
         }
         if (noiseCapture) h.append("<p>Noise capture: the strongest line is hum or noise, not a test tone; its distortion and stage figures are not given.</p>\n");

@@ -98,8 +98,7 @@ public final class FigureTable {
             }
             CrossoverMetrics x = s.crossover();
             if (!Plausibility.crossoverGiven(m)) {
-                sb.append(String.format(Locale.ROOT, "  crossover     not given: the record spans %.1f cycles; at least %d are needed%n",
-                        Plausibility.cycles(m), Plausibility.MIN_CYCLES_FOR_CROSSOVER));
+                sb.append("  crossover     not given: ").append(Plausibility.crossoverNotGiven(m).orElseThrow()).append(System.lineSeparator());
             } else {
                 sb.append(String.format(Locale.ROOT, "  crossover     gain at zero %.4f (standard error %s): %s (confidence %.2f)%n", x.gainAtZero(),
                         String.format(Locale.ROOT, "%.1e", x.gainAtZeroStdError()), x.verdict().label(), x.confidence()));

@@ -158,6 +158,8 @@ public final class MeasurementJson {
         o.put("large_signal_gain", x.outerMeanGain());
         o.put("hysteresis", s.transfer().hysteresis().detected());
         o.put("explanation", x.explanation());
+        // added: false when the samples near zero do not cover the crossing (then "crossover_given" is false too)
+        o.put("crossing_observed", x.resolution().crossingObserved());
         return o;
     }
 

@@ -277,10 +277,16 @@ final class AnalyzerBackend implements Backend {
             rows.add(new FigureRow("h" + h.order() + "Value", "H" + h.order(), (h.resolved() ? "" : "< ") + num(h.dbc()), "dBc",
                     pct(Levels.ratioToPercent(h.ratio())) + " %" + (h.resolved() ? "" : "; not above the noise (an upper bound)")));
         if (m.stage() instanceof StageDiagnosis.Measured d) {
-            rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
-                    d.crossover().explanation()));
-            rows.add(new FigureRow("gainAtZeroValue", "Gain at zero", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
-                    "relative; ± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
+            // as the command line and the report: a record too short, or whose samples miss the crossing, gives none
+            java.util.Optional<String> notGiven = org.outstage.analysis.Plausibility.crossoverNotGiven(m);
+            if (notGiven.isPresent()) {
+                rows.add(new FigureRow("crossoverValue", "Crossover", "not given", "", notGiven.get()));
+            } else {
+                rows.add(new FigureRow("crossoverValue", "Crossover", d.crossover().verdict().label(), "",
+                        d.crossover().explanation()));
+                rows.add(new FigureRow("gainAtZeroValue", "Gain at zero", String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZero()), "",
+                        "relative; ± " + String.format(Locale.ROOT, "%.4f", d.crossover().gainAtZeroStdError())));
+            }
             rows.addAll(clippingRows(d.clipping(), u, CaptureReader.isWavName(m.captureName())));
         } else if (m.stage() instanceof StageDiagnosis.NotMeasured n) {
             rows.add(new FigureRow("crossoverValue", "Crossover", "not measured", "", n.reason()));

@@ -324,7 +324,7 @@ final class LiveView implements WorkbenchView {
         double gain = Double.NaN, thd = Double.NaN, se = Double.NaN;
         if (m.isPresent() && m.get().measured()) {
             thd = m.get().thd().percent();
-            if (m.get().stage() instanceof StageDiagnosis.Measured d) {
+            if (m.get().stage() instanceof StageDiagnosis.Measured d && org.outstage.analysis.Plausibility.crossoverGiven(m.get())) {
                 gain = d.crossover().gainAtZero();
                 se = d.crossover().gainAtZeroStdError();
             }
@@ -348,7 +348,9 @@ final class LiveView implements WorkbenchView {
             figure("liveThd", "THD", AnalyzerBackend.pct(x.thd().percent()) + " %");
             figure("liveThdn", "THD+N", AnalyzerBackend.pct(x.thdN().percent()) + " %");
             if (x.stage() instanceof StageDiagnosis.Measured d) {
-                figure("liveGain", "Gain at zero", gainText(d.crossover()));
+                Optional<String> notGiven = org.outstage.analysis.Plausibility.crossoverNotGiven(x);
+                Label g = figure("liveGain", "Gain at zero", notGiven.isPresent() ? "not given" : gainText(d.crossover()));
+                notGiven.ifPresent(why -> g.setTooltip(new javafx.scene.control.Tooltip(why)));
                 Label clip = figure("liveClipping", "Clipping", d.clipping().detected() ? "clipping" : "no");
                 if (d.clipping().detected()) clip.setStyle(clip.getStyle() + "-fx-text-fill: #a0281e;");
             } else if (x.stage() instanceof StageDiagnosis.NotMeasured n) {

@@ -168,7 +168,7 @@ class OneAnswerWalkTest {
         int at = html.indexOf("<h2>da60-scope-70W-clipping.csv");
         int end = html.indexOf("<h2>", at + 4);
         String scope = html.substring(at, end < 0 ? html.length() : end);
-        assertTrue(scope.contains("Crossover: not given; the record spans 4.0 cycles"), scope);
+        assertTrue(scope.contains("Crossover: not given: the record spans 4.0 cycles"), scope);
         assertFalse(scope.contains("incremental gain against output"), "no transfer chart for 4 cycles");
     }
 }

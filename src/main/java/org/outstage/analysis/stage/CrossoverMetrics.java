@@ -76,7 +76,12 @@ public record CrossoverMetrics(double gainAtZero, double gainAtZeroStdError, dou
      *                             (0 when there is no notch)
      * @param notchDepthStdErrorVolts σ of {@code notchDepthVolts}: the noise of the adaptive local value at the
      *                             extremum, its resolution bias (h⁴ ladder) and the best line's binning, in quadrature
+     * @param crossingObserved     whether the samples cover the crossing: false when they sit on a few values near
+     *                             zero with a gap wider than a quarter of the window (a tone locked to the sample rate,
+     *                             or too short a record). Then the gain at zero is read between sample values, where
+     *                             a notch may hide whole, its error is not bounded by its standard error, and the
+     *                             crossover figures are not given (analysis.Plausibility)
      */
     public record Resolution(double windowHalfWidthVolts, double noiseStdError, double resolutionBias,
-                             double notchWidthStdErrorVolts, double notchDepthStdErrorVolts) {}
+                             double notchWidthStdErrorVolts, double notchDepthStdErrorVolts, boolean crossingObserved) {}
 }

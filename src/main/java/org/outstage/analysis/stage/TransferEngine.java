@@ -204,7 +204,7 @@ final class TransferEngine {
                 nearZeroResidualShare, nearZeroTimeShare, hyst, outerClipped, outerFalling ? flat : Double.NaN,
                 quantStep > (2 * h + 1) * width / 8 ? quantStep : 0, a0.isEmpty(), s,
                 new CrossoverMetrics.Resolution(g0Window, Math.sqrt(g0NoiseVar) / Math.abs(outer), g0Bias / Math.abs(outer), notch[1],
-                        notchDepth[1]));
+                        notchDepth[1], a0.isPresent()));
         return new Result(transfer, clipping, crossover);
     }
 
@@ -632,6 +632,9 @@ final class TransferEngine {
         return ys[j - 1] + t * (ys[j] - ys[j - 1]);
     }
 
+    /** The start of the explanation when the samples near zero do not cover the crossing. */
+    static final String UNOBSERVED = "the samples near zero do not cover the crossing (too few distinct phases: a tone locked to the sample rate, or too short a record)";
+
     private static CrossoverMetrics verdict(double rDefined, double rDefinedSe, double asymptote, double r, double rSe, double g0,
                                             double outer, double notchWidth, double depth,
                                             double peak, double nzShare, double nzTime, Hysteresis hyst, boolean outerClipped,
@@ -651,8 +654,9 @@ final class TransferEngine {
         if (unresolved) {
             // first: with the crossing unobserved, the other readings (even hysteresis) come from too few phases
             v = BiasVerdict.UNCLEAR; conf = 0;
-            why = "the samples near zero do not cover the crossing (too few distinct phases: a tone locked to the sample rate, or too short a record); use e.g. 997 Hz at 48 kHz, "
-                    + rTxt;
+            // and the gain at zero read between them has no known uncertainty (the notch may lie between two sample
+            // values: 0.98 read against a truth of 0.75 at 1 kHz, 48 kHz; docs/diagnosis.md §5), so no figure is quoted
+            why = UNOBSERVED + "; use e.g. 997 Hz at 48 kHz";
         } else if (outerClipped) { // clipping next: it explains a rising/falling difference near the top as well
             v = BiasVerdict.UNCLEAR; conf = 0;
             why = "clipping reaches into the outer swing used as the large-signal reference; lower the level, " + rTxt;

@@ -89,6 +89,43 @@ class MeasurementTruthTest {
         assertTrue(c.explanation().contains("distinct phases"), c.explanation());
     }
 
+    /**
+     * Tones locked to the sample rate (1 kHz at 48 kHz) over six sample phases, three biases and two levels: the samples
+     * near zero never cover the crossing, so the crossover figures are not given (analysis.Plausibility, which every
+     * face reads) and the explanation quotes no figure. The premise, against the truth (implicit differentiation): the
+     * gain at zero the engine reads between the sample values misses the truth by more than three of its stated
+     * standard errors in a third of these records or more (at 0.9 of full scale the nearest samples lie 4.7 V from zero
+     * and a notch of a few volts hides between them: 0.98 read against 0.75 at Vq = 1 mV), so no uncertainty stated
+     * for that reading could be trusted.
+     */
+    @Test
+    void toneLockedToSampleRate_overPhasesBiasesAndLevels_crossoverNotGiven_readingBetweenSamplesMissesTheTruth() {
+        double fs = 48000;
+        int cases = 0, misses = 0;
+        long seed = 500;
+        for (double level : new double[] {0.1, 0.9})
+            for (double vq : new double[] {1e-3, 5e-3, 26e-3})
+                for (int k = 0; k < 6; k++) {
+                    StageFixtures.Pair p = PushPullTruth.biasedAt(vq);
+                    double a = drive(level), phase = 2 * Math.PI * (1000 / fs) * k / 6 + 0.01;
+                    double[] y = StageFixtures.quantise(StageFixtures.noisy(PushPullTruth.drive(p, (int) (SECONDS * fs), fs, 1000, a, phase),
+                            FULL_SCALE * 1e-6, seed++), FULL_SCALE, 24);
+                    org.outstage.analysis.Measurement m = org.outstage.analysis.Analyzer.analyze(y, fs, org.outstage.capture.SampleUnit.VOLTS);
+                    String at = String.format("level %.1f, Vq %.0f mV, phase %d/6", level, vq * 1e3, k);
+                    assertTrue(m.stage() instanceof StageDiagnosis.Measured, at + ": " + m.stage());
+                    CrossoverMetrics c = ((StageDiagnosis.Measured) m.stage()).crossover();
+                    assertTrue(!c.resolution().crossingObserved(), at);
+                    assertTrue(!org.outstage.analysis.Plausibility.crossoverGiven(m), at);
+                    assertTrue(org.outstage.analysis.Plausibility.crossoverNotGiven(m).orElse("").contains("do not cover the crossing"), at);
+                    assertEquals(BiasVerdict.UNCLEAR, c.verdict(), at);
+                    assertTrue(!c.explanation().contains("±"), at + ": " + c.explanation());
+                    cases++;
+                    if (Math.abs(c.gainAtZero() - PushPullTruth.gainAtZero(p, a)) > 3 * c.gainAtZeroStdError()) misses++;
+                }
+        assertEquals(36, cases);
+        assertTrue(misses >= cases / 3, "the reading between samples missed the truth by > 3 SE in only " + misses + " of " + cases);
+    }
+
     /** The record generator and the fixture's per-point solver solve the same equations: they must agree. */
     @Test
     void recordGenerator_agreesWithPointSolver() {
@@ -175,6 +212,8 @@ class MeasurementTruthTest {
                         double a = drive(level);
                         double[] y = StageFixtures.quantise(StageFixtures.noisy(clean(fs, level, vq), FULL_SCALE * nz, seed++), FULL_SCALE, 24);
                         CrossoverMetrics c = crossover(y, fs);
+                        // 997 Hz is not locked to either rate: every record covers its crossing
+                        assertTrue(c.resolution().crossingObserved(), "crossing observed at fs " + fs + ", level " + level + ", Vq " + vq);
                         double eG = c.gainAtZero() - PushPullTruth.gainAtZero(p, a);
                         double eV = c.verdictRatio() - verdictTruth(c, p, a);
                         cases++;
