@@ -58,14 +58,19 @@ class HelperTest {
         assertTrue(e.getMessage().contains("reference channel 2 does not exist"), e.getMessage());
     }
 
-    @Test
-    void cancelledBeforeOrWhileRunning_leavesTheCountAsFound() throws Exception {
-        // a helper of an earlier test counts itself out in FutureTask.done(), just after its result was handed over:
-        // wait for that before taking the count this test must leave as it found it
+    /**
+     * The count of busy threads once the helpers of earlier tests have counted themselves out (each does so after its
+     * part, and what was queued behind it, have ended: just after its result was handed over).
+     */
+    private static int settledBusy() throws InterruptedException {
         for (int i = 0; i < 500 && Helper.busy() != 0; i++) Thread.sleep(10);
-        int base = Helper.busy();
-        CountDownLatch started = new CountDownLatch(1), release = new CountDownLatch(1);
-        Helper<Integer> running = Helper.start(Helper.MIN_SAMPLES, () -> {
+        return Helper.busy();
+    }
+
+    /** A part that notes its thread, says it started and waits for {@code release}; its result is 1. */
+    private static Helper<Integer> blocking(CountDownLatch started, CountDownLatch release, java.util.concurrent.atomic.AtomicReference<Thread> on) {
+        return Helper.start(Helper.MIN_SAMPLES, () -> {
+            on.set(Thread.currentThread());
             started.countDown();
             try {
                 release.await();
@@ -74,6 +79,13 @@ class HelperTest {
             }
             return 1;
         });
+    }
+
+    @Test
+    void cancelledBeforeOrWhileRunning_leavesTheCountAsFound() throws Exception {
+        int base = settledBusy();
+        CountDownLatch started = new CountDownLatch(1), release = new CountDownLatch(1);
+        Helper<Integer> running = blocking(started, release, new java.util.concurrent.atomic.AtomicReference<>());
         Helper<Integer> queued = Helper.start(Helper.MIN_SAMPLES, () -> 2);
         queued.cancel();
         if (Runtime.getRuntime().availableProcessors() > 1) assertTrue(started.await(10, java.util.concurrent.TimeUnit.SECONDS));
@@ -87,20 +99,10 @@ class HelperTest {
     @Test
     void aPartQueuedBehindARunningOne_runsOnItsThreadAfterIt_andTheCountComesBack() throws Exception {
         org.junit.jupiter.api.Assumptions.assumeTrue(Runtime.getRuntime().availableProcessors() > 1, "needs an idle core");
-        for (int i = 0; i < 500 && Helper.busy() != 0; i++) Thread.sleep(10);
-        int base = Helper.busy();
+        int base = settledBusy();
         CountDownLatch started = new CountDownLatch(1), release = new CountDownLatch(1);
         java.util.concurrent.atomic.AtomicReference<Thread> firstOn = new java.util.concurrent.atomic.AtomicReference<>();
-        Helper<Integer> first = Helper.start(Helper.MIN_SAMPLES, () -> {
-            firstOn.set(Thread.currentThread());
-            started.countDown();
-            try {
-                release.await();
-            } catch (InterruptedException ie) {
-                Thread.currentThread().interrupt();
-            }
-            return 1;
-        });
+        Helper<Integer> first = blocking(started, release, firstOn);
         assertTrue(started.await(10, java.util.concurrent.TimeUnit.SECONDS));
         long handed = Helper.handedOver();
         Helper<String> second = first.then(Helper.MIN_SAMPLES, () -> first.join() + 1 + " on " + (Thread.currentThread() == firstOn.get()));

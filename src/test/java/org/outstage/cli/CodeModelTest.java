@@ -4,14 +4,11 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.outstage.Launcher;
 import picocli.CommandLine;
 
 /**
@@ -25,15 +22,7 @@ class CodeModelTest {
 
     /** Classes the JVM generated for annotation instances (the proxies picocli's annotation reading makes). */
     private List<String> proxiesLoaded(String... args) throws Exception {
-        Path log = dir.resolve("classes-" + System.nanoTime() + ".log");
-        List<String> cmd = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
-                "-Xlog:class+load=info:file=" + log, "-Djava.awt.headless=true", "-XX:TieredStopAtLevel=1",
-                "-cp", System.getProperty("java.class.path"), Launcher.class.getName()));
-        cmd.addAll(List.of(args));
-        Process p = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(ProcessBuilder.Redirect.DISCARD).start();
-        assertTrue(p.waitFor(120, TimeUnit.SECONDS));
-        assertEquals(0, p.exitValue(), String.join(" ", args));
-        return Files.readAllLines(log).stream().filter(l -> l.contains("__dynamic_proxy__")).toList();
+        return ChildJvm.classLoadLog(dir, args).stream().filter(l -> l.contains("__dynamic_proxy__")).toList();
     }
 
     @Test
