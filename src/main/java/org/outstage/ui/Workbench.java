@@ -59,6 +59,7 @@ public final class Workbench extends Application {
 
     @Override
     public void start(Stage stage) {
+        WorkbenchLauncher.toolkitStarted();
         WorkbenchPane pane = createPane();
         this.pane = pane;
         List<String> raw = getParameters().getRaw();

@@ -13,6 +13,18 @@ import javafx.application.Application;
 public final class WorkbenchLauncher {
     private WorkbenchLauncher() {}
 
+    /**
+     * JavaFX logs "Unsupported JavaFX configuration: classes were loaded from 'unnamed module'" at every start when its
+     * classes come from the class path, as they do from our application jar and image. That is how the workbench is
+     * built, tested and shipped, and the line would only alarm a user at the bench, so JavaFX's logger reports errors
+     * only while the toolkit starts ({@link #toolkitStarted()} gives it back its level; its other warnings, such as
+     * those of style sheets, stay). Held here: a logger nobody references may be collected, and its level with it.
+     */
+    private static final java.util.logging.Logger JAVAFX_LOG = java.util.logging.Logger.getLogger("javafx");
+
+    /** Called by the workbench once the toolkit runs: JavaFX's warnings are reported again. */
+    static void toolkitStarted() { JAVAFX_LOG.setLevel(null); }
+
     /** Starts the workbench and returns when its window closes. */
     public static void launch(String[] files) { launch(files, false); }
 
@@ -34,6 +46,7 @@ public final class WorkbenchLauncher {
             Calibration fallback = Arrays.asList(args).contains(Workbench.SAMPLE_FLAG) ? Workbench.SAMPLE_SESSION : Calibration.NONE;
             Workbench.early = EarlyAnalysis.start(Workbench.defaultBackend(), first.get(), fallback, UiSettings.DEFAULT);
         } else Warmup.start();
+        JAVAFX_LOG.setLevel(java.util.logging.Level.SEVERE);
         Application.launch(Workbench.class, Arrays.copyOf(args, args.length));
     }
 
