@@ -19,9 +19,14 @@ import org.outstage.verify.KeyFigures;
 final class LogbookPipelineMeasurer implements LogbookMeasurer {
     @Override
     public List<Measured> measure(Path file, AnalyzeOptions options, OptionalInt channel) {
-        Capture cap = Measuring.open(file, options);
-        List<Measurement> ms = Measuring.measure(cap, options.settings(), options.specConditions(), channel, options.generatorChannelFor(file),
-                file.toString());
+        return measured(Measuring.analyse(file, options, channel), channel);
+    }
+
+    /** The measured channels of a file already analysed for {@code channel} ({@link Measuring#analyse}). */
+    List<Measured> measured(Measuring.Analysed a, OptionalInt channel) {
+        Path file = a.file();
+        Capture cap = a.capture();
+        List<Measurement> ms = a.measurements();
         List<Measured> out = new ArrayList<>();
         List<String> skipped = new ArrayList<>();
         for (Measurement m : ms) {

@@ -45,13 +45,29 @@ public final class Measuring {
      * @throws BadInputException one line naming the file and the problem (unreadable, malformed, channel missing)
      */
     public static FileResult measure(Path file, AnalyzeOptions options) {
+        return result(analyse(file, options, options.channel()), options);
+    }
+
+    /**
+     * One file opened and its selected channels measured, before the sweep check: what {@link #measure(Path, AnalyzeOptions)}
+     * and the logbook's measurer both start from, so a command that needs both ({@code verify}) analyses a file once.
+     */
+    public record Analysed(Path file, Capture capture, List<Measurement> measurements, OptionalInt generatorChannel) {}
+
+    /** Opens {@code file} and measures {@code channel} (every channel when empty) with the options' settings. */
+    public static Analysed analyse(Path file, AnalyzeOptions options, OptionalInt channel) {
         AnalysisSettings settings = options.settings();
         Capture capture = open(file, options);
         OptionalInt generator = options.generatorChannelFor(file);
-        List<Measurement> ms = measure(capture, settings, options.specConditions(), options.channel(), generator, file.toString());
-        SweepChecked checked = checked(file, capture, ms, generator, options.specConditions().stimulus());
+        return new Analysed(file, capture, measure(capture, settings, options.specConditions(), channel, generator, file.toString()), generator);
+    }
+
+    /** The {@link FileResult} of an analysed file: its measurements after the sweep check, with its notes as warnings. */
+    public static FileResult result(Analysed a, AnalyzeOptions options) {
+        Capture capture = a.capture();
+        SweepChecked checked = checked(a.file(), capture, a.measurements(), a.generatorChannel(), options.specConditions().stimulus());
         if (!checked.notes().isEmpty()) capture = capture.withWarnings(checked.notes());
-        return new FileResult(file.toString(), capture, checked.measurements(), generator);
+        return new FileResult(a.file().toString(), capture, checked.measurements(), a.generatorChannel());
     }
 
     /** {@link #sweepChecked}, its notes followed by the band-limited clipping notes of a soundcard WAV ({@link #clippingNotes}). */

@@ -84,6 +84,18 @@ public final class VerifyCommand implements Callable<Integer>, AnalyzeOptions.Me
 
     private record Taken(Path file, LogbookMeasurer.Measured measured) {}
 
+    /** Each file analysed once in a run: the limits' figures and the spec-sheet readings come from the same analysis. */
+    private final java.util.Map<Path, Measuring.Analysed> analysed = new java.util.HashMap<>();
+
+    private Measuring.Analysed analysed(Path file) {
+        Measuring.Analysed a = analysed.get(file);
+        if (a == null) {
+            a = Measuring.analyse(file, analyze, analyze.channel());
+            analysed.put(file, a);
+        }
+        return a;
+    }
+
     @Override
     public Integer call() throws IOException {
         analyze.settings(); // validate before anything is read
@@ -94,7 +106,9 @@ public final class VerifyCommand implements Callable<Integer>, AnalyzeOptions.Me
             SessionSupport.requireReadable(c);
             List<LogbookMeasurer.Measured> measured;
             try {
-                measured = measurer.measure(c, analyze, analyze.channel());
+                // the pipeline's measurer reads the run's one analysis of the file; a measurer installed by a test measures itself
+                measured = measurer instanceof LogbookPipelineMeasurer pipeline ? pipeline.measured(analysed(c), analyze.channel())
+                        : measurer.measure(c, analyze, analyze.channel());
             } catch (BadInputException e) {
                 // a two-tone, noise or sweep capture has no THD figures: not bad input; its spec-sheet figures are read below
                 // when the profile has such limits, and the THD limits it cannot serve stay not-measured
@@ -178,8 +192,8 @@ public final class VerifyCommand implements Callable<Integer>, AnalyzeOptions.Me
     }
 
     /**
-     * The spec-sheet figures of every capture (the same {@code Analyzer} as {@code analyze}, a second pass over the
-     * files): IMD, noise, crosstalk from the measurement; the swept response of sweep captures with a reference
+     * The spec-sheet figures of every capture (the same analysis of each file as the limits read, {@link #analysed}):
+     * IMD, noise, crosstalk from the measurement; the swept response of sweep captures with a reference
      * channel ({@code --stimulus sweep}, or a capture with no single tone); the output impedance of each loaded
      * capture paired with {@code --open-circuit}.
      */
@@ -188,14 +202,14 @@ public final class VerifyCommand implements Callable<Integer>, AnalyzeOptions.Me
         var conditions = analyze.specConditions();
         Optional<org.outstage.analysis.Measurement> open = Optional.empty();
         if (openCircuit != null) {
-            var ms = Measuring.measure(openCircuit, analyze).measurements();
+            var ms = Measuring.result(analysed(openCircuit), analyze).measurements();
             open = ms.stream().filter(org.outstage.analysis.Measurement::measured).findFirst();
             if (open.isEmpty()) throw new BadInputException(openCircuit + ": the open-circuit capture has no tone to measure");
         }
         for (Path c : captures) {
             Measuring.FileResult fr;
             try {
-                fr = Measuring.measure(c, analyze);
+                fr = Measuring.result(analysed(c), analyze);
             } catch (BadInputException e) {
                 spec.commandLine().getErr().println("outstage: warning: no spec-sheet figures: " + e.getMessage());
                 continue;
