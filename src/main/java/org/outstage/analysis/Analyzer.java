@@ -97,7 +97,8 @@ public final class Analyzer {
      *     (SMPTE RP120 modulation method; IEC 60268-3 / DIN 45403 difference-frequency method);</li>
      * <li>noise and hum when the stimulus is {@link StimulusKind#NONE}, or, with AUTO, when no tone is found:
      *     the measurement is "not measured", or its fundamental is below 10 mV in a capture in volts (the same
-     *     rule as verify's noise limit) and no driven channel is named; band and A-weighting after AES17 /
+     *     rule as verify's noise limit) or below 1e-4 of full scale in an uncalibrated one
+     *     ({@link #NOISE_TONE_LIMIT_FULL_SCALE}), and no driven channel is named; band and A-weighting after AES17 /
      *     IEC 61672-1;</li>
      * <li>crosstalk when a driven channel other than this one is named.</li>
      * </ul>
@@ -107,7 +108,8 @@ public final class Analyzer {
         Measurement m = analyze(capture, channelIndex, settings);
         StimulusKind st = conditions.stimulus();
         boolean wantImd = st == StimulusKind.SMPTE || st == StimulusKind.TWIN || (st == StimulusKind.AUTO && !m.measured());
-        boolean weak = !m.measured() || (capture.unit() == SampleUnit.VOLTS && m.fundamental().rms() < NOISE_TONE_LIMIT_VOLTS);
+        boolean weak = !m.measured() || (capture.unit() == SampleUnit.VOLTS && m.fundamental().rms() < NOISE_TONE_LIMIT_VOLTS)
+                || (capture.unit() == SampleUnit.FULL_SCALE && m.fundamental().rms() < NOISE_TONE_LIMIT_FULL_SCALE);
         // a channel of a crosstalk capture is not a noise capture, however weak its tone
         boolean wantNoise = st == StimulusKind.NONE || (st == StimulusKind.AUTO && weak && conditions.drivenChannel().isEmpty());
         int driven = conditions.drivenChannel().orElse(0) - 1;
@@ -143,6 +145,15 @@ public final class Analyzer {
 
     /** A tone below this (10 mV rms, in a capture in volts) is not a test signal: the capture is a noise capture (our rule). */
     public static final double NOISE_TONE_LIMIT_VOLTS = 0.01;
+
+    /**
+     * The same rule for an uncalibrated capture (full-scale units): a strongest line below 1e-4 of full scale rms
+     * (−77 dBFS) is no test tone. It is 10 mV at the amplifier for a full scale of 141 V peak, more than any bench
+     * divider gives, so a tone this rule calls noise would be called noise in volts too; a test tone on a power
+     * amplifier bench sits within some 40 dB of full scale (our rule). Without it, the input-shorted sample capture
+     * read without its calibration gave THD figures of its 50 Hz hum.
+     */
+    public static final double NOISE_TONE_LIMIT_FULL_SCALE = 1e-4;
 
     /** Analyses every channel of {@code capture}, in channel order. */
     public static List<Measurement> analyzeAll(Capture capture, AnalysisSettings settings) {

@@ -140,6 +140,30 @@ class SpecFiguresTest {
         assertTrue(nf.hum().isEmpty(), "white noise has no hum lines");
     }
 
+    /**
+     * An uncalibrated capture (full-scale units) whose strongest line is hum at 7e-6 FS under white noise is a noise
+     * capture with stimulus auto, as it is in volts (Analyzer.NOISE_TONE_LIMIT_FULL_SCALE): noise figures, the hum line,
+     * and the band rms of the noise within 0.1 dB of σ·√(band/(fs/2)) plus the hum's power (§13). A test tone at
+     * 1e-3 FS (−57 dBFS) on the same noise stays a tone: distortion figures, no noise figures.
+     */
+    @Test
+    void uncalibratedHumAndNoise_isANoiseCapture_aQuietTestToneIsNot() {
+        double fs = 48000, sigma = 3e-6, hum = 1e-5;   // hum peak: 7.1e-6 FS rms
+        double[] y = gaussian(21, 96000, sigma);
+        for (int i = 0; i < y.length; i++) y[i] += hum * Math.sin(2 * Math.PI * 50 * i / fs);
+        Measurement m = Analyzer.analyze(Capture.inMemory("shorted", fs, SampleUnit.FULL_SCALE, y), 0, AnalysisSettings.DEFAULT, SpecConditions.AUTO);
+        NoiseFigures nf = m.noise().orElseThrow(() -> new AssertionError("no noise figures: " + m.fundamental()));
+        double truth = Math.sqrt(sigma * sigma * (20000 - 20) / (fs / 2) + hum * hum / 2);
+        assertEquals(0, 20 * Math.log10(nf.rms() / truth), 0.1, "band rms of noise and hum within 0.1 dB");
+        assertEquals(50, nf.hum().get(0).frequencyHz(), 0.05);
+
+        double[] t = gaussian(22, 96000, sigma);
+        for (int i = 0; i < t.length; i++) t[i] += 1e-3 * Math.sqrt(2) * Math.sin(2 * Math.PI * 997 * i / fs);
+        Measurement tone = Analyzer.analyze(Capture.inMemory("quiet tone", fs, SampleUnit.FULL_SCALE, t), 0, AnalysisSettings.DEFAULT, SpecConditions.AUTO);
+        assertTrue(tone.measured() && tone.noise().isEmpty(), "a −57 dBFS test tone is a tone");
+        assertEquals(997, tone.fundamental().frequencyHz(), 0.01);
+    }
+
     @Test
     void hum_at49Point9HzAndRippleHarmonic_foundWithTheirLevels() {
         double fs = 48000;
