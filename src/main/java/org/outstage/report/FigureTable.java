@@ -24,8 +24,12 @@ public final class FigureTable {
         m.imd().ifPresent(i -> sb.append(String.format(Locale.ROOT, "  IMD           %s %%   (%.1f dB)   %s, %s Hz + %s Hz at %.2f:1, d2 %s %%, d3 %s %%%n",
                 sig(i.percent()), i.db(), i.method().label(), num(i.f1Hz()), num(i.f2Hz()), i.ratio(), sig(100 * i.order(2)), sig(100 * i.order(3)))));
         m.noise().ifPresent(n -> {
-            sb.append(String.format(Locale.ROOT, "  noise         %s %s rms (%.1f dB), A-weighted %s %s rms (%.1f dB), band %s-%s Hz%n", sig(n.rms()), u, n.db(),
-                    sig(n.rmsA()), u, n.dbA(), num(n.lowHz()), num(n.highHz())));
+            // dBV in volts; in full-scale units dBFS (AES17: re the rms of a full-scale sine)
+            boolean fs = "FS".equals(u);
+            String dbUnit = fs ? "dBFS" : "V".equals(u) ? "dBV" : "dB re 1 " + u;
+            sb.append(String.format(Locale.ROOT, "  noise         %s %s rms (%.1f %s), A-weighted %s %s rms (%.1f %s), band %s-%s Hz%n", sig(n.rms()), u,
+                    fs ? org.outstage.analysis.Levels.dbfs(n.rms()) : n.db(), dbUnit, sig(n.rmsA()), u,
+                    fs ? org.outstage.analysis.Levels.dbfs(n.rmsA()) : n.dbA(), dbUnit, num(n.lowHz()), num(n.highHz())));
             if (!n.hum().isEmpty()) {
                 sb.append("  hum          ");
                 for (var h : n.hum()) sb.append(String.format(Locale.ROOT, "  %s Hz %s %s", num(h.frequencyHz()), sig(h.rms()), u));

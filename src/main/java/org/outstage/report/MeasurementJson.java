@@ -107,7 +107,7 @@ public final class MeasurementJson {
         return o;
     }
 
-    /** The {@code noise} object (docs/cli.md); dBV only for a capture in volts. */
+    /** The {@code noise} object (docs/cli.md); dBV only for a capture in volts, dBFS only for one in full-scale units. */
     public static Map<String, Object> noise(NoiseFigures n, String unit) {
         boolean volts = "V".equals(unit);
         List<Object> hum = new ArrayList<>();
@@ -117,6 +117,10 @@ public final class MeasurementJson {
         o.put("rms_a", n.rmsA());
         o.put("dbv", volts ? n.db() : null);
         o.put("dbv_a", volts ? n.dbA() : null);
+        // added: AES17 dBFS (re the rms of a full-scale sine) for a capture in full-scale units, else null
+        boolean fs = "FS".equals(unit);
+        o.put("dbfs", fs ? org.outstage.analysis.Levels.dbfs(n.rms()) : null);
+        o.put("dbfs_a", fs ? org.outstage.analysis.Levels.dbfs(n.rmsA()) : null);
         o.put("band_hz", new double[] {n.lowHz(), n.highHz()});
         o.put("mains_hz", n.mainsHz().isPresent() ? n.mainsHz().getAsDouble() : null);
         o.put("hum", hum);

@@ -195,11 +195,14 @@ final class AnalyzerBackend implements Backend {
     /** The noise figures: rms and A-weighted in the band, S/N when a load is known, the mains hum lines. */
     static List<FigureRow> noiseRows(NoiseFigures n, String unit) {
         List<FigureRow> rows = new ArrayList<>();
-        String dbUnit = "V".equals(unit) ? "dBV" : "dB re 1 " + unit;
+        // dBV in volts; in full-scale units dBFS (AES17: re the rms of a full-scale sine), as the command line prints
+        boolean fs = "FS".equals(unit);
+        String dbUnit = fs ? "dBFS" : "V".equals(unit) ? "dBV" : "dB re 1 " + unit;
+        double noiseDb = fs ? Levels.dbfs(n.rms()) : n.db(), noiseDbA = fs ? Levels.dbfs(n.rmsA()) : n.dbA();
         String band = Levels.formatHz(n.lowHz()) + "–" + Levels.formatHz(n.highHz());
-        rows.add(new FigureRow("noiseValue", "Noise (rms)", num(n.rms()), unit, db(n.db()) + " " + dbUnit + "; " + band + ", unweighted"));
-        rows.add(new FigureRow("noiseAValue", "Noise A-wtd", num(n.rmsA()), unit, db(n.dbA()) + " " + dbUnit + "; IEC 61672-1 A-weighting"));
-        rows.add(new FigureRow("noiseDbValue", "Noise", db(n.db()), dbUnit, "unweighted, " + band));
+        rows.add(new FigureRow("noiseValue", "Noise (rms)", num(n.rms()), unit, db(noiseDb) + " " + dbUnit + "; " + band + ", unweighted"));
+        rows.add(new FigureRow("noiseAValue", "Noise A-wtd", num(n.rmsA()), unit, db(noiseDbA) + " " + dbUnit + "; IEC 61672-1 A-weighting"));
+        rows.add(new FigureRow("noiseDbValue", "Noise", db(noiseDb), dbUnit, "unweighted, " + band));
         if (n.snrRe1WDb().isPresent())
             rows.add(new FigureRow("snrValue", "S/N re 1 W", db(n.snrRe1WDb().getAsDouble()), "dB",
                     "A-weighted " + db(n.snrRe1WADb().getAsDouble()) + " dB"));

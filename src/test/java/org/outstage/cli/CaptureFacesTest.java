@@ -16,12 +16,12 @@ import org.outstage.capture.WavWriter;
 import org.outstage.json.JsonText;
 
 /**
- * A tone locked to the sample rate (1 kHz at 48 kHz: 48 sample phases) does not cover the crossing, so the crossover
+ * Captures whose reading the faces of the command line must agree on. A tone locked to the sample rate (1 kHz at 48 kHz: 48 sample phases) does not cover the crossing, so the crossover
  * figures are not given, and every face of the command line says so the same way: the table, the JSON's flags and
  * cautions, and the figures a bias step would store in the logbook. The same stage at 997 Hz gives them (the rule
  * must not catch a tone that is not locked). The measurement truth behind the rule is in MeasurementTruthTest.
  */
-class LockedToneFacesTest {
+class CaptureFacesTest {
     @TempDir Path dir;
 
     /** One second at 48 kHz of a sine at f, half of full scale, through a mild odd law (a cubic and a small dead zone). */
@@ -70,6 +70,25 @@ class LockedToneFacesTest {
         assertEquals(true, ((Map<String, Object>) f.get("crossover")).get("crossing_observed"));
         Measurement mf = Analyzer.analyze(readMono(free), 48000, SampleUnit.FULL_SCALE);
         assertTrue(LogbookPipelineMeasurer.figures(mf).gainAtZero().isPresent());
+    }
+
+    /**
+     * The input-shorted sample capture read without its calibration is a noise capture (Analyzer's full-scale rule),
+     * and its levels are in dBFS as AES17 defines it: re the rms of a full-scale sine, 20·lg(rms·√2) for a capture
+     * whose 1.0 is the full-scale peak.
+     */
+    @SuppressWarnings("unchecked")
+    @Test
+    void uncalibratedNoiseCapture_isNoise_inDbfsAfterAes17() {
+        Path shorted = Path.of(System.getProperty("outstage.project.dir", ".")).resolve("sample-captures/da60-noise-input-shorted.wav");
+        CliRun text = CliRun.of("analyze", shorted.toString());
+        assertEquals(0, text.exit(), text.err());
+        assertTrue(text.out().contains("not a test tone (noise capture)"), text.out());
+        Map<String, Object> noise = (Map<String, Object>) json(shorted).get("noise");
+        double rms = (Double) noise.get("rms");
+        assertEquals(20 * Math.log10(rms * Math.sqrt(2)), (Double) noise.get("dbfs"), 1e-9);
+        assertEquals(null, noise.get("dbv"));
+        assertTrue(text.out().contains(String.format(java.util.Locale.ROOT, "(%.1f dBFS)", 20 * Math.log10(rms * Math.sqrt(2)))), text.out());
     }
 
     private static double[] readMono(Path wav) throws Exception {
