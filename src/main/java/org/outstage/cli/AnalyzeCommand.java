@@ -33,16 +33,12 @@ public final class AnalyzeCommand implements Callable<Integer> {
 
     private CommandSpec spec;
 
+    // the options' fields, bound by model()
     final AnalyzeOptions options = new AnalyzeOptions();
-
     boolean json;
-
     boolean csv;
-
     Path residual;
-
     String residualBand;
-
     List<Path> files;
 
     /**

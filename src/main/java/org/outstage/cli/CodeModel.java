@@ -12,9 +12,9 @@ import picocli.CommandLine.Model.OptionSpec;
  * {@code analyze} and the measurement options every capture-reading command shares ({@link AnalyzeOptions}).
  *
  * <p>Why: the first annotation the JVM reads makes it generate a proxy class per annotation type, in a module it
- * defines for them, with a bytecode writer that runs interpreted that early. On the analyze path that cost some
- * 25 ms of a 0.3 s run (docs/performance.md, "Fourth round"). The other commands keep their annotations: they are
- * not run in batches, and a tenth of a second does not matter to them.
+ * defines for them, with a bytecode writer that runs interpreted that early. On the analyze path that cost 25–30 ms
+ * of a 0.3 s run (docs/performance.md, "Fourth round"). The other commands keep their annotations: their runs are
+ * longer (a logbook, a device, a report) or rarer, and the same milliseconds are a small part of them.
  */
 final class CodeModel {
     private CodeModel() {}
@@ -65,7 +65,7 @@ final class CodeModel {
         }
     }
 
-    /** An option bound to a field: {@code names}, its type, parameter label and description. */
+    /** An option bound to a field: its name, type, parameter label (none for a flag) and description. */
     static OptionSpec.Builder option(String name, Class<?> type, String paramLabel, String description, Binding field) {
         // the field's value now is the initial value picocli restores before a parse (as it does for an annotated field)
         OptionSpec.Builder b = OptionSpec.builder(name).type(type).description(description).getter(field).setter(field)
