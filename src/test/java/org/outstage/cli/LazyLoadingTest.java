@@ -28,6 +28,26 @@ class LazyLoadingTest {
         assertEquals(List.of(), loaded("analyze", project.resolve("sample-captures/da60-level-005W.wav").toString()));
     }
 
+    /**
+     * Issue 13, "keep JavaFX, SQLite and the model off the analyze path": an analysis loads no class of JavaFX, of the
+     * SQLite driver, of the logbook, the output-stage model or the workbench. The detector's own check is
+     * {@link #sessionListOnNewSqliteLogbook_loadsFlyway}'s kind: the same filter finds the SQLite driver there.
+     */
+    @Test
+    void analyze_loadsNoJavaFxSqliteLogbookModelOrWorkbench() throws Exception {
+        Path project = Path.of(System.getProperty("outstage.project.dir", "."));
+        List<String> off = ChildJvm.classLoadLog(dir, "analyze", "--json", project.resolve("sample-captures/da60-level-005W.wav").toString())
+                .stream().filter(LazyLoadingTest::offTheAnalyzePath).toList();
+        assertEquals(List.of(), off);
+        assertTrue(ChildJvm.classLoadLog(dir, "session", "list", "--logbook", dir.resolve("lb2.db").toString()).stream()
+                .anyMatch(LazyLoadingTest::offTheAnalyzePath), "the filter sees the logbook and SQLite classes of a logbook command");
+    }
+
+    private static boolean offTheAnalyzePath(String line) {
+        return line.contains(" javafx.") || line.contains(" com.sun.javafx.") || line.contains(" org.sqlite.")
+                || line.contains(" org.outstage.logbook.") || line.contains(" org.outstage.model.") || line.contains(" org.outstage.ui.");
+    }
+
     @Test
     void sessionListOnUpToDateSqliteLogbook_loadsNoPoolMigrationsOrDriver() throws Exception {
         Path db = dir.resolve("lb.db");
