@@ -42,6 +42,15 @@ public final class Levels {
     /** dBFS after AES17: the rms of a full-scale sine (peak 1.0, rms 1/√2) is 0 dBFS. */
     public static double dbfs(double rmsFullScale) { return 20 * Math.log10(rmsFullScale * Math.sqrt(2)); }
 
+    /**
+     * An rms level in the decibels of its capture unit: dBV for volts ({@code "V"}), dBFS after AES17 for full-scale
+     * units ({@code "FS"}), else dB re 1 of the unit. The unit's name is {@link #levelDbUnit}.
+     */
+    public static double levelDb(double rms, String unit) { return "FS".equals(unit) ? dbfs(rms) : 20 * Math.log10(rms); }
+
+    /** The name of {@link #levelDb}'s decibels: "dBV", "dBFS" or "dB re 1 UNIT". */
+    public static String levelDbUnit(String unit) { return "FS".equals(unit) ? "dBFS" : "V".equals(unit) ? "dBV" : "dB re 1 " + unit; }
+
     /** A frequency for labels: "20 Hz", "22 kHz", "997 Hz", "22.4 kHz". */
     public static String formatHz(double hz) {
         if (hz >= 1000) return trim(hz / 1000) + " kHz";

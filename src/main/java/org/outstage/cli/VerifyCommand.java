@@ -88,12 +88,7 @@ public final class VerifyCommand implements Callable<Integer>, AnalyzeOptions.Me
     private final java.util.Map<Path, Measuring.Analysed> analysed = new java.util.HashMap<>();
 
     private Measuring.Analysed analysed(Path file) {
-        Measuring.Analysed a = analysed.get(file);
-        if (a == null) {
-            a = Measuring.analyse(file, analyze, analyze.channel());
-            analysed.put(file, a);
-        }
-        return a;
+        return analysed.computeIfAbsent(file, f -> Measuring.analyse(f, analyze, analyze.channel()));
     }
 
     @Override

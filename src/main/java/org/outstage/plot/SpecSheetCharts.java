@@ -95,16 +95,18 @@ public final class SpecSheetCharts {
                         new Series("products", pf, pl, Series.Style.BARS, Series.Role.MEASURED_ALT)), marks, List.of(), List.of());
     }
 
-    /** The hum lines in dB re 1 unit (dBV in volts), with the band's noise rms and its A-weighted value as lines. */
+    /**
+     * The hum lines in the capture unit's decibels ({@link Levels#levelDb}: dBV in volts, dBFS in full-scale units, as
+     * the table prints them), with the band's noise rms and its A-weighted value as lines.
+     */
     public static ChartSpec hum(String name, NoiseFigures n, String unit) {
         int k = n.hum().size();
         double[] f = new double[k], l = new double[k];
-        for (int i = 0; i < k; i++) { f[i] = n.hum().get(i).frequencyHz(); l[i] = 20 * Math.log10(Math.max(n.hum().get(i).rms(), 1e-12)); }
-        String u = "V".equals(unit) ? "dBV" : "dB re 1 " + unit;
-        return new ChartSpec(name + " — noise and hum", Axis.log("Frequency", "Hz"), Axis.linear("Level", u),
+        for (int i = 0; i < k; i++) { f[i] = n.hum().get(i).frequencyHz(); l[i] = Levels.levelDb(Math.max(n.hum().get(i).rms(), 1e-12), unit); }
+        return new ChartSpec(name + " — noise and hum", Axis.log("Frequency", "Hz"), Axis.linear("Level", Levels.levelDbUnit(unit)),
                 List.of(new Series("hum lines", f, l, Series.Style.BARS, Series.Role.MEASURED)), List.of(), List.of(),
-                List.of(new HorizontalLine(n.db(), "noise in the band", Series.Role.MEASURED_ALT),
-                        new HorizontalLine(n.dbA(), "noise A-weighted", Series.Role.LIMIT)));
+                List.of(new HorizontalLine(Levels.levelDb(n.rms(), unit), "noise in the band", Series.Role.MEASURED_ALT),
+                        new HorizontalLine(Levels.levelDb(n.rmsA(), unit), "noise A-weighted", Series.Role.LIMIT)));
     }
 
     /**

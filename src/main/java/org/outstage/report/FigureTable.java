@@ -25,11 +25,10 @@ public final class FigureTable {
                 sig(i.percent()), i.db(), i.method().label(), num(i.f1Hz()), num(i.f2Hz()), i.ratio(), sig(100 * i.order(2)), sig(100 * i.order(3)))));
         m.noise().ifPresent(n -> {
             // dBV in volts; in full-scale units dBFS (AES17: re the rms of a full-scale sine)
-            boolean fs = "FS".equals(u);
-            String dbUnit = fs ? "dBFS" : "V".equals(u) ? "dBV" : "dB re 1 " + u;
+            String dbUnit = org.outstage.analysis.Levels.levelDbUnit(u);
             sb.append(String.format(Locale.ROOT, "  noise         %s %s rms (%.1f %s), A-weighted %s %s rms (%.1f %s), band %s-%s Hz%n", sig(n.rms()), u,
-                    fs ? org.outstage.analysis.Levels.dbfs(n.rms()) : n.db(), dbUnit, sig(n.rmsA()), u,
-                    fs ? org.outstage.analysis.Levels.dbfs(n.rmsA()) : n.dbA(), dbUnit, num(n.lowHz()), num(n.highHz())));
+                    org.outstage.analysis.Levels.levelDb(n.rms(), u), dbUnit, sig(n.rmsA()), u,
+                    org.outstage.analysis.Levels.levelDb(n.rmsA(), u), dbUnit, num(n.lowHz()), num(n.highHz())));
             if (!n.hum().isEmpty()) {
                 sb.append("  hum          ");
                 for (var h : n.hum()) sb.append(String.format(Locale.ROOT, "  %s Hz %s %s", num(h.frequencyHz()), sig(h.rms()), u));

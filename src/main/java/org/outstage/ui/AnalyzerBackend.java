@@ -196,9 +196,8 @@ final class AnalyzerBackend implements Backend {
     static List<FigureRow> noiseRows(NoiseFigures n, String unit) {
         List<FigureRow> rows = new ArrayList<>();
         // dBV in volts; in full-scale units dBFS (AES17: re the rms of a full-scale sine), as the command line prints
-        boolean fs = "FS".equals(unit);
-        String dbUnit = fs ? "dBFS" : "V".equals(unit) ? "dBV" : "dB re 1 " + unit;
-        double noiseDb = fs ? Levels.dbfs(n.rms()) : n.db(), noiseDbA = fs ? Levels.dbfs(n.rmsA()) : n.dbA();
+        String dbUnit = Levels.levelDbUnit(unit);
+        double noiseDb = Levels.levelDb(n.rms(), unit), noiseDbA = Levels.levelDb(n.rmsA(), unit);
         String band = Levels.formatHz(n.lowHz()) + "–" + Levels.formatHz(n.highHz());
         rows.add(new FigureRow("noiseValue", "Noise (rms)", num(n.rms()), unit, db(noiseDb) + " " + dbUnit + "; " + band + ", unweighted"));
         rows.add(new FigureRow("noiseAValue", "Noise A-wtd", num(n.rmsA()), unit, db(noiseDbA) + " " + dbUnit + "; IEC 61672-1 A-weighting"));
