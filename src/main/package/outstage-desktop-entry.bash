@@ -3,6 +3,11 @@
 # and icon where the image is now, into ${XDG_DATA_HOME:-~/.local/share}/applications/. Run it again after moving the
 # image. tools/package-image installs it as bin/outstage-desktop-entry, with the entry's template in lib/.
 set -euo pipefail
+case "${1:-}" in
+  -h|--help) echo "usage: outstage-desktop-entry    adds Outstage to the desktop's application menu, naming this image where it is now"; exit 0 ;;
+  "") ;;
+  *) echo "outstage-desktop-entry: no option '$1' (usage: outstage-desktop-entry [--help])" >&2; exit 2 ;;
+esac
 app="$(cd "$(dirname "$(readlink -f "${BASH_SOURCE[0]}")")/.." && pwd -P)"
 template="$app/lib/outstage.desktop.in"
 [ -f "$template" ] || { echo "outstage-desktop-entry: $template is missing" >&2; exit 2; }
